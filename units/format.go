@@ -1,0 +1,173 @@
+package units
+
+import (
+	"math"
+	"strconv"
+	"strings"
+)
+
+// prefixPolicy says which prefixes a preferred unit may take when sheaf picks
+// one for a result that has no display unit.
+type prefixPolicy uint8
+
+const (
+	noPrefix   prefixPolicy = iota
+	engPrefix               // any power of 1000 between pico and tera
+	downPrefix              // only submultiples: ms, µs, but never ks
+	areaPrefix              // for squares and cubes: mm², cm², m², km²
+	massPrefix              // µg to kg; above that the tonne reads better than Mg
+)
+
+type preferred struct {
+	symbol string // unit expression
+	head   string // the symbol a prefix attaches to
+	exp    int    // the power of the head, which scales the prefix
+	policy prefixPolicy
+}
+
+func dimOf(expr string) Dim {
+	u, err := Parse(expr)
+	if err != nil {
+		panic("units: preferred unit " + expr + ": " + err.Error())
+	}
+	return u.Dim
+}
+
+// preferredUnits maps a dimension to the unit an engineer expects to read it
+// in. Dimensions not listed print in coherent SI base units.
+var preferredUnits = func() map[Dim]preferred {
+	rows := []preferred{
+		{"m", "m", 1, engPrefix}, {"g", "g", 1, massPrefix}, {"s", "s", 1, downPrefix},
+		{"A", "A", 1, engPrefix}, {"K", "K", 1, noPrefix}, {"mol", "mol", 1, engPrefix},
+		{"cd", "cd", 1, noPrefix}, {"m^2", "m", 2, areaPrefix}, {"m^3", "m", 3, areaPrefix},
+		{"N", "N", 1, engPrefix}, {"Pa", "Pa", 1, engPrefix}, {"J", "J", 1, engPrefix},
+		{"W", "W", 1, engPrefix}, {"C", "C", 1, engPrefix}, {"V", "V", 1, engPrefix},
+		{"F", "F", 1, engPrefix}, {"Ω", "Ω", 1, engPrefix}, {"S", "S", 1, engPrefix},
+		{"Wb", "Wb", 1, engPrefix}, {"T", "T", 1, engPrefix}, {"H", "H", 1, engPrefix},
+		{"A/m", "A", 1, engPrefix}, {"V/m", "V", 1, engPrefix}, {"A/m^2", "A", 1, engPrefix},
+		{"H/m", "H", 1, engPrefix}, {"F/m", "F", 1, engPrefix}, {"A/Wb", "A", 1, engPrefix},
+		{"Ω*m", "Ω", 1, engPrefix}, {"S/m", "S", 1, engPrefix}, {"m/s", "m", 1, engPrefix},
+		{"m/s^2", "m", 1, noPrefix}, {"kg*m^2", "", 0, noPrefix}, {"1/K", "", 0, noPrefix},
+		{"K/W", "K", 1, noPrefix}, {"W/K", "W", 1, engPrefix}, {"V/s", "V", 1, engPrefix},
+		{"A/s", "A", 1, engPrefix}, {"kg/m^3", "", 0, noPrefix}, {"W/m^2", "W", 1, engPrefix},
+		{"Wb/m", "Wb", 1, engPrefix}, {"N/m", "N", 1, engPrefix}, {"J/kg", "J", 1, engPrefix},
+		{"V/A", "Ω", 1, engPrefix}, {"1/s", "", 0, noPrefix},
+	}
+	m := map[Dim]preferred{}
+	for _, r := range rows {
+		d := dimOf(r.symbol)
+		if _, dup := m[d]; !dup {
+			m[d] = r
+		}
+	}
+	return m
+}()
+
+// AutoUnit picks the unit in which to show an SI value v of dimension d and
+// kind k when the author gave none: the preferred unit for the dimension,
+// with the SI prefix that puts the number between 1 and 1000.
+func AutoUnit(v float64, d Dim, k Kind) Unit {
+	switch {
+	case k == AbsTemp && d == DimOf(Temperature):
+		u, _ := Lookup("°C")
+		return u
+	case k == Angle && d.IsDimensionless():
+		u, _ := Lookup("°")
+		return u
+	case k == Angle && d == (Dim{Time: -1}):
+		u, _ := Parse("rad/s")
+		return u
+	case k == Cycle && d == (Dim{Time: -1}):
+		return withPrefix(v, preferred{"Hz", "Hz", 1, engPrefix})
+	case d.IsDimensionless():
+		return One
+	}
+	p, ok := preferredUnits[d]
+	if !ok {
+		return Unit{Symbol: d.SIUnits(), Dim: d, Scale: 1}
+	}
+	return withPrefix(v, p)
+}
+
+func withPrefix(v float64, p preferred) Unit {
+	u, _ := Parse(p.symbol)
+	if p.policy == noPrefix || v == 0 || math.IsNaN(v) || math.IsInf(v, 0) {
+		return u
+	}
+	mag := math.Abs(v) / u.Scale // the value in the unprefixed unit
+	var candidates []int
+	switch p.policy {
+	case engPrefix:
+		candidates = []int{-12, -9, -6, -3, 0, 3, 6, 9, 12}
+	case downPrefix:
+		candidates = []int{-12, -9, -6, -3, 0}
+	case areaPrefix:
+		candidates = []int{-3, -2, 0, 3}
+	case massPrefix:
+		candidates = []int{-9, -6, -3, 0, 3}
+	}
+	// Choose the largest prefix that leaves a number of at least 1.
+	best := candidates[0]
+	for _, e := range candidates {
+		if mag/math.Pow10(e*p.exp) >= 1-1e-12 {
+			best = e
+		}
+	}
+	if best == 0 {
+		return u
+	}
+	pr, _ := prefixByExp(best)
+	out := u
+	out.Scale = u.Scale * math.Pow10(best*p.exp)
+	out.Symbol = strings.Replace(u.Symbol, p.head, pr.Symbol+p.head, 1)
+	return out
+}
+
+// FormatNumber writes x to sig significant figures, keeping trailing zeros
+// (they state the precision). Numbers from 0.001 up to a million print in
+// plain decimals, others with an exponent: "1.235e+09". The minus sign is
+// ASCII; renderers may set a typographic one.
+func FormatNumber(x float64, sig int) string {
+	if sig < 1 {
+		sig = 1
+	}
+	if sig > 17 {
+		sig = 17
+	}
+	switch {
+	case math.IsNaN(x):
+		return "NaN"
+	case math.IsInf(x, 1):
+		return "+Inf"
+	case math.IsInf(x, -1):
+		return "-Inf"
+	case x == 0:
+		return "0"
+	}
+	// Round first, then decide the notation from the rounded value, so that
+	// 999.96 to 4 figures prints as 1000, not 1000.0.
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(x, 'e', sig-1, 64), 64)
+	e := int(math.Floor(math.Log10(math.Abs(r))))
+	if e < -3 || e >= 6 {
+		return strconv.FormatFloat(r, 'e', sig-1, 64)
+	}
+	decimals := sig - 1 - e
+	if decimals < 0 {
+		decimals = 0
+	}
+	return strconv.FormatFloat(r, 'f', decimals, 64)
+}
+
+// SplitExponent splits "1.235e+09" into "1.235" and 9; plain numbers give
+// the number and 0.
+func SplitExponent(s string) (string, int) {
+	i := strings.IndexByte(s, 'e')
+	if i < 0 {
+		return s, 0
+	}
+	e, err := strconv.Atoi(s[i+1:])
+	if err != nil {
+		return s, 0
+	}
+	return s[:i], e
+}
