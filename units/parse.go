@@ -390,7 +390,10 @@ func (r *registry) suggest(sym string) string {
 		}
 	}
 	limit := 1
-	if utf8.RuneCountInString(sym) > 3 {
+	switch n := utf8.RuneCountInString(sym); {
+	case n <= 1:
+		return "" // one letter is too little to guess from
+	case n > 3:
 		limit = 2
 	}
 	best, bestD := "", limit+1

@@ -1,0 +1,129 @@
+// Package engine is sheaf's formula language: it reads statements, builds
+// the dependency graph of a sheet, infers the dimension of every expression
+// before anything runs, compiles expressions to plain float64 arithmetic in
+// coherent SI, and evaluates them in dependency order.
+//
+// The engine knows nothing of Markdown: it takes lines of text with their
+// positions and returns results and diagnostics tied to those positions.
+package engine
+
+import (
+	"github.com/sheaf-calc/sheaf/diag"
+	"github.com/sheaf-calc/sheaf/units"
+)
+
+// Expr is a node of a formula's syntax tree. Every node records where it
+// starts and what the checker inferred for it.
+type Expr interface {
+	Pos() diag.Pos
+	Type() *Type
+	children() []Expr
+	base() *node
+}
+
+// Type is what the checker inferred for a node before evaluation.
+type Type struct {
+	Dim  units.Dim
+	Kind units.Kind
+	// Const is set when the node's value is fixed at compile time (literals,
+	// built-in constants and arithmetic over them); Val holds it in SI.
+	Const bool
+	Val   float64
+}
+
+type node struct {
+	P diag.Pos
+	T Type
+	// fn evaluates the node over the sheet's slot values; set by compile.
+	fn evalFn
+}
+
+func (n *node) Pos() diag.Pos { return n.P }
+func (n *node) Type() *Type   { return &n.T }
+func (n *node) base() *node   { return n }
+
+// Number is a plain number with no unit: 2, 0.5, 1e-3.
+type Number struct {
+	node
+	Text  string
+	Value float64
+}
+
+// Quantity is a number with a unit, written as "0.92 T" or "180 mm".
+type Quantity struct {
+	node
+	Text     string // the number as written
+	UnitText string // the unit as written
+	Value    float64
+	Unit     units.Unit
+	SI       float64
+}
+
+// Ref names a statement of the sheet or a built-in constant.
+type Ref struct {
+	node
+	Name     string
+	Target   *Statement      // set when the name is a statement of the sheet
+	Constant *units.Constant // set when it is a built-in constant
+}
+
+// Unary is -x or +x.
+type Unary struct {
+	node
+	Op string
+	X  Expr
+}
+
+// Binary is x op y for + - * / ^ and, at the top of a check, a comparison.
+type Binary struct {
+	node
+	Op   string
+	X, Y Expr
+}
+
+// Call applies a built-in function.
+type Call struct {
+	node
+	Name string
+	Func *Function
+	Args []Expr
+}
+
+func (*Number) children() []Expr   { return nil }
+func (*Quantity) children() []Expr { return nil }
+func (*Ref) children() []Expr      { return nil }
+func (u *Unary) children() []Expr  { return []Expr{u.X} }
+func (b *Binary) children() []Expr { return []Expr{b.X, b.Y} }
+func (c *Call) children() []Expr   { return c.Args }
+
+// Walk calls f for every node of the tree, parents before children.
+func Walk(e Expr, f func(Expr)) {
+	if e == nil {
+		return
+	}
+	f(e)
+	for _, c := range e.children() {
+		Walk(c, f)
+	}
+}
+
+// Precedence gives the binding strength of a node's operator, for printing
+// with the fewest parentheses.
+func Precedence(e Expr) int {
+	switch n := e.(type) {
+	case *Binary:
+		switch n.Op {
+		case "+", "-":
+			return 1
+		case "*", "/":
+			return 2
+		case "^":
+			return 4
+		default:
+			return 0 // comparisons
+		}
+	case *Unary:
+		return 3
+	}
+	return 5
+}

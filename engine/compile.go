@@ -1,0 +1,148 @@
+package engine
+
+import (
+	"math"
+)
+
+// evalFn computes a node from the sheet's slot values, all in coherent SI.
+// Compiled formulas are trees of these closures over plain float64s: the
+// units were dealt with when the formula was checked.
+type evalFn func(v []float64) float64
+
+// compile builds the closure for every node of e and returns the root's.
+func compile(e Expr) evalFn {
+	for _, c := range e.children() {
+		compile(c)
+	}
+	fn := compileNode(e)
+	e.base().fn = fn
+	return fn
+}
+
+func fnOf(e Expr) evalFn { return e.base().fn }
+
+func constant(c float64) evalFn { return func([]float64) float64 { return c } }
+
+func compileNode(e Expr) evalFn {
+	t := e.Type()
+	if t.Const && !math.IsNaN(t.Val) && !math.IsInf(t.Val, 0) {
+		return constant(t.Val)
+	}
+	switch n := e.(type) {
+	case *Number:
+		return constant(n.Value)
+	case *Quantity:
+		return constant(n.SI)
+	case *Ref:
+		if n.Constant != nil {
+			return constant(n.Constant.Value)
+		}
+		i := n.Target.slot
+		return func(v []float64) float64 { return v[i] }
+	case *Unary:
+		x := fnOf(n.X)
+		if n.Op == "+" {
+			return x
+		}
+		return func(v []float64) float64 { return -x(v) }
+	case *Binary:
+		return compileBinary(n)
+	case *Call:
+		return compileCall(n)
+	}
+	return constant(math.NaN())
+}
+
+func compileBinary(n *Binary) evalFn {
+	x, y := fnOf(n.X), fnOf(n.Y)
+	// Reading a slot or a constant directly saves a call on the hot path.
+	xs, xSlot := slotOf(n.X)
+	ys, ySlot := slotOf(n.Y)
+	yc, yConst := constOf(n.Y)
+	switch n.Op {
+	case "+":
+		if xSlot && ySlot {
+			return func(v []float64) float64 { return v[xs] + v[ys] }
+		}
+		return func(v []float64) float64 { return x(v) + y(v) }
+	case "-":
+		if xSlot && ySlot {
+			return func(v []float64) float64 { return v[xs] - v[ys] }
+		}
+		return func(v []float64) float64 { return x(v) - y(v) }
+	case "*":
+		switch {
+		case xSlot && ySlot:
+			return func(v []float64) float64 { return v[xs] * v[ys] }
+		case xSlot && yConst:
+			return func(v []float64) float64 { return v[xs] * yc }
+		case ySlot:
+			return func(v []float64) float64 { return x(v) * v[ys] }
+		case yConst:
+			return func(v []float64) float64 { return x(v) * yc }
+		}
+		return func(v []float64) float64 { return x(v) * y(v) }
+	case "/":
+		switch {
+		case xSlot && ySlot:
+			return func(v []float64) float64 { return v[xs] / v[ys] }
+		case ySlot:
+			return func(v []float64) float64 { return x(v) / v[ys] }
+		}
+		return func(v []float64) float64 { return x(v) / y(v) }
+	case "^":
+		if yConst {
+			switch yc {
+			case 2:
+				return func(v []float64) float64 { a := x(v); return a * a }
+			case 3:
+				return func(v []float64) float64 { a := x(v); return a * a * a }
+			case 0.5:
+				return func(v []float64) float64 { return math.Sqrt(x(v)) }
+			case -1:
+				return func(v []float64) float64 { return 1 / x(v) }
+			}
+		}
+		return func(v []float64) float64 { return math.Pow(x(v), y(v)) }
+	}
+	return constant(math.NaN())
+}
+
+func slotOf(e Expr) (int, bool) {
+	if r, ok := e.(*Ref); ok && r.Target != nil && !r.T.Const {
+		return r.Target.slot, true
+	}
+	return 0, false
+}
+
+func constOf(e Expr) (float64, bool) {
+	t := e.Type()
+	if t.Const && !math.IsNaN(t.Val) && !math.IsInf(t.Val, 0) {
+		return t.Val, true
+	}
+	return 0, false
+}
+
+func compileCall(n *Call) evalFn {
+	f := n.Func
+	args := make([]evalFn, len(n.Args))
+	for i, a := range n.Args {
+		args[i] = fnOf(a)
+	}
+	switch {
+	case f.f1 != nil:
+		g, a := f.f1, args[0]
+		return func(v []float64) float64 { return g(a(v)) }
+	case len(args) == 2:
+		g, a, b := f.f2, args[0], args[1]
+		return func(v []float64) float64 { return g(a(v), b(v)) }
+	}
+	g := f.f2
+	return func(v []float64) float64 {
+		acc := args[0](v)
+		for _, a := range args[1:] {
+			acc = g(acc, a(v))
+		}
+		return acc
+	}
+}

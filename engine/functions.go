@@ -1,0 +1,139 @@
+package engine
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+
+	"github.com/sheaf-calc/sheaf/units"
+)
+
+// argRule says what a function needs of its arguments' dimensions.
+type argRule uint8
+
+const (
+	anyDim        argRule = iota // sqrt, abs
+	sameDim                      // min, max, hypot, atan2: all arguments alike
+	dimensionless                // exp, ln, sin, round: pure numbers (angles are)
+)
+
+// resultRule says what dimension and kind the result has.
+type resultRule uint8
+
+const (
+	likeArg  resultRule = iota // abs, min, max, hypot
+	halfArg                    // sqrt
+	plainOne                   // exp, ln, sin, round
+	angle                      // asin, acos, atan, atan2
+)
+
+// Function is one entry of the function table. Adding a function is adding
+// an entry: its arity, what it asks of its arguments' dimensions, what it
+// returns, and its arithmetic.
+type Function struct {
+	Name    string
+	MinArgs int
+	MaxArgs int // -1 for any number
+	Usage   string
+	Doc     string
+	args    argRule
+	result  resultRule
+	// domain explains a non-finite result from finite arguments.
+	domain string
+	f1     func(float64) float64
+	f2     func(float64, float64) float64
+}
+
+func (f *Function) arity() string {
+	switch {
+	case f.MaxArgs < 0:
+		return fmt.Sprintf("%d or more arguments", f.MinArgs)
+	case f.MinArgs == f.MaxArgs && f.MinArgs == 1:
+		return "one argument"
+	case f.MinArgs == f.MaxArgs:
+		return fmt.Sprintf("%d arguments", f.MinArgs)
+	}
+	return fmt.Sprintf("%d to %d arguments", f.MinArgs, f.MaxArgs)
+}
+
+func one(name, doc string, args argRule, result resultRule, domain string, f func(float64) float64) *Function {
+	return &Function{Name: name, MinArgs: 1, MaxArgs: 1, Usage: name + "(x)", Doc: doc, args: args, result: result, domain: domain, f1: f}
+}
+
+func two(name, doc string, args argRule, result resultRule, f func(float64, float64) float64) *Function {
+	return &Function{Name: name, MinArgs: 2, MaxArgs: 2, Usage: name + "(x, y)", Doc: doc, args: args, result: result, f2: f}
+}
+
+func many(name, doc string, f func(float64, float64) float64) *Function {
+	return &Function{Name: name, MinArgs: 2, MaxArgs: -1, Usage: name + "(x, y, ...)", Doc: doc, args: sameDim, result: likeArg, f2: f}
+}
+
+// functions is the function table.
+var functions = map[string]*Function{}
+
+func init() {
+	for _, f := range []*Function{
+		one("sqrt", "square root; halves the exponents of the dimension", anyDim, halfArg, "square root of a negative number", math.Sqrt),
+		one("abs", "absolute value", anyDim, likeArg, "", math.Abs),
+		many("min", "smallest argument; all arguments of one dimension", math.Min),
+		many("max", "largest argument; all arguments of one dimension", math.Max),
+		one("exp", "e to the power x; x a pure number", dimensionless, plainOne, "", math.Exp),
+		one("ln", "natural logarithm; x a pure number", dimensionless, plainOne, "logarithm of zero or a negative number", math.Log),
+		one("log10", "common logarithm; x a pure number", dimensionless, plainOne, "logarithm of zero or a negative number", math.Log10),
+		one("sin", "sine of an angle (rad, or deg converted)", dimensionless, plainOne, "", math.Sin),
+		one("cos", "cosine of an angle", dimensionless, plainOne, "", math.Cos),
+		one("tan", "tangent of an angle", dimensionless, plainOne, "tangent of an odd multiple of 90°", math.Tan),
+		one("asin", "inverse sine; returns an angle", dimensionless, angle, "asin of a number outside -1 to 1", math.Asin),
+		one("acos", "inverse cosine; returns an angle", dimensionless, angle, "acos of a number outside -1 to 1", math.Acos),
+		one("atan", "inverse tangent; returns an angle", dimensionless, angle, "", math.Atan),
+		two("atan2", "angle of the point (x, y) from atan2(y, x); y and x of one dimension", sameDim, angle, math.Atan2),
+		two("hypot", "sqrt(x² + y²) without overflow; x and y of one dimension", sameDim, likeArg, math.Hypot),
+		one("floor", "largest whole number not above x; x a pure number", dimensionless, plainOne, "", math.Floor),
+		one("ceil", "smallest whole number not below x; x a pure number", dimensionless, plainOne, "", math.Ceil),
+		one("round", "nearest whole number, halves away from zero; x a pure number", dimensionless, plainOne, "", math.Round),
+	} {
+		functions[f.Name] = f
+	}
+}
+
+func functionNames() []string {
+	var names []string
+	for n := range functions {
+		names = append(names, n)
+	}
+	slices.Sort(names)
+	return names
+}
+
+func functionList() string { return strings.Join(functionNames(), ", ") }
+
+// Functions lists the function table, sorted by name, for documentation.
+func Functions() []*Function {
+	var out []*Function
+	for _, n := range functionNames() {
+		out = append(out, functions[n])
+	}
+	return out
+}
+
+// closest returns the candidate nearest to name, or "" if none is close.
+func closest(name string, candidates []string) string {
+	best, bestD := "", 3
+	if len([]rune(name)) <= 3 {
+		bestD = 2
+	}
+	for _, c := range candidates {
+		if d := units.Distance(name, c); d < bestD || (d == bestD && c < best && best != "") {
+			if d < bestD {
+				best, bestD = c, d
+			}
+		}
+	}
+	for _, c := range candidates {
+		if strings.EqualFold(c, name) {
+			return c
+		}
+	}
+	return best
+}

@@ -1,0 +1,397 @@
+package engine
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"github.com/sheaf-calc/sheaf/diag"
+	"github.com/sheaf-calc/sheaf/units"
+)
+
+// Sheet is a compiled sheet: its statements in the order written, the order
+// in which they are evaluated, and every diagnostic.
+type Sheet struct {
+	Path       string
+	Statements []*Statement
+	// Order lists the statements in evaluation order: every statement after
+	// the ones it uses, otherwise in the order written.
+	Order []*Statement
+	Diags diag.List
+
+	byName map[string]*Statement
+	values []float64
+}
+
+// Lookup finds the definition of a name.
+func (s *Sheet) Lookup(name string) *Statement { return s.byName[name] }
+
+// Compile parses, resolves, orders and checks every statement of a sheet,
+// and compiles the ones that are sound. A bad statement is reported and
+// skipped; statements that do not depend on it are unaffected.
+func Compile(src SheetSource) *Sheet {
+	s := &Sheet{Path: src.Path, byName: map[string]*Statement{}}
+	for _, b := range src.Blocks {
+		texts := splitStatements(b)
+		if len(texts) == 0 {
+			s.Diags.Add(b.Fence, "write at least one statement, or remove the block", "formula block is empty")
+			continue
+		}
+		for _, t := range texts {
+			st, err := parseStatement(t)
+			st.Index = len(s.Statements)
+			st.slot = st.Index
+			s.Statements = append(s.Statements, st)
+			if err != nil {
+				s.fail(st, err)
+			}
+		}
+	}
+	s.values = make([]float64, len(s.Statements))
+	s.define()
+	s.resolve()
+	s.order()
+	for _, st := range s.Order {
+		s.check(st)
+	}
+	s.Diags.Sort()
+	return s
+}
+
+func (s *Sheet) fail(st *Statement, d *diag.Diagnostic) {
+	if st.Status == Failed {
+		return
+	}
+	st.Status = Failed
+	st.Err = d
+	s.Diags = append(s.Diags, *d)
+}
+
+// define records every name; a second definition of a name is an error.
+func (s *Sheet) define() {
+	for _, st := range s.Statements {
+		if st.Kind != Definition || st.Name == "" {
+			continue
+		}
+		if first, dup := s.byName[st.Name]; dup {
+			s.fail(st, errAt(st.NamePos, "rename one of them, or delete the one that is not wanted",
+				"%s is already defined at %d:%d", st.Name, first.NamePos.Line, first.NamePos.Col))
+			continue
+		}
+		s.byName[st.Name] = st
+	}
+}
+
+// resolve ties every name in a formula to its statement or constant.
+func (s *Sheet) resolve() {
+	for _, st := range s.Statements {
+		if st.Expr == nil {
+			continue
+		}
+		seen := map[*Statement]bool{}
+		Walk(st.Expr, func(e Expr) {
+			r, ok := e.(*Ref)
+			if !ok || st.Status == Failed {
+				return
+			}
+			if target, ok := s.byName[r.Name]; ok {
+				r.Target = target
+				if !seen[target] {
+					seen[target] = true
+					st.Deps = append(st.Deps, target)
+					target.Users = append(target.Users, st)
+				}
+				return
+			}
+			if c, ok := units.ConstantByName(r.Name); ok {
+				r.Constant = &c
+				return
+			}
+			s.fail(st, s.unknownName(r))
+		})
+	}
+}
+
+func (s *Sheet) unknownName(r *Ref) *diag.Diagnostic {
+	names := make([]string, 0, len(s.byName)+len(units.Constants))
+	for n := range s.byName {
+		names = append(names, n)
+	}
+	for _, c := range units.Constants {
+		names = append(names, c.Name)
+	}
+	sort.Strings(names)
+	hint := "define it in this sheet"
+	if c := closest(r.Name, names); c != "" {
+		hint = "did you mean " + c + "?"
+	}
+	if _, isUnit := units.Lookup(r.Name); isUnit {
+		hint += " (" + r.Name + " is a unit: a unit must follow a number, as in 1 " + r.Name + ")"
+	}
+	if r.Name == "e" {
+		hint = "for Euler's number write exp(1); e is left free for an EMF"
+	}
+	return errAt(r.Pos(), hint, "unknown name %s", r.Name)
+}
+
+// order sorts the statements so that each comes after what it uses, and
+// reports cycles by naming their members.
+func (s *Sheet) order() {
+	const (
+		unvisited = iota
+		active
+		done
+	)
+	state := make([]int, len(s.Statements))
+	var stack []*Statement
+	var visit func(st *Statement)
+	visit = func(st *Statement) {
+		switch state[st.Index] {
+		case done:
+			return
+		case active:
+			// st is on the stack: everything from it to the top is a cycle.
+			i := len(stack) - 1
+			for stack[i] != st {
+				i--
+			}
+			s.cycle(stack[i:])
+			return
+		}
+		state[st.Index] = active
+		stack = append(stack, st)
+		for _, d := range st.Deps {
+			visit(d)
+		}
+		stack = stack[:len(stack)-1]
+		state[st.Index] = done
+		s.Order = append(s.Order, st)
+	}
+	for _, st := range s.Statements {
+		visit(st)
+	}
+}
+
+func (s *Sheet) cycle(members []*Statement) {
+	names := make([]string, 0, len(members)+1)
+	for _, m := range members {
+		names = append(names, m.Name)
+	}
+	names = append(names, members[0].Name)
+	path := strings.Join(names, " → ")
+	for _, m := range members {
+		s.fail(m, errAt(m.NamePos, "one of these must be given a value that does not depend on the others",
+			"%s is defined in terms of itself: %s", m.Name, path))
+	}
+}
+
+// check infers the dimensions of a statement whose dependencies are sound,
+// checks its display unit and compiles it.
+func (s *Sheet) check(st *Statement) {
+	if st.Status == Failed {
+		return
+	}
+	for _, d := range st.Deps {
+		if !d.compiled {
+			st.Status = Blocked
+			st.Err = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: it uses %s, which has an error", d.Name)}
+			return
+		}
+	}
+	if err := infer(st.Expr); err != nil {
+		s.fail(st, err)
+		return
+	}
+	st.Type = *st.Expr.Type()
+	name := st.Name
+	if st.Kind == Check {
+		cmp := st.Compare()
+		st.Type = *cmp.X.Type()
+		if st.Type.Kind == units.Plain {
+			st.Type.Kind = cmp.Y.Type().Kind
+		}
+		name = "the checked quantity"
+	}
+	if st.Display != nil {
+		if msg, hint := displayProblem(name, st.Type, *st.Display); msg != "" {
+			s.fail(st, errAt(st.DisplayPos, hint, "%s", msg))
+			return
+		}
+	}
+	if st.Kind == Check {
+		cmp := st.Compare()
+		st.fn, st.right = compile(cmp.X), compile(cmp.Y)
+	} else {
+		st.fn = compile(st.Expr)
+	}
+	st.compiled = true
+}
+
+// Evaluate computes every compiled statement in dependency order. A
+// statement whose result is not a finite number fails with the reason at
+// the operation that produced it; statements that use it are blocked.
+func (s *Sheet) Evaluate() {
+	for _, st := range s.Order {
+		if !st.compiled {
+			continue
+		}
+		blocked := false
+		for _, d := range st.Deps {
+			if d.Status != OK {
+				st.Status = Blocked
+				st.Err = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: it uses %s, which has an error", d.Name)}
+				blocked = true
+				break
+			}
+		}
+		if blocked {
+			continue
+		}
+		if st.Kind == Check {
+			s.evalCheck(st)
+			continue
+		}
+		v := st.fn(s.values)
+		if !finite(v) {
+			s.fail(st, diagnose(st.Expr, s.values))
+			continue
+		}
+		s.values[st.slot] = v
+		st.Value = v
+		st.Status = OK
+		st.Shown = shownUnit(st)
+	}
+	s.Diags.Sort()
+}
+
+func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
+
+func (s *Sheet) evalCheck(st *Statement) {
+	cmp := st.Compare()
+	l, r := st.fn(s.values), st.right(s.values)
+	if !finite(l) {
+		s.fail(st, diagnose(cmp.X, s.values))
+		return
+	}
+	if !finite(r) {
+		s.fail(st, diagnose(cmp.Y, s.values))
+		return
+	}
+	st.Left, st.Right = l, r
+	st.Shown = checkUnit(st)
+	pass := false
+	switch cmp.Op {
+	case "<":
+		pass = l < r
+	case "<=":
+		pass = l <= r
+	case ">":
+		pass = l > r
+	case ">=":
+		pass = l >= r
+	case "==":
+		pass = l == r || math.Abs(l-r) <= EqualTolerance*math.Max(math.Abs(l), math.Abs(r))
+	}
+	st.Status = Fail
+	if pass {
+		st.Status = Pass
+	}
+	st.Utilisation = utilisation(cmp.Op, st.Shown.FromSI(l), st.Shown.FromSI(r))
+}
+
+// EqualTolerance is the relative difference within which a check with ==
+// passes: equal to about nine significant figures.
+const EqualTolerance = 1e-9
+
+// utilisation is demand over capacity in the check's own unit: left/right
+// for < and <=, right/left for > and >=. It is NaN where it has no meaning
+// (an equality, or a capacity of zero or below).
+func utilisation(op string, l, r float64) float64 {
+	var demand, capacity float64
+	switch op {
+	case "<", "<=":
+		demand, capacity = l, r
+	case ">", ">=":
+		demand, capacity = r, l
+	default:
+		return math.NaN()
+	}
+	if capacity <= 0 || demand < 0 {
+		return math.NaN()
+	}
+	return demand / capacity
+}
+
+// shownUnit picks the unit a definition's value is shown in.
+func shownUnit(st *Statement) units.Unit {
+	if st.Display != nil {
+		return *st.Display
+	}
+	e := st.Expr
+	if u, ok := e.(*Unary); ok {
+		e = u.X
+	}
+	switch q := e.(type) {
+	case *Quantity:
+		return q.Unit
+	case *Number:
+		return units.One
+	case *Ref:
+		// An alias shows the way its target does.
+		if q.Target != nil && q.Target.Status == OK {
+			return q.Target.Shown
+		}
+	}
+	return units.AutoUnit(st.Value, st.Type.Dim, st.Type.Kind)
+}
+
+// checkUnit picks one unit for both sides of a check: the one asked for,
+// else the unit of a named side, else the unit of a literal side.
+func checkUnit(st *Statement) units.Unit {
+	if st.Display != nil {
+		return *st.Display
+	}
+	cmp := st.Compare()
+	for _, side := range []Expr{cmp.X, cmp.Y} {
+		if r, ok := side.(*Ref); ok && r.Target != nil && r.Target.Status == OK {
+			return r.Target.Shown
+		}
+	}
+	for _, side := range []Expr{cmp.Y, cmp.X} {
+		if q, ok := side.(*Quantity); ok {
+			return q.Unit
+		}
+	}
+	return units.AutoUnit(math.Max(math.Abs(st.Left), math.Abs(st.Right)), st.Type.Dim, st.Type.Kind)
+}
+
+// diagnose finds the operation that first produced a non-finite value and
+// says what went wrong there.
+func diagnose(e Expr, v []float64) *diag.Diagnostic {
+	for _, c := range e.children() {
+		if !finite(fnOf(c)(v)) {
+			return diagnose(c, v)
+		}
+	}
+	result := fnOf(e)(v)
+	switch n := e.(type) {
+	case *Binary:
+		switch {
+		case n.Op == "/" && fnOf(n.Y)(v) == 0:
+			return errAt(n.Pos(), "check the value of the divisor", "division by zero")
+		case n.Op == "^" && math.IsNaN(result):
+			return errAt(n.Pos(), "a negative number has no real fractional power", "negative number raised to a fractional power")
+		}
+	case *Call:
+		if n.Func.domain != "" && math.IsNaN(result) || (n.Name == "ln" || n.Name == "log10") {
+			if n.Func.domain != "" {
+				return errAt(n.Pos(), "check the argument", "%s", n.Func.domain)
+			}
+		}
+	}
+	if math.IsNaN(result) {
+		return errAt(e.Pos(), "check the inputs", "the result is not a number")
+	}
+	return errAt(e.Pos(), "check the inputs and their units; the result is beyond ±1.8e308 in SI", "the result overflows")
+}

@@ -1,0 +1,103 @@
+package engine
+
+import (
+	"strings"
+	"unicode"
+
+	"github.com/sheaf-calc/sheaf/diag"
+)
+
+// Line is one line of a formula block with the position of its first
+// character; Block is the lines of one block; SheetSource is a sheet as the
+// engine sees it.
+type Line struct {
+	Text string
+	Pos  diag.Pos
+}
+
+// Block is one formula block.
+type Block struct {
+	Fence diag.Pos // where the block opens, for errors about the block
+	Lines []Line
+}
+
+// SheetSource is everything the engine needs from one sheet.
+type SheetSource struct {
+	Path   string
+	Blocks []Block
+}
+
+// MaxStatementLength bounds one statement, in characters. A formula longer
+// than this is a mistake (or an attack) and is refused with a message, so
+// that one runaway line cannot stall the package.
+const MaxStatementLength = 10000
+
+// text is the source of one statement: its characters and, for each
+// physical line it spans, where that line starts.
+type text struct {
+	runes  []rune
+	starts []lineStart
+}
+
+type lineStart struct {
+	off int // rune offset into runes
+	pos diag.Pos
+}
+
+// pos maps a rune offset to a file position.
+func (t *text) pos(off int) diag.Pos {
+	ls := t.starts[0]
+	for _, s := range t.starts[1:] {
+		if s.off > off {
+			break
+		}
+		ls = s
+	}
+	return ls.pos.Shift(off - ls.off)
+}
+
+func (t *text) String() string { return string(t.runes) }
+
+// splitStatements turns a block's lines into statements. Blank lines and
+// lines starting with # are comments. A statement continues on the next
+// line while it has an open parenthesis and the next line is indented.
+func splitStatements(b Block) []*text {
+	var out []*text
+	var cur *text
+	depth := 0
+	for _, l := range b.Lines {
+		trimmed := strings.TrimSpace(l.Text)
+		indented := len(l.Text) > 0 && unicode.IsSpace(rune(l.Text[0]))
+		if cur != nil && depth > 0 && indented && trimmed != "" && !strings.HasPrefix(trimmed, "#") {
+			cur.starts = append(cur.starts, lineStart{off: len(cur.runes) + 1, pos: l.Pos})
+			cur.runes = append(cur.runes, '\n')
+			cur.runes = append(cur.runes, []rune(l.Text)...)
+			depth += parenDepth(l.Text)
+			continue
+		}
+		if trimmed == "" || strings.HasPrefix(trimmed, "#") {
+			continue
+		}
+		cur = &text{runes: []rune(l.Text), starts: []lineStart{{0, l.Pos}}}
+		depth = parenDepth(l.Text)
+		out = append(out, cur)
+	}
+	return out
+}
+
+// parenDepth counts open parentheses in the formula part of a line (before
+// any ; annotation or # comment).
+func parenDepth(s string) int {
+	d := 0
+	for _, r := range s {
+		switch r {
+		case '(':
+			d++
+		case ')':
+			d--
+		case ';', '#':
+			return d
+		}
+	}
+	return d
+}

@@ -1,0 +1,123 @@
+package engine
+
+import (
+	"github.com/sheaf-calc/sheaf/diag"
+	"github.com/sheaf-calc/sheaf/units"
+)
+
+// StmtKind tells definitions from checks.
+type StmtKind uint8
+
+// The kinds of statement.
+const (
+	// Definition is `name = expression`, optionally with a display unit:
+	// `name [unit] = expression`.
+	Definition StmtKind = iota
+	// Check is `check left OP right`: a comparison that must hold.
+	Check
+)
+
+// Status is how a statement came out.
+type Status uint8
+
+// The statuses.
+const (
+	// Pending statements have not been evaluated.
+	Pending Status = iota
+	// OK definitions have a value.
+	OK
+	// Pass and Fail are the outcomes of checks.
+	Pass
+	Fail
+	// Failed statements have an error of their own.
+	Failed
+	// Blocked statements were not evaluated because something they use failed.
+	Blocked
+)
+
+func (s Status) String() string {
+	return [...]string{"pending", "ok", "pass", "fail", "error", "blocked"}[s]
+}
+
+// Note is an annotation after a statement: `; key: value`.
+type Note struct {
+	Key   string
+	Value string
+	Pos   diag.Pos
+}
+
+// Statement is one definition or check of a sheet, with everything the
+// engine learnt about it.
+type Statement struct {
+	Kind  StmtKind
+	Index int      // order in the sheet
+	Pos   diag.Pos // where the statement starts
+	Text  string   // the statement as written
+
+	Name    string // definitions only
+	NamePos diag.Pos
+
+	// Display is the unit the author asked for, if any.
+	Display     *units.Unit
+	DisplayText string
+	DisplayPos  diag.Pos
+
+	// Expr is the right side of a definition, or the comparison of a check
+	// (a *Binary whose Op is <, <=, >, >= or ==).
+	Expr Expr
+
+	Description string
+	Source      string
+	Notes       []Note
+
+	// Type is what the checker inferred for a definition's value, or for
+	// the two sides of a check.
+	Type Type
+
+	// Deps are the statements this one uses directly, in order of first
+	// use; Users are those that use it.
+	Deps  []*Statement
+	Users []*Statement
+
+	// Results.
+	Status Status
+	Value  float64 // SI value of a definition
+	// Left and Right are the SI values of a check's two sides, and
+	// Utilisation is demand over capacity (below 1 passes for <, <=, >, >=).
+	Left, Right float64
+	Utilisation float64
+	// Shown is the unit the value is shown in: the display unit, the unit of
+	// an input as written, or one sheaf picked.
+	Shown units.Unit
+	// Err is the statement's own error, or for a blocked statement the
+	// reason it was not evaluated.
+	Err *diag.Diagnostic
+
+	slot     int // index into the sheet's value slots
+	compiled bool
+	fn       evalFn // a definition's value, or a check's left side
+	right    evalFn // a check's right side
+}
+
+// IsInput reports whether a definition's right side is a single literal,
+// such as `l_g = 2.5 mm` or `N = 120`: an input of the calculation.
+func (s *Statement) IsInput() bool {
+	if s.Kind != Definition || s.Expr == nil {
+		return false
+	}
+	e := s.Expr
+	if u, ok := e.(*Unary); ok {
+		e = u.X
+	}
+	switch e.(type) {
+	case *Quantity, *Number:
+		return true
+	}
+	return false
+}
+
+// Compare returns the comparison of a check.
+func (s *Statement) Compare() *Binary {
+	b, _ := s.Expr.(*Binary)
+	return b
+}

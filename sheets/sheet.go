@@ -1,0 +1,159 @@
+// Package sheets reads Markdown calculation sheets: the front matter that
+// fills the title block, the prose, and the formula blocks with the exact
+// file:line:col of every line. It knows nothing of evaluation; the engine
+// takes the formula lines, the renderer takes the document.
+package sheets
+
+import (
+	"bytes"
+	"slices"
+	"strings"
+
+	"github.com/yuin/goldmark"
+	"github.com/yuin/goldmark/ast"
+	"github.com/yuin/goldmark/extension"
+	"github.com/yuin/goldmark/parser"
+	"github.com/yuin/goldmark/text"
+	"go.abhg.dev/goldmark/frontmatter"
+
+	"github.com/sheaf-calc/sheaf/diag"
+)
+
+// InfoWord marks a fenced code block as a formula block: ```sheaf.
+const InfoWord = "sheaf"
+
+// Sheet is one parsed Markdown file.
+type Sheet struct {
+	Path   string // as shown in messages, relative to the package folder
+	Source []byte // the cleaned source the positions refer to
+	Meta   Meta
+	Doc    ast.Node // the goldmark document, for rendering prose
+	Blocks []*Block // formula blocks in document order
+	Diags  diag.List
+
+	index lineIndex
+}
+
+// Block is one formula block.
+type Block struct {
+	Node  *ast.FencedCodeBlock
+	Fence diag.Pos // where the opening fence is
+	Lines []Line
+}
+
+// Line is one line of a formula block with the position of its first
+// character.
+type Line struct {
+	Text string
+	Pos  diag.Pos
+}
+
+// Extensions are the goldmark extensions a sheet is parsed with; a renderer
+// adds the same so that every node has a renderer.
+func Extensions() []goldmark.Extender {
+	return []goldmark.Extender{extension.Table, extension.Strikethrough}
+}
+
+var (
+	withFrontMatter = goldmark.New(
+		goldmark.WithExtensions(append(Extensions(), &frontmatter.Extender{Formats: []frontmatter.Format{frontmatter.YAML}})...),
+		goldmark.WithParserOptions(parser.WithAutoHeadingID()),
+	)
+	plain = goldmark.New(goldmark.WithExtensions(Extensions()...), goldmark.WithParserOptions(parser.WithAutoHeadingID()))
+)
+
+// Parse reads a sheet. It never fails: problems become diagnostics in
+// Sheet.Diags, and whatever could be read is kept.
+func Parse(path string, raw []byte) *Sheet {
+	src, diags := cleanSource(path, raw)
+	s := &Sheet{Path: path, Source: src, Diags: diags, index: newLineIndex(src)}
+
+	md := plain
+	if opensFrontMatter(src) {
+		if closesFrontMatter(src) {
+			md = withFrontMatter
+		} else {
+			s.Diags.Add(diag.Pos{File: path, Line: 1, Col: 1},
+				"add a line with --- after the last field, or remove the first line if this is not front matter",
+				"front matter opened here is never closed")
+		}
+	}
+	ctx := parser.NewContext()
+	s.Doc = md.Parser().Parse(text.NewReader(src), parser.WithContext(ctx))
+	if fm := frontmatter.Get(ctx); fm != nil {
+		s.Meta = decodeMeta(path, fm.Decode, &s.Diags)
+	}
+	s.collectBlocks()
+	return s
+}
+
+// opensFrontMatter reports whether the first line is a YAML fence.
+func opensFrontMatter(src []byte) bool {
+	first, _, _ := bytes.Cut(src, []byte("\n"))
+	return isFence(first)
+}
+
+func closesFrontMatter(src []byte) bool {
+	lines := bytes.Split(src, []byte("\n"))
+	open := bytes.TrimRight(lines[0], " \t")
+	for _, l := range lines[1:] {
+		if bytes.Equal(bytes.TrimRight(l, " \t"), open) {
+			return true
+		}
+	}
+	return false
+}
+
+func isFence(l []byte) bool {
+	l = bytes.TrimRight(l, " \t")
+	return len(l) >= 3 && len(bytes.Trim(l, "-")) == 0
+}
+
+// Pos returns the position of a byte offset into Source.
+func (s *Sheet) Pos(offset int) diag.Pos {
+	line, col := s.index.pos(offset)
+	return diag.Pos{File: s.Path, Line: line, Col: col}
+}
+
+// LineText returns line n of the source, for snippets under errors.
+func (s *Sheet) LineText(n int) string { return s.index.lineText(n) }
+
+func (s *Sheet) collectBlocks() {
+	_ = ast.Walk(s.Doc, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
+		fc, ok := n.(*ast.FencedCodeBlock)
+		if !entering || !ok || !IsFormulaBlock(fc, s.Source) {
+			return ast.WalkContinue, nil
+		}
+		b := &Block{Node: fc}
+		if fc.Info != nil {
+			b.Fence = s.Pos(fc.Info.Segment.Start)
+			// Point at the fence itself, not at the info word.
+			line := s.LineText(b.Fence.Line)
+			b.Fence.Col = len([]rune(line)) - len([]rune(strings.TrimLeft(line, " \t>"))) + 1
+		}
+		lines := fc.Lines()
+		for i := 0; i < lines.Len(); i++ {
+			seg := lines.At(i)
+			txt := strings.TrimRight(string(seg.Value(s.Source)), "\n")
+			pos := s.Pos(seg.Start)
+			if seg.Padding > 0 {
+				txt = strings.Repeat(" ", seg.Padding) + txt
+				pos.Col -= seg.Padding
+			}
+			b.Lines = append(b.Lines, Line{Text: txt, Pos: pos})
+		}
+		s.Blocks = append(s.Blocks, b)
+		return ast.WalkSkipChildren, nil
+	})
+}
+
+// IsFormulaBlock reports whether a fenced code block is a formula block.
+func IsFormulaBlock(fc *ast.FencedCodeBlock, source []byte) bool {
+	lang := fc.Language(source)
+	return string(lang) == InfoWord
+}
+
+func sortStrings(s []string) []string {
+	slices.Sort(s)
+	return s
+}
