@@ -61,6 +61,7 @@ func parseStatement(t *text) (*Statement, *diag.Diagnostic) {
 		if skipSpace(r[:end], i) == end {
 			return st, errAt(t.pos(i), "write for example: check B_g <= 1.6 T", "check has no comparison")
 		}
+		st.Formula = strings.TrimSpace(string(r[i:end]))
 		e, err := parseFormula(t, i, end)
 		if err != nil {
 			return st, err
@@ -100,6 +101,7 @@ func parseStatement(t *text) (*Statement, *diag.Diagnostic) {
 	if skipSpace(r[:end], i) == end {
 		return st, errAt(t.pos(i), "write the formula or value after =", "%s = has nothing on the right", name)
 	}
+	st.Formula = strings.TrimSpace(string(r[i:end]))
 	e, err := parseFormula(t, i, end)
 	if err != nil {
 		return st, err

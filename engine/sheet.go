@@ -32,7 +32,7 @@ func (s *Sheet) Lookup(name string) *Statement { return s.byName[name] }
 // skipped; statements that do not depend on it are unaffected.
 func Compile(src SheetSource) *Sheet {
 	s := &Sheet{Path: src.Path, byName: map[string]*Statement{}}
-	for _, b := range src.Blocks {
+	for bi, b := range src.Blocks {
 		texts := splitStatements(b)
 		if len(texts) == 0 {
 			s.Diags.Add(b.Fence, "write at least one statement, or remove the block", "formula block is empty")
@@ -41,6 +41,7 @@ func Compile(src SheetSource) *Sheet {
 		for _, t := range texts {
 			st, err := parseStatement(t)
 			st.Index = len(s.Statements)
+			st.Block = bi
 			st.slot = st.Index
 			s.Statements = append(s.Statements, st)
 			if err != nil {

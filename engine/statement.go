@@ -51,8 +51,12 @@ type Note struct {
 type Statement struct {
 	Kind  StmtKind
 	Index int      // order in the sheet
+	Block int      // index of the formula block it was written in
 	Pos   diag.Pos // where the statement starts
 	Text  string   // the statement as written
+	// Formula is the formula part as written: the right side of a
+	// definition, or the comparison of a check.
+	Formula string
 
 	Name    string // definitions only
 	NamePos diag.Pos

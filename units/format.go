@@ -23,6 +23,9 @@ type preferred struct {
 	head   string // the symbol a prefix attaches to
 	exp    int    // the power of the head, which scales the prefix
 	policy prefixPolicy
+	// plainFrom, when set, keeps the unprefixed unit for values from it up
+	// to 1000: flux densities read 0.8976 T, not 897.6 mT.
+	plainFrom float64
 }
 
 func dimOf(expr string) Dim {
@@ -37,21 +40,21 @@ func dimOf(expr string) Dim {
 // in. Dimensions not listed print in coherent SI base units.
 var preferredUnits = func() map[Dim]preferred {
 	rows := []preferred{
-		{"m", "m", 1, engPrefix}, {"g", "g", 1, massPrefix}, {"s", "s", 1, downPrefix},
-		{"A", "A", 1, engPrefix}, {"K", "K", 1, noPrefix}, {"mol", "mol", 1, engPrefix},
-		{"cd", "cd", 1, noPrefix}, {"m^2", "m", 2, areaPrefix}, {"m^3", "m", 3, areaPrefix},
-		{"N", "N", 1, engPrefix}, {"Pa", "Pa", 1, engPrefix}, {"J", "J", 1, engPrefix},
-		{"W", "W", 1, engPrefix}, {"C", "C", 1, engPrefix}, {"V", "V", 1, engPrefix},
-		{"F", "F", 1, engPrefix}, {"Ω", "Ω", 1, engPrefix}, {"S", "S", 1, engPrefix},
-		{"Wb", "Wb", 1, engPrefix}, {"T", "T", 1, engPrefix}, {"H", "H", 1, engPrefix},
-		{"A/m", "A", 1, engPrefix}, {"V/m", "V", 1, engPrefix}, {"A/m^2", "A", 1, engPrefix},
-		{"H/m", "H", 1, engPrefix}, {"F/m", "F", 1, engPrefix}, {"A/Wb", "A", 1, engPrefix},
-		{"Ω*m", "Ω", 1, engPrefix}, {"S/m", "S", 1, engPrefix}, {"m/s", "m", 1, engPrefix},
-		{"m/s^2", "m", 1, noPrefix}, {"kg*m^2", "", 0, noPrefix}, {"1/K", "", 0, noPrefix},
-		{"K/W", "K", 1, noPrefix}, {"W/K", "W", 1, engPrefix}, {"V/s", "V", 1, engPrefix},
-		{"A/s", "A", 1, engPrefix}, {"kg/m^3", "", 0, noPrefix}, {"W/m^2", "W", 1, engPrefix},
-		{"Wb/m", "Wb", 1, engPrefix}, {"N/m", "N", 1, engPrefix}, {"J/kg", "J", 1, engPrefix},
-		{"V/A", "Ω", 1, engPrefix}, {"1/s", "", 0, noPrefix},
+		{"m", "m", 1, engPrefix, 0}, {"g", "g", 1, massPrefix, 0}, {"s", "s", 1, downPrefix, 0},
+		{"A", "A", 1, engPrefix, 0}, {"K", "K", 1, noPrefix, 0}, {"mol", "mol", 1, engPrefix, 0},
+		{"cd", "cd", 1, noPrefix, 0}, {"m^2", "m", 2, areaPrefix, 0}, {"m^3", "m", 3, areaPrefix, 0},
+		{"N", "N", 1, engPrefix, 0}, {"Pa", "Pa", 1, engPrefix, 0}, {"J", "J", 1, engPrefix, 0},
+		{"W", "W", 1, engPrefix, 0}, {"C", "C", 1, engPrefix, 0}, {"V", "V", 1, engPrefix, 0},
+		{"F", "F", 1, engPrefix, 0}, {"Ω", "Ω", 1, engPrefix, 0}, {"S", "S", 1, engPrefix, 0},
+		{"Wb", "Wb", 1, engPrefix, 0}, {"T", "T", 1, engPrefix, 0.01}, {"H", "H", 1, engPrefix, 0},
+		{"A/m", "A", 1, engPrefix, 0}, {"V/m", "V", 1, engPrefix, 0}, {"A/m^2", "A", 1, engPrefix, 0},
+		{"H/m", "H", 1, engPrefix, 0}, {"F/m", "F", 1, engPrefix, 0}, {"A/Wb", "A", 1, engPrefix, 0},
+		{"Ω*m", "Ω", 1, engPrefix, 0}, {"S/m", "S", 1, engPrefix, 0}, {"m/s", "m", 1, engPrefix, 0},
+		{"m/s^2", "m", 1, noPrefix, 0}, {"kg*m^2", "", 0, noPrefix, 0}, {"1/K", "", 0, noPrefix, 0},
+		{"K/W", "K", 1, noPrefix, 0}, {"W/K", "W", 1, engPrefix, 0}, {"V/s", "V", 1, engPrefix, 0},
+		{"A/s", "A", 1, engPrefix, 0}, {"kg/m^3", "", 0, noPrefix, 0}, {"W/m^2", "W", 1, engPrefix, 0},
+		{"Wb/m", "Wb", 1, engPrefix, 0}, {"N/m", "N", 1, engPrefix, 0}, {"J/kg", "J", 1, engPrefix, 0},
+		{"V/A", "Ω", 1, engPrefix, 0}, {"1/s", "", 0, noPrefix, 0},
 	}
 	m := map[Dim]preferred{}
 	for _, r := range rows {
@@ -78,7 +81,7 @@ func AutoUnit(v float64, d Dim, k Kind) Unit {
 		u, _ := Parse("rad/s")
 		return u
 	case k == Cycle && d == (Dim{Time: -1}):
-		return withPrefix(v, preferred{"Hz", "Hz", 1, engPrefix})
+		return withPrefix(v, preferred{"Hz", "Hz", 1, engPrefix, 0})
 	case d.IsDimensionless():
 		return One
 	}
@@ -95,6 +98,9 @@ func withPrefix(v float64, p preferred) Unit {
 		return u
 	}
 	mag := math.Abs(v) / u.Scale // the value in the unprefixed unit
+	if p.plainFrom > 0 && mag >= p.plainFrom && mag < 1000 {
+		return u
+	}
 	var candidates []int
 	switch p.policy {
 	case engPrefix:

@@ -106,7 +106,9 @@ type parser struct {
 	spaces bool
 }
 
-func (p *parser) errf(col int, msg, hint string) *Error { return &Error{Col: col, Msg: msg, Hint: hint} }
+func (p *parser) errf(col int, msg, hint string) *Error {
+	return &Error{Col: col, Msg: msg, Hint: hint}
+}
 
 func (p *parser) skipSpace() {
 	for p.pos < len(p.src) && unicode.IsSpace(p.src[p.pos]) {

@@ -1,0 +1,117 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"path/filepath"
+
+	"github.com/spf13/cobra"
+
+	"github.com/sheaf-calc/sheaf/internal/atomicfile"
+	"github.com/sheaf-calc/sheaf/internal/version"
+	"github.com/sheaf-calc/sheaf/project"
+	"github.com/sheaf-calc/sheaf/render"
+)
+
+// commonFlags are the flags that build and check share.
+type commonFlags struct {
+	json   string
+	digits int
+}
+
+func (f *commonFlags) register(c *cobra.Command) {
+	c.Flags().StringVar(&f.json, "json", "", "also write every value, check and error as JSON to this file")
+	c.Flags().IntVar(&f.digits, "digits", project.DefaultDigits, "significant figures for results (a sheet's front matter may set its own)")
+}
+
+func (f *commonFlags) options() render.Options {
+	return render.Options{Digits: f.digits, Version: version.Version}
+}
+
+// load reads and evaluates a package, and writes the JSON if asked.
+func (f *commonFlags) load(path string) (*project.Package, error) {
+	if f.digits < 1 || f.digits > 15 {
+		return nil, fmt.Errorf("--digits must be between 1 and 15")
+	}
+	pkg, err := project.Load(path)
+	if err != nil {
+		return nil, err
+	}
+	if f.json != "" {
+		data, err := render.JSON(pkg, f.options())
+		if err != nil {
+			return nil, err
+		}
+		if err := atomicfile.Write(f.json, data, 0o644); err != nil {
+			return nil, err
+		}
+	}
+	return pkg, nil
+}
+
+// outcome turns a package's counts into the documented exit code.
+func outcome(pkg *project.Package) error {
+	c := pkg.Counts()
+	switch {
+	case c.Errors > 0:
+		return exitCode(exitErrors)
+	case c.Fail > 0:
+		return exitCode(exitCheckFailed)
+	}
+	return nil
+}
+
+func buildCmd(stdout, stderr io.Writer) *cobra.Command {
+	var flags commonFlags
+	var out string
+	c := &cobra.Command{
+		Use:   "build <folder|file> -o <dir>",
+		Short: "Render the package as HTML: index.html and one page per sheet",
+		Args:  cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			pkg, err := flags.load(args[0])
+			if err != nil {
+				return err
+			}
+			files, err := render.HTML(pkg, flags.options())
+			if err != nil {
+				return err
+			}
+			for _, f := range files {
+				if err := atomicfile.Write(filepath.Join(out, filepath.FromSlash(f.Path)), f.Data, 0o644); err != nil {
+					return err
+				}
+			}
+			for _, d := range pkg.Diags {
+				fmt.Fprintln(stderr, d.Error())
+			}
+			c := pkg.Counts()
+			fmt.Fprintf(stdout, "wrote %s (%d sheets, %d results, %d checks: %d pass, %d fail; %d errors)\n",
+				filepath.Join(out, "index.html"), len(pkg.Sheets), c.Results, c.Pass+c.Fail, c.Pass, c.Fail, c.Errors)
+			return outcome(pkg)
+		},
+	}
+	flags.register(c)
+	c.Flags().StringVarP(&out, "out", "o", "", "folder to write the package into (required)")
+	_ = c.MarkFlagRequired("out")
+	return c
+}
+
+func checkCmd(stdout, stderr io.Writer) *cobra.Command {
+	var flags commonFlags
+	c := &cobra.Command{
+		Use:   "check <folder|file>",
+		Short: "Check and evaluate the sheets; print results and file:line:col errors",
+		Args:  cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			pkg, err := flags.load(args[0])
+			if err != nil {
+				return err
+			}
+			render.Terminal(pkg, flags.options(), stdout, stderr)
+			return outcome(pkg)
+		},
+	}
+	flags.register(c)
+	return c
+}

@@ -1,0 +1,65 @@
+// Command sheaf turns a folder of Markdown calculation sheets into a
+// reviewable calculation package.
+//
+// Exit codes: 0 all good; 1 a check failed; 2 errors in sheets or usage.
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"os"
+
+	"github.com/spf13/cobra"
+
+	"github.com/sheaf-calc/sheaf/internal/version"
+)
+
+// Exit codes, as the README documents them.
+const (
+	exitOK          = 0
+	exitCheckFailed = 1
+	exitErrors      = 2
+)
+
+// exitCode carries a command's exit status out of cobra.
+type exitCode int
+
+func (e exitCode) Error() string { return fmt.Sprintf("exit status %d", int(e)) }
+
+func main() {
+	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
+}
+
+// run executes the command line and returns the exit code; tests call it
+// directly.
+func run(args []string, stdout, stderr io.Writer) int {
+	root := newRoot(stdout, stderr)
+	root.SetArgs(args)
+	err := root.Execute()
+	var code exitCode
+	switch {
+	case err == nil:
+		return exitOK
+	case errors.As(err, &code):
+		return int(code)
+	default:
+		fmt.Fprintln(stderr, "sheaf:", err)
+		return exitErrors
+	}
+}
+
+func newRoot(stdout, stderr io.Writer) *cobra.Command {
+	root := &cobra.Command{
+		Use:           "sheaf",
+		Short:         "Turn Markdown calculation sheets into a reviewable, unit-checked calculation package",
+		Version:       version.Version,
+		SilenceUsage:  true,
+		SilenceErrors: true,
+	}
+	root.SetOut(stdout)
+	root.SetErr(stderr)
+	root.CompletionOptions.DisableDefaultCmd = true
+	root.AddCommand(buildCmd(stdout, stderr), checkCmd(stdout, stderr), unitsCmd(stdout))
+	return root
+}

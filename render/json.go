@@ -1,0 +1,190 @@
+package render
+
+import (
+	"bytes"
+	"encoding/json"
+	"math"
+
+	"github.com/sheaf-calc/sheaf/diag"
+	"github.com/sheaf-calc/sheaf/engine"
+	"github.com/sheaf-calc/sheaf/project"
+	"github.com/sheaf-calc/sheaf/sheets"
+	"github.com/sheaf-calc/sheaf/units"
+)
+
+// JSONSchemaID names the version of the JSON document; it changes whenever
+// a field changes meaning or goes away.
+const JSONSchemaID = "https://sheaf-calc.github.io/schema/package-1.json"
+
+// JSONDoc is the JSON form of a package.
+type JSONDoc struct {
+	Schema  string      `json:"$schema"`
+	Tool    JSONTool    `json:"tool"`
+	Summary JSONSummary `json:"summary"`
+	Sheets  []JSONSheet `json:"sheets"`
+	Diags   []JSONDiag  `json:"diagnostics"`
+}
+
+// JSONTool names the tool that wrote the document.
+type JSONTool struct {
+	Name    string `json:"name"`
+	Version string `json:"version"`
+}
+
+// JSONSummary counts outcomes.
+type JSONSummary struct {
+	Sheets  int `json:"sheets"`
+	Results int `json:"results"`
+	Inputs  int `json:"inputs"`
+	Pass    int `json:"pass"`
+	Fail    int `json:"fail"`
+	Errors  int `json:"errors"`
+	Blocked int `json:"blocked"`
+}
+
+// JSONSheet is one sheet.
+type JSONSheet struct {
+	Path       string          `json:"path"`
+	Page       string          `json:"page"`
+	Title      string          `json:"title"`
+	Meta       sheets.Meta     `json:"meta"`
+	Statements []JSONStatement `json:"statements"`
+}
+
+// JSONStatement is one definition or check with its value.
+type JSONStatement struct {
+	Kind         string     `json:"kind"` // "definition" or "check"
+	Name         string     `json:"name,omitempty"`
+	Pos          diag.Pos   `json:"pos"`
+	Text         string     `json:"text"`
+	Status       string     `json:"status"` // ok, pass, fail, error, blocked
+	Input        bool       `json:"input"`
+	Dimension    string     `json:"dimension,omitempty"`
+	QuantityKind string     `json:"quantity_kind,omitempty"`
+	SI           *JSONValue `json:"si,omitempty"`
+	Display      *JSONValue `json:"display,omitempty"`
+	Check        *JSONCheck `json:"check,omitempty"`
+	Description  string     `json:"description,omitempty"`
+	Source       string     `json:"source,omitempty"`
+	Uses         []string   `json:"uses"`
+	UsedBy       []string   `json:"used_by"`
+	Error        *JSONDiag  `json:"error,omitempty"`
+}
+
+// JSONValue is a number in a unit.
+type JSONValue struct {
+	Value float64 `json:"value"`
+	Unit  string  `json:"unit"`
+	Text  string  `json:"text,omitempty"` // as shown, to the sheet's significant figures
+}
+
+// JSONCheck is the outcome of a check: both sides in SI and in the check's
+// unit, and the utilisation.
+type JSONCheck struct {
+	Op          string    `json:"op"`
+	Pass        bool      `json:"pass"`
+	LeftSI      float64   `json:"left_si"`
+	RightSI     float64   `json:"right_si"`
+	Left        JSONValue `json:"left"`
+	Right       JSONValue `json:"right"`
+	Utilisation *float64  `json:"utilisation,omitempty"`
+}
+
+// JSONDiag is a diagnostic.
+type JSONDiag struct {
+	Pos      diag.Pos `json:"pos"`
+	Severity string   `json:"severity"`
+	Message  string   `json:"message"`
+	Hint     string   `json:"hint,omitempty"`
+}
+
+func jsonDiag(d diag.Diagnostic) JSONDiag {
+	return JSONDiag{Pos: d.Pos, Severity: d.Severity.String(), Message: d.Message, Hint: d.Hint}
+}
+
+// JSON writes the package as an indented JSON document.
+func JSON(pkg *project.Package, opt Options) ([]byte, error) {
+	doc := Document(pkg, opt)
+	var buf bytes.Buffer
+	enc := json.NewEncoder(&buf)
+	enc.SetIndent("", "  ")
+	enc.SetEscapeHTML(false)
+	if err := enc.Encode(doc); err != nil {
+		return nil, err
+	}
+	return buf.Bytes(), nil
+}
+
+// Document builds the JSON form of a package.
+func Document(pkg *project.Package, opt Options) JSONDoc {
+	c := pkg.Counts()
+	doc := JSONDoc{
+		Schema:  JSONSchemaID,
+		Tool:    JSONTool{Name: "sheaf", Version: opt.Version},
+		Summary: JSONSummary{Sheets: len(pkg.Sheets), Results: c.Results, Inputs: c.Inputs, Pass: c.Pass, Fail: c.Fail, Errors: c.Errors, Blocked: c.Blocked},
+		Sheets:  []JSONSheet{},
+		Diags:   []JSONDiag{},
+	}
+	for _, s := range pkg.Sheets {
+		digits := s.Digits(opt.Digits)
+		js := JSONSheet{Path: s.Path(), Page: s.Page, Title: s.Title(), Meta: s.Doc.Meta, Statements: []JSONStatement{}}
+		for _, st := range s.Calc.Statements {
+			js.Statements = append(js.Statements, jsonStatement(st, digits))
+		}
+		doc.Sheets = append(doc.Sheets, js)
+	}
+	for _, d := range pkg.Diags {
+		doc.Diags = append(doc.Diags, jsonDiag(d))
+	}
+	return doc
+}
+
+func names(sts []*engine.Statement) []string {
+	out := []string{}
+	for _, s := range sts {
+		if s.Name != "" {
+			out = append(out, s.Name)
+		}
+	}
+	return out
+}
+
+func jsonStatement(st *engine.Statement, digits int) JSONStatement {
+	j := JSONStatement{
+		Kind: "definition", Name: st.Name, Pos: st.Pos, Text: st.Text, Status: st.Status.String(),
+		Input: st.IsInput(), Description: st.Description, Source: st.Source,
+		Uses: names(st.Deps), UsedBy: names(st.Users),
+	}
+	if st.Kind == engine.Check {
+		j.Kind = "check"
+	}
+	if st.Err != nil {
+		d := jsonDiag(*st.Err)
+		j.Error = &d
+	}
+	if st.Status == engine.OK || st.Status == engine.Pass || st.Status == engine.Fail {
+		j.Dimension = st.Type.Dim.ASCII()
+		if st.Type.Kind != units.Plain {
+			j.QuantityKind = st.Type.Kind.String()
+		}
+	}
+	switch st.Status {
+	case engine.OK:
+		j.SI = &JSONValue{Value: st.Value, Unit: st.Type.Dim.SIUnits()}
+		shown := st.Shown.FromSI(st.Value)
+		j.Display = &JSONValue{Value: shown, Unit: st.Shown.Symbol, Text: units.FormatNumber(shown, digits)}
+	case engine.Pass, engine.Fail:
+		l, r := st.Shown.FromSI(st.Left), st.Shown.FromSI(st.Right)
+		c := &JSONCheck{
+			Op: st.Compare().Op, Pass: st.Status == engine.Pass, LeftSI: st.Left, RightSI: st.Right,
+			Left:  JSONValue{Value: l, Unit: st.Shown.Symbol, Text: units.FormatNumber(l, digits)},
+			Right: JSONValue{Value: r, Unit: st.Shown.Symbol, Text: units.FormatNumber(r, digits)},
+		}
+		if !math.IsNaN(st.Utilisation) && !math.IsInf(st.Utilisation, 0) {
+			u := st.Utilisation
+			c.Utilisation = &u
+		}
+		j.Check = c
+	}
+	return j
+}

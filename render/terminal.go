@@ -1,0 +1,83 @@
+package render
+
+import (
+	"fmt"
+	"io"
+	"strings"
+
+	"github.com/sheaf-calc/sheaf/engine"
+	"github.com/sheaf-calc/sheaf/project"
+	"github.com/sheaf-calc/sheaf/units"
+)
+
+// Terminal writes a plain-text report of every result and check to out,
+// and every diagnostic as file:line:col: message to errs.
+func Terminal(pkg *project.Package, opt Options, out, errs io.Writer) {
+	for _, s := range pkg.Sheets {
+		digits := s.Digits(opt.Digits)
+		fmt.Fprintf(out, "%s — %s\n", s.Path(), s.Title())
+		for _, st := range s.Calc.Statements {
+			line := TerminalLine(st, digits)
+			if line == "" {
+				continue
+			}
+			fmt.Fprintf(out, "  %4d  %s\n", st.Pos.Line, line)
+		}
+		fmt.Fprintln(out)
+	}
+	for _, d := range pkg.Diags {
+		fmt.Fprintln(errs, d.Error())
+	}
+	c := pkg.Counts()
+	fmt.Fprintf(out, "%d sheets, %d results, %d checks: %d pass, %d fail; %d errors", len(pkg.Sheets), c.Results, c.Pass+c.Fail, c.Pass, c.Fail, c.Errors)
+	if c.Blocked > 0 {
+		fmt.Fprintf(out, "; %d not evaluated", c.Blocked)
+	}
+	fmt.Fprintln(out)
+}
+
+// TerminalLine writes one statement's outcome as a line of text.
+func TerminalLine(st *engine.Statement, digits int) string {
+	switch st.Status {
+	case engine.OK:
+		if st.IsInput() {
+			v, u := InputText(st)
+			return strings.TrimSpace(fmt.Sprintf("%s = %s %s", SymbolText(st.Name), v, u))
+		}
+		return fmt.Sprintf("%s = %s", SymbolText(st.Name), ValueText(st.Value, st.Shown, digits))
+	case engine.Pass, engine.Fail:
+		cmp := st.Compare()
+		verdict := "PASS"
+		if st.Status == engine.Fail {
+			verdict = "FAIL"
+		}
+		s := fmt.Sprintf("%s  %s  (%s %s %s", verdict, st.Formula,
+			ValueText(st.Left, st.Shown, digits), relations[cmp.Op], ValueText(st.Right, st.Shown, digits))
+		if u := UtilisationText(st.Utilisation); u != "" {
+			s += ", utilisation " + u
+		}
+		return s + ")"
+	case engine.Blocked:
+		name := st.Name
+		if st.Kind == engine.Check {
+			name = "check"
+		}
+		return fmt.Sprintf("%s: %s", name, st.Err.Message)
+	case engine.Failed:
+		name := st.Name
+		if name == "" {
+			name = "statement"
+		}
+		return fmt.Sprintf("%s: error (see below)", name)
+	}
+	return ""
+}
+
+// ValueText writes an SI value in a unit: "34.74 mWb".
+func ValueText(si float64, u units.Unit, digits int) string {
+	s := units.FormatNumber(u.FromSI(si), digits)
+	if u.Symbol != "" && u.Symbol != "1" {
+		s += " " + u.Symbol
+	}
+	return s
+}
