@@ -224,6 +224,9 @@ func unitMathML(sym string) string {
 	if sym == "" || sym == "1" {
 		return ""
 	}
+	if !units.SpaceBefore(sym) {
+		return "<mtext>" + html.EscapeString(sym) + "</mtext>"
+	}
 	return `<mspace width="0.2em"></mspace><mtext>` + html.EscapeString(sym) + "</mtext>"
 }
 

@@ -3,7 +3,6 @@ package render
 import (
 	"fmt"
 	"io"
-	"strings"
 
 	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
@@ -42,7 +41,10 @@ func TerminalLine(st *engine.Statement, digits int) string {
 	case engine.OK:
 		if st.IsInput() {
 			v, u := InputText(st)
-			return strings.TrimSpace(fmt.Sprintf("%s = %s %s", SymbolText(st.Name), v, u))
+			if units.SpaceBefore(u) && u != "" {
+				v += " "
+			}
+			return fmt.Sprintf("%s = %s%s", SymbolText(st.Name), v, u)
 		}
 		return fmt.Sprintf("%s = %s", SymbolText(st.Name), ValueText(st.Value, st.Shown, digits))
 	case engine.Pass, engine.Fail:
@@ -77,7 +79,10 @@ func TerminalLine(st *engine.Statement, digits int) string {
 func ValueText(si float64, u units.Unit, digits int) string {
 	s := units.FormatNumber(u.FromSI(si), digits)
 	if u.Symbol != "" && u.Symbol != "1" {
-		s += " " + u.Symbol
+		if units.SpaceBefore(u.Symbol) {
+			s += " "
+		}
+		s += u.Symbol
 	}
 	return s
 }

@@ -177,3 +177,14 @@ func SplitExponent(s string) (string, int) {
 	}
 	return s[:i], e
 }
+
+// SpaceBefore reports whether a number is separated from this unit symbol
+// by a space. The SI Brochure (9th ed., 5.4.3) puts a space before every
+// unit symbol except the plane-angle degree, minute and second: 30°, 5′.
+func SpaceBefore(symbol string) bool {
+	switch symbol {
+	case "°", "′", "″":
+		return false
+	}
+	return true
+}
