@@ -7,13 +7,11 @@ import (
 	"bytes"
 	"fmt"
 	"html"
-	"math"
 	"path"
-	"strconv"
+	"runtime"
 	"strings"
 
 	"github.com/yuin/goldmark"
-	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/renderer"
 	"github.com/yuin/goldmark/util"
 
@@ -21,7 +19,6 @@ import (
 	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
 	"github.com/sheaf-calc/sheaf/sheets"
-	"github.com/sheaf-calc/sheaf/units"
 )
 
 // Options control rendering.
@@ -47,15 +44,74 @@ const Caution = "Calculations support, and never replace, the judgment of a qual
 
 // HTML renders the package index and one page per sheet, in a fixed order.
 func HTML(pkg *project.Package, opt Options) ([]File, error) {
-	files := []File{{Path: "index.html", Data: indexPage(pkg, opt)}}
-	for _, s := range pkg.Sheets {
-		data, err := sheetPage(s, opt)
-		if err != nil {
-			return nil, fmt.Errorf("%s: %w", s.Path(), err)
-		}
-		files = append(files, File{Path: s.Page, Data: data})
+	var files []File
+	err := WriteHTML(pkg, opt, func(f File) error {
+		files = append(files, f)
+		return nil
+	})
+	return files, err
+}
+
+// WriteHTML renders the index and then each sheet's page, handing every
+// page to emit as soon as it and all pages before it are ready. Pages are
+// rendered in parallel but emitted in a fixed order, and only a few are
+// held in memory at once.
+func WriteHTML(pkg *project.Package, opt Options, emit func(File) error) error {
+	if err := emit(File{Path: "index.html", Data: indexPage(pkg, opt)}); err != nil {
+		return err
 	}
-	return files, nil
+	type result struct {
+		file File
+		err  error
+	}
+	workers := runtime.GOMAXPROCS(0)
+	slots := make([]chan result, len(pkg.Sheets))
+	for i := range slots {
+		slots[i] = make(chan result, 1)
+	}
+	next := make(chan int)
+	done := make(chan struct{})
+	defer close(done)
+	// A token bounds how far rendering runs ahead of emitting.
+	tokens := make(chan struct{}, 2*workers)
+	go func() {
+		defer close(next)
+		for i := range pkg.Sheets {
+			select {
+			case tokens <- struct{}{}:
+			case <-done:
+				return
+			}
+			select {
+			case next <- i:
+			case <-done:
+				return
+			}
+		}
+	}()
+	for w := 0; w < workers; w++ {
+		go func() {
+			for i := range next {
+				s := pkg.Sheets[i]
+				data, err := sheetPage(s, opt)
+				if err != nil {
+					err = fmt.Errorf("%s: %w", s.Path(), err)
+				}
+				slots[i] <- result{File{Path: s.Page, Data: data}, err}
+			}
+		}()
+	}
+	for i := range pkg.Sheets {
+		r := <-slots[i]
+		<-tokens
+		if r.err != nil {
+			return r.err
+		}
+		if err := emit(r.file); err != nil {
+			return err
+		}
+	}
+	return nil
 }
 
 func esc(s string) string { return html.EscapeString(s) }
@@ -109,6 +165,8 @@ func (p *page) titleBlock(m sheets.Meta, title, sheetPath string) {
 func sheetPage(s *project.Sheet, opt Options) ([]byte, error) {
 	digits := s.Digits(opt.Digits)
 	p := &page{}
+	// Pages run to about ten times their source; growing once saves copies.
+	p.Grow(16<<10 + 10*len(s.Doc.Source))
 	title := s.Title()
 	p.head(title, opt.Version)
 	p.titleBlock(s.Doc.Meta, title, s.Path())
@@ -167,212 +225,6 @@ func messageText(d diag.Diagnostic) string {
 		msg += " — " + d.Hint
 	}
 	return msg
-}
-
-// blockRenderer draws formula blocks in place of the code the Markdown
-// shows, and plain code blocks as code.
-type blockRenderer struct {
-	sheet  *project.Sheet
-	digits int
-	index  int // formula blocks seen so far
-}
-
-// RegisterFuncs implements renderer.NodeRenderer.
-func (r *blockRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
-	reg.Register(ast.KindFencedCodeBlock, r.fenced)
-}
-
-func (r *blockRenderer) fenced(w util.BufWriter, source []byte, n ast.Node, entering bool) (ast.WalkStatus, error) {
-	if !entering {
-		return ast.WalkSkipChildren, nil
-	}
-	fc := n.(*ast.FencedCodeBlock)
-	if !sheets.IsFormulaBlock(fc, source) {
-		lang := string(fc.Language(source))
-		_, _ = w.WriteString("<pre><code")
-		if lang != "" {
-			_, _ = w.WriteString(` class="language-` + esc(lang) + `"`)
-		}
-		_, _ = w.WriteString(">")
-		for i := 0; i < fc.Lines().Len(); i++ {
-			seg := fc.Lines().At(i)
-			_, _ = w.WriteString(esc(string(seg.Value(source))))
-		}
-		_, _ = w.WriteString("</code></pre>\n")
-		return ast.WalkSkipChildren, nil
-	}
-	if r.index < len(r.sheet.Doc.Blocks) {
-		_, _ = w.WriteString(r.block(r.index))
-	}
-	r.index++
-	return ast.WalkSkipChildren, nil
-}
-
-// block draws one formula block: its statements and its comment lines, in
-// the order written.
-func (r *blockRenderer) block(bi int) string {
-	b := r.sheet.Doc.Blocks[bi]
-	byLine := map[int]*engine.Statement{}
-	for _, st := range r.sheet.Calc.Statements {
-		if st.Block == bi {
-			byLine[st.Pos.Line] = st
-		}
-	}
-	var out strings.Builder
-	out.WriteString("<div class=\"calc\">\n")
-	if len(byLine) == 0 {
-		for _, d := range r.sheet.Calc.Diags {
-			if d.Pos == b.Fence {
-				out.WriteString(fmt.Sprintf("<div class=\"row error\" id=\"L%d\"><p class=\"msg\"><span class=\"loc\">%s</span> %s</p></div>\n",
-					d.Pos.Line, esc(d.Pos.String()), esc(messageText(d))))
-			}
-		}
-	}
-	for _, l := range b.Lines {
-		if st, ok := byLine[l.Pos.Line]; ok {
-			out.WriteString(statementHTML(st, r.digits))
-			continue
-		}
-		if t := strings.TrimSpace(l.Text); strings.HasPrefix(t, "#") {
-			out.WriteString("<p class=\"comment\">" + esc(strings.TrimSpace(strings.TrimLeft(t, "#"))) + "</p>\n")
-		}
-	}
-	out.WriteString("</div>\n")
-	return out.String()
-}
-
-func anchor(st *engine.Statement) string { return "L" + strconv.Itoa(st.Pos.Line) }
-
-// statementHTML draws one statement as the checker reads it.
-func statementHTML(st *engine.Statement, digits int) string {
-	var b strings.Builder
-	switch st.Status {
-	case engine.Failed, engine.Blocked, engine.Pending:
-		return problemHTML(st)
-	case engine.Pass, engine.Fail:
-		return checkHTML(st, digits)
-	}
-	class := "row def"
-	if st.IsInput() {
-		class = "row input"
-	}
-	fmt.Fprintf(&b, "<div class=\"%s\" id=\"%s\">\n<div class=\"eq\"><math display=\"block\"><mrow>", class, anchor(st))
-	b.WriteString(symbolMathML(st.Name))
-	b.WriteString("<mo>=</mo>")
-	if st.IsInput() {
-		b.WriteString(formulaMathML(st.Expr, symbolic, digits))
-	} else {
-		sym := formulaMathML(st.Expr, symbolic, digits)
-		sub := formulaMathML(st.Expr, substituted, digits)
-		b.WriteString(sym)
-		if sub != sym {
-			b.WriteString("<mo>=</mo>" + sub)
-		}
-		b.WriteString("<mo>=</mo>" + valueMathML(st.Value, st.Shown, digits))
-	}
-	b.WriteString("</mrow></math></div>\n")
-	b.WriteString(noteHTML(st))
-	b.WriteString("</div>\n")
-	return b.String()
-}
-
-func noteHTML(st *engine.Statement) string {
-	var b strings.Builder
-	b.WriteString("<div class=\"note\">")
-	if st.Description != "" {
-		b.WriteString("<span class=\"desc\">" + esc(st.Description) + "</span>")
-	}
-	if st.Source != "" {
-		b.WriteString("<span class=\"srcref\">Source: " + esc(st.Source) + "</span>")
-	}
-	fmt.Fprintf(&b, "<a class=\"loc\" href=\"#%s\">%s</a>", anchor(st), esc(st.Pos.String()))
-	b.WriteString("</div>\n")
-	return b.String()
-}
-
-func checkHTML(st *engine.Statement, digits int) string {
-	var b strings.Builder
-	cls, verdict := "pass", "PASS"
-	if st.Status == engine.Fail {
-		cls, verdict = "fail", "FAIL"
-	}
-	cmp := st.Compare()
-	fmt.Fprintf(&b, "<div class=\"row check %s\" id=\"%s\">\n<span class=\"verdict\">%s</span>\n<div>\n", cls, anchor(st), verdict)
-	b.WriteString("<div class=\"eq\"><math display=\"block\"><mrow>")
-	b.WriteString(formulaMathML(cmp, symbolic, digits))
-	b.WriteString("<mspace width=\"1em\"></mspace><mo>⇒</mo><mspace width=\"1em\"></mspace><mrow>")
-	b.WriteString(valueMathML(st.Left, st.Shown, digits))
-	b.WriteString("<mo>" + esc(relations[cmp.Op]) + "</mo>")
-	b.WriteString(valueMathML(st.Right, st.Shown, digits))
-	b.WriteString("</mrow></mrow></math></div>\n")
-	if u := UtilisationText(st.Utilisation); u != "" {
-		b.WriteString("<div class=\"note\"><span class=\"util\">utilisation " + u + "</span></div>\n")
-	}
-	b.WriteString(noteHTML(st))
-	b.WriteString("</div>\n</div>\n")
-	return b.String()
-}
-
-// UtilisationText writes a utilisation as a percentage, or "" when it has
-// no meaning.
-func UtilisationText(u float64) string {
-	if math.IsNaN(u) || math.IsInf(u, 0) {
-		return ""
-	}
-	return units.FormatNumber(u*100, 3) + " %"
-}
-
-// problemHTML draws a statement that has an error or was not evaluated: its
-// source with the error column marked, and the message.
-func problemHTML(st *engine.Statement) string {
-	var b strings.Builder
-	cls := "error"
-	if st.Status == engine.Blocked {
-		cls = "blocked"
-	}
-	fmt.Fprintf(&b, "<div class=\"row %s\" id=\"%s\">\n<pre class=\"src\">%s</pre>\n", cls, anchor(st), markColumn(st))
-	if st.Err != nil {
-		fmt.Fprintf(&b, "<p class=\"msg\"><span class=\"loc\">%s</span> %s", esc(st.Err.Pos.String()), esc(st.Err.Message))
-		if st.Err.Hint != "" {
-			b.WriteString("<br><span class=\"hint\">" + esc(st.Err.Hint) + "</span>")
-		}
-		b.WriteString("</p>\n")
-	}
-	b.WriteString("</div>\n")
-	return b.String()
-}
-
-// markColumn escapes a statement's text and marks the character its error
-// points at.
-func markColumn(st *engine.Statement) string {
-	text := st.Text
-	const limit = 400
-	if st.Err == nil || st.Status != engine.Failed || st.Err.Pos.Line != st.Pos.Line {
-		return esc(clip(text, limit))
-	}
-	r := []rune(text)
-	i := st.Err.Pos.Col - st.Pos.Col
-	if i < 0 || i >= len(r) {
-		return esc(clip(text, limit))
-	}
-	start := max(0, i-limit/2)
-	end := min(len(r), i+limit/2)
-	out := esc(string(r[start:i])) + "<mark>" + esc(string(r[i])) + "</mark>" + esc(string(r[i+1:end]))
-	if start > 0 {
-		out = "…" + out
-	}
-	if end < len(r) {
-		out += "…"
-	}
-	return out
-}
-
-func clip(s string, n int) string {
-	r := []rune(s)
-	if len(r) <= n {
-		return s
-	}
-	return string(r[:n]) + "…"
 }
 
 // inputsRegister lists the sheet's inputs: name, value as written, unit,

@@ -1,8 +1,11 @@
 package render
 
 import (
+	"bufio"
 	"bytes"
 	"encoding/json"
+	"fmt"
+	"io"
 	"math"
 
 	"github.com/sheaf-calc/sheaf/diag"
@@ -102,36 +105,107 @@ func jsonDiag(d diag.Diagnostic) JSONDiag {
 	return JSONDiag{Pos: d.Pos, Severity: d.Severity.String(), Message: d.Message, Hint: d.Hint}
 }
 
-// JSON writes the package as an indented JSON document.
+// JSON returns the package as an indented JSON document.
 func JSON(pkg *project.Package, opt Options) ([]byte, error) {
-	doc := Document(pkg, opt)
 	var buf bytes.Buffer
-	enc := json.NewEncoder(&buf)
-	enc.SetIndent("", "  ")
-	enc.SetEscapeHTML(false)
-	if err := enc.Encode(doc); err != nil {
-		return nil, err
-	}
-	return buf.Bytes(), nil
+	err := WriteJSON(pkg, opt, &buf)
+	return buf.Bytes(), err
 }
 
-// Document builds the JSON form of a package.
-func Document(pkg *project.Package, opt Options) JSONDoc {
+// WriteJSON writes the package as an indented JSON document, one sheet at
+// a time, so that a large package never sits in memory as one document.
+// The bytes are those of encoding Document(pkg, opt) with two-space
+// indentation.
+func WriteJSON(pkg *project.Package, opt Options, w io.Writer) error {
+	bw := bufio.NewWriter(w)
+	doc := documentHead(pkg, opt)
+	head, err := marshal(doc, "")
+	if err != nil {
+		return err
+	}
+	// The head has empty sheet and diagnostic lists; open the sheets list
+	// and stream its members, then write the rest of the head after it.
+	const emptySheets = `"sheets": [],`
+	i := bytes.Index(head, []byte(emptySheets))
+	if i < 0 {
+		return fmt.Errorf("render: unexpected JSON head")
+	}
+	bw.Write(head[:i])
+	if len(pkg.Sheets) == 0 {
+		bw.WriteString(emptySheets)
+	} else {
+		bw.WriteString(`"sheets": [`)
+		for k, s := range pkg.Sheets {
+			data, err := marshal(jsonSheet(s, opt), "    ")
+			if err != nil {
+				return err
+			}
+			if k > 0 {
+				bw.WriteString(",")
+			}
+			bw.WriteString("\n    ")
+			bw.Write(data)
+		}
+		bw.WriteString("\n  ],")
+	}
+	tail := head[i+len(emptySheets):]
+	diags := make([]JSONDiag, 0, len(pkg.Diags))
+	for _, d := range pkg.Diags {
+		diags = append(diags, jsonDiag(d))
+	}
+	const emptyDiags = `"diagnostics": []`
+	j := bytes.Index(tail, []byte(emptyDiags))
+	if j < 0 {
+		return fmt.Errorf("render: unexpected JSON tail")
+	}
+	bw.Write(tail[:j])
+	list, err := marshal(diags, "  ")
+	if err != nil {
+		return err
+	}
+	bw.WriteString(`"diagnostics": `)
+	bw.Write(list)
+	bw.Write(tail[j+len(emptyDiags):])
+	bw.WriteString("\n")
+	return bw.Flush()
+}
+
+func marshal(v any, prefix string) ([]byte, error) {
+	var buf bytes.Buffer
+	enc := json.NewEncoder(&buf)
+	enc.SetIndent(prefix, "  ")
+	enc.SetEscapeHTML(false)
+	if err := enc.Encode(v); err != nil {
+		return nil, err
+	}
+	return bytes.TrimSuffix(buf.Bytes(), []byte("\n")), nil
+}
+
+func documentHead(pkg *project.Package, opt Options) JSONDoc {
 	c := pkg.Counts()
-	doc := JSONDoc{
+	return JSONDoc{
 		Schema:  JSONSchemaID,
 		Tool:    JSONTool{Name: "sheaf", Version: opt.Version},
 		Summary: JSONSummary{Sheets: len(pkg.Sheets), Results: c.Results, Inputs: c.Inputs, Pass: c.Pass, Fail: c.Fail, Errors: c.Errors, Blocked: c.Blocked},
 		Sheets:  []JSONSheet{},
 		Diags:   []JSONDiag{},
 	}
+}
+
+func jsonSheet(s *project.Sheet, opt Options) JSONSheet {
+	digits := s.Digits(opt.Digits)
+	js := JSONSheet{Path: s.Path(), Page: s.Page, Title: s.Title(), Meta: s.Doc.Meta, Statements: []JSONStatement{}}
+	for _, st := range s.Calc.Statements {
+		js.Statements = append(js.Statements, jsonStatement(st, digits))
+	}
+	return js
+}
+
+// Document builds the JSON form of a package in memory.
+func Document(pkg *project.Package, opt Options) JSONDoc {
+	doc := documentHead(pkg, opt)
 	for _, s := range pkg.Sheets {
-		digits := s.Digits(opt.Digits)
-		js := JSONSheet{Path: s.Path(), Page: s.Page, Title: s.Title(), Meta: s.Doc.Meta, Statements: []JSONStatement{}}
-		for _, st := range s.Calc.Statements {
-			js.Statements = append(js.Statements, jsonStatement(st, digits))
-		}
-		doc.Sheets = append(doc.Sheets, js)
+		doc.Sheets = append(doc.Sheets, jsonSheet(s, opt))
 	}
 	for _, d := range pkg.Diags {
 		doc.Diags = append(doc.Diags, jsonDiag(d))

@@ -2,6 +2,7 @@ package render
 
 import (
 	"html"
+	"io"
 	"strings"
 
 	"github.com/sheaf-calc/sheaf/engine"
@@ -16,18 +17,43 @@ const (
 	substituted                 // Φ = 180·12.00 A / 62.17 kA/Wb
 )
 
+// sink is where HTML is written: the page buffer, or goldmark's writer.
+type sink interface {
+	io.Writer
+	io.StringWriter
+	io.ByteWriter
+}
+
 // mathWriter writes formulas as MathML.
 type mathWriter struct {
-	b      strings.Builder
+	b      sink
 	mode   mathMode
 	digits int
 }
 
-// formulaMathML writes an expression as MathML (without the <math> element).
+// writeFormula writes an expression as MathML (without the <math> element).
+func writeFormula(w sink, e engine.Expr, mode mathMode, digits int) {
+	mw := &mathWriter{b: w, mode: mode, digits: digits}
+	mw.expr(e, 0)
+}
+
+// formulaMathML returns an expression as MathML.
 func formulaMathML(e engine.Expr, mode mathMode, digits int) string {
-	w := &mathWriter{mode: mode, digits: digits}
-	w.expr(e, 0)
-	return w.b.String()
+	var b strings.Builder
+	writeFormula(&b, e, mode, digits)
+	return b.String()
+}
+
+// substitutes reports whether the substituted form of e differs from its
+// symbolic form: whether it names any statement.
+func substitutes(e engine.Expr) bool {
+	found := false
+	engine.Walk(e, func(n engine.Expr) {
+		if r, ok := n.(*engine.Ref); ok && r.Target != nil {
+			found = true
+		}
+	})
+	return found
 }
 
 func (w *mathWriter) op(s string) { w.b.WriteString("<mo>" + html.EscapeString(s) + "</mo>") }

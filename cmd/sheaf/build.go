@@ -38,11 +38,10 @@ func (f *commonFlags) load(path string) (*project.Package, error) {
 		return nil, err
 	}
 	if f.json != "" {
-		data, err := render.JSON(pkg, f.options())
+		err := atomicfile.WriteFunc(f.json, 0o644, func(w io.Writer) error {
+			return render.WriteJSON(pkg, f.options(), w)
+		})
 		if err != nil {
-			return nil, err
-		}
-		if err := atomicfile.Write(f.json, data, 0o644); err != nil {
 			return nil, err
 		}
 	}
@@ -73,14 +72,11 @@ func buildCmd(stdout, stderr io.Writer) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			files, err := render.HTML(pkg, flags.options())
+			err = render.WriteHTML(pkg, flags.options(), func(f render.File) error {
+				return atomicfile.Write(filepath.Join(out, filepath.FromSlash(f.Path)), f.Data, 0o644)
+			})
 			if err != nil {
 				return err
-			}
-			for _, f := range files {
-				if err := atomicfile.Write(filepath.Join(out, filepath.FromSlash(f.Path)), f.Data, 0o644); err != nil {
-					return err
-				}
 			}
 			for _, d := range pkg.Diags {
 				fmt.Fprintln(stderr, d.Error())

@@ -4,12 +4,21 @@
 package atomicfile
 
 import (
+	"io"
 	"os"
 	"path/filepath"
 )
 
 // Write replaces path with data atomically, creating parent folders.
 func Write(path string, data []byte, perm os.FileMode) error {
+	return WriteFunc(path, perm, func(w io.Writer) error {
+		_, err := w.Write(data)
+		return err
+	})
+}
+
+// WriteFunc replaces path atomically with what fill writes.
+func WriteFunc(path string, perm os.FileMode, fill func(io.Writer) error) error {
 	dir := filepath.Dir(path)
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return err
@@ -26,7 +35,7 @@ func Write(path string, data []byte, perm os.FileMode) error {
 			_ = os.Remove(name)
 		}
 	}()
-	if _, err := tmp.Write(data); err != nil {
+	if err := fill(tmp); err != nil {
 		return err
 	}
 	if err := tmp.Sync(); err != nil {

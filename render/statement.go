@@ -1,0 +1,211 @@
+package render
+
+import (
+	"math"
+	"strconv"
+	"strings"
+
+	"github.com/yuin/goldmark/ast"
+	"github.com/yuin/goldmark/renderer"
+	"github.com/yuin/goldmark/util"
+
+	"github.com/sheaf-calc/sheaf/engine"
+	"github.com/sheaf-calc/sheaf/project"
+	"github.com/sheaf-calc/sheaf/sheets"
+	"github.com/sheaf-calc/sheaf/units"
+)
+
+// blockRenderer draws formula blocks in place of the code the Markdown
+// shows, and plain code blocks as code.
+type blockRenderer struct {
+	sheet  *project.Sheet
+	digits int
+	index  int // formula blocks seen so far
+}
+
+// RegisterFuncs implements renderer.NodeRenderer.
+func (r *blockRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
+	reg.Register(ast.KindFencedCodeBlock, r.fenced)
+}
+
+func (r *blockRenderer) fenced(w util.BufWriter, source []byte, n ast.Node, entering bool) (ast.WalkStatus, error) {
+	if !entering {
+		return ast.WalkSkipChildren, nil
+	}
+	fc := n.(*ast.FencedCodeBlock)
+	if !sheets.IsFormulaBlock(fc, source) {
+		w.WriteString("<pre><code")
+		if lang := string(fc.Language(source)); lang != "" {
+			w.WriteString(` class="language-` + esc(lang) + `"`)
+		}
+		w.WriteString(">")
+		for i := 0; i < fc.Lines().Len(); i++ {
+			seg := fc.Lines().At(i)
+			w.WriteString(esc(string(seg.Value(source))))
+		}
+		w.WriteString("</code></pre>\n")
+		return ast.WalkSkipChildren, nil
+	}
+	if r.index < len(r.sheet.Doc.Blocks) {
+		r.block(w, r.index)
+	}
+	r.index++
+	return ast.WalkSkipChildren, nil
+}
+
+// block draws one formula block: its statements and its comment lines, in
+// the order written.
+func (r *blockRenderer) block(w sink, bi int) {
+	b := r.sheet.Doc.Blocks[bi]
+	byLine := map[int]*engine.Statement{}
+	for _, st := range r.sheet.Calc.Statements {
+		if st.Block == bi {
+			byLine[st.Pos.Line] = st
+		}
+	}
+	w.WriteString("<div class=\"calc\">\n")
+	if len(byLine) == 0 {
+		for _, d := range r.sheet.Calc.Diags {
+			if d.Pos == b.Fence {
+				w.WriteString(`<div class="row error" id="L` + strconv.Itoa(d.Pos.Line) + `"><p class="msg"><span class="loc">` +
+					esc(d.Pos.String()) + "</span> " + esc(messageText(d)) + "</p></div>\n")
+			}
+		}
+	}
+	for _, l := range b.Lines {
+		if st, ok := byLine[l.Pos.Line]; ok {
+			writeStatement(w, st, r.digits)
+			continue
+		}
+		if t := strings.TrimSpace(l.Text); strings.HasPrefix(t, "#") {
+			w.WriteString("<p class=\"comment\">" + esc(strings.TrimSpace(strings.TrimLeft(t, "#"))) + "</p>\n")
+		}
+	}
+	w.WriteString("</div>\n")
+}
+
+func anchor(st *engine.Statement) string { return "L" + strconv.Itoa(st.Pos.Line) }
+
+// writeStatement draws one statement as the checker reads it: the formula
+// with symbols, the same with values, and the result.
+func writeStatement(w sink, st *engine.Statement, digits int) {
+	switch st.Status {
+	case engine.Failed, engine.Blocked, engine.Pending:
+		writeProblem(w, st)
+		return
+	case engine.Pass, engine.Fail:
+		writeCheck(w, st, digits)
+		return
+	}
+	class := "row def"
+	if st.IsInput() {
+		class = "row input"
+	}
+	w.WriteString(`<div class="` + class + `" id="` + anchor(st) + "\">\n<div class=\"eq\"><math display=\"block\"><mrow>")
+	w.WriteString(symbolMathML(st.Name))
+	w.WriteString("<mo>=</mo>")
+	writeFormula(w, st.Expr, symbolic, digits)
+	if !st.IsInput() {
+		if substitutes(st.Expr) {
+			w.WriteString("<mo>=</mo>")
+			writeFormula(w, st.Expr, substituted, digits)
+		}
+		w.WriteString("<mo>=</mo>")
+		w.WriteString(valueMathML(st.Value, st.Shown, digits))
+	}
+	w.WriteString("</mrow></math></div>\n")
+	writeNote(w, st)
+	w.WriteString("</div>\n")
+}
+
+func writeNote(w sink, st *engine.Statement) {
+	w.WriteString("<div class=\"note\">")
+	if st.Description != "" {
+		w.WriteString("<span class=\"desc\">" + esc(st.Description) + "</span>")
+	}
+	if st.Source != "" {
+		w.WriteString("<span class=\"srcref\">Source: " + esc(st.Source) + "</span>")
+	}
+	w.WriteString(`<a class="loc" href="#` + anchor(st) + `">` + esc(st.Pos.String()) + "</a></div>\n")
+}
+
+func writeCheck(w sink, st *engine.Statement, digits int) {
+	cls, verdict := "pass", "PASS"
+	if st.Status == engine.Fail {
+		cls, verdict = "fail", "FAIL"
+	}
+	cmp := st.Compare()
+	w.WriteString(`<div class="row check ` + cls + `" id="` + anchor(st) + "\">\n<span class=\"verdict\">" + verdict + "</span>\n<div>\n")
+	w.WriteString("<div class=\"eq\"><math display=\"block\"><mrow>")
+	writeFormula(w, cmp, symbolic, digits)
+	w.WriteString("<mspace width=\"1em\"></mspace><mo>⇒</mo><mspace width=\"1em\"></mspace><mrow>")
+	w.WriteString(valueMathML(st.Left, st.Shown, digits))
+	w.WriteString("<mo>" + esc(relations[cmp.Op]) + "</mo>")
+	w.WriteString(valueMathML(st.Right, st.Shown, digits))
+	w.WriteString("</mrow></mrow></math></div>\n")
+	if u := UtilisationText(st.Utilisation); u != "" {
+		w.WriteString("<div class=\"note\"><span class=\"util\">utilisation " + u + "</span></div>\n")
+	}
+	writeNote(w, st)
+	w.WriteString("</div>\n</div>\n")
+}
+
+// UtilisationText writes a utilisation as a percentage, or "" when it has
+// no meaning.
+func UtilisationText(u float64) string {
+	if math.IsNaN(u) || math.IsInf(u, 0) {
+		return ""
+	}
+	return units.FormatNumber(u*100, 3) + " %"
+}
+
+// writeProblem draws a statement that has an error or was not evaluated:
+// its source with the error column marked, and the message.
+func writeProblem(w sink, st *engine.Statement) {
+	cls := "error"
+	if st.Status == engine.Blocked {
+		cls = "blocked"
+	}
+	w.WriteString(`<div class="row ` + cls + `" id="` + anchor(st) + "\">\n<pre class=\"src\">" + markColumn(st) + "</pre>\n")
+	if st.Err != nil {
+		w.WriteString(`<p class="msg"><span class="loc">` + esc(st.Err.Pos.String()) + "</span> " + esc(st.Err.Message))
+		if st.Err.Hint != "" {
+			w.WriteString("<br><span class=\"hint\">" + esc(st.Err.Hint) + "</span>")
+		}
+		w.WriteString("</p>\n")
+	}
+	w.WriteString("</div>\n")
+}
+
+// markColumn escapes a statement's text and marks the character its error
+// points at.
+func markColumn(st *engine.Statement) string {
+	text := st.Text
+	const limit = 400
+	if st.Err == nil || st.Status != engine.Failed || st.Err.Pos.Line != st.Pos.Line {
+		return esc(clip(text, limit))
+	}
+	r := []rune(text)
+	i := st.Err.Pos.Col - st.Pos.Col
+	if i < 0 || i >= len(r) {
+		return esc(clip(text, limit))
+	}
+	start := max(0, i-limit/2)
+	end := min(len(r), i+limit/2)
+	out := esc(string(r[start:i])) + "<mark>" + esc(string(r[i])) + "</mark>" + esc(string(r[i+1:end]))
+	if start > 0 {
+		out = "…" + out
+	}
+	if end < len(r) {
+		out += "…"
+	}
+	return out
+}
+
+func clip(s string, n int) string {
+	r := []rune(s)
+	if len(r) <= n {
+		return s
+	}
+	return string(r[:n]) + "…"
+}
