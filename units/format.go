@@ -152,8 +152,11 @@ func FormatNumber(x float64, sig int) string {
 	}
 	// Round first, then decide the notation from the rounded value, so that
 	// 999.96 to 4 figures prints as 1000, not 1000.0.
-	r, _ := strconv.ParseFloat(strconv.FormatFloat(x, 'e', sig-1, 64), 64)
-	e := int(math.Floor(math.Log10(math.Abs(r))))
+	// The decimal exponent comes from the rounded text, not from Log10,
+	// which returns 3 for 999.9999999999999 and so drops a figure.
+	s := strconv.FormatFloat(x, 'e', sig-1, 64)
+	r, _ := strconv.ParseFloat(s, 64)
+	_, e := SplitExponent(s)
 	if e < -3 || e >= 6 {
 		return strconv.FormatFloat(r, 'e', sig-1, 64)
 	}

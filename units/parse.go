@@ -87,13 +87,35 @@ type factor struct {
 	kind    Kind
 	atoms   int  // how many symbols it contains
 	affine  bool // contains °C or °F
+	affCol  int  // where the first °C or °F starts, for the error
 	compose bool // text needs parentheses when raised to a power
 	col     int
 }
 
+// maxUnitExp bounds the exponent of each base quantity in a parsed unit,
+// as the parser bounds a written exponent; Dim holds int8, and m^99·m^99
+// must be refused rather than wrap round to L⁻⁵⁸.
+const maxUnitExp = 99
+
+// expFits reports whether a.Mul(b) (sign 1) or a.Div(b) (sign -1) keeps
+// every exponent within maxUnitExp.
+func expFits(a, b Dim, sign int) bool {
+	for i := range a {
+		if v := int(a[i]) + sign*int(b[i]); v > maxUnitExp || v < -maxUnitExp {
+			return false
+		}
+	}
+	return true
+}
+
 func (f factor) finish() (Unit, error) {
+	if f.scale == 0 || math.IsInf(f.scale, 0) || math.IsNaN(f.scale) {
+		// "Qm^11" is 1e330 m¹¹: beyond float64, so no value could use it.
+		return Unit{}, &Error{Col: f.col, Msg: "unit scale beyond the range of a number",
+			Hint: "use a smaller prefix or a smaller exponent"}
+	}
 	if f.affine && (f.atoms > 1 || f.offset == 0) {
-		return Unit{}, &Error{Col: f.col, Msg: "°C and °F measure absolute temperature and cannot be combined with other units",
+		return Unit{}, &Error{Col: f.affCol, Msg: "°C and °F measure absolute temperature and cannot be combined with other units",
 			Hint: "use K for temperature differences and rates, for example K/s or W/K"}
 	}
 	return Unit{Symbol: f.text, Dim: f.dim, Scale: f.scale, Offset: f.offset, Kind: f.kind}, nil
@@ -161,6 +183,14 @@ func (p *parser) product(depth int) (factor, error) {
 		if err != nil {
 			return right, err
 		}
+		sign := 1
+		if div {
+			sign = -1
+		}
+		if !expFits(left.dim, right.dim, sign) {
+			return factor{}, p.errf(right.col, "unit exponent too large",
+				fmt.Sprintf("a unit may raise each base quantity to at most the power %d", maxUnitExp))
+		}
 		if div {
 			sawSolidus = true
 			left = combine(left, right, "/", -1)
@@ -171,12 +201,21 @@ func (p *parser) product(depth int) (factor, error) {
 }
 
 func combine(a, b factor, op string, sign int) factor {
-	bt := b.text
+	at, bt := a.text, b.text
+	if topLevelSolidus(at) {
+		// "(A/m)·s" must not print as A/m·s, which reads as A/(m·s) and
+		// which Parse refuses (SI Brochure 5.4.6).
+		at = "(" + at + ")"
+	}
 	if op == "/" && b.compose {
 		bt = "(" + bt + ")"
 	}
-	text := a.text + op + bt
-	f := factor{text: text, scale: a.scale, atoms: a.atoms + b.atoms, affine: a.affine || b.affine, compose: true, col: a.col}
+	text := at + op + bt
+	f := factor{text: text, scale: a.scale, atoms: a.atoms + b.atoms, affine: a.affine || b.affine, compose: true, col: a.col,
+		affCol: a.affCol}
+	if !a.affine {
+		f.affCol = b.affCol
+	}
 	if sign > 0 {
 		f.dim = a.dim.Mul(b.dim)
 		f.scale *= b.scale
@@ -186,6 +225,24 @@ func combine(a, b factor, op string, sign int) factor {
 	}
 	f.kind = combineKinds(a.kind, b.kind, f.dim)
 	return f
+}
+
+// topLevelSolidus reports whether a unit text has a / outside parentheses.
+func topLevelSolidus(text string) bool {
+	depth := 0
+	for _, r := range text {
+		switch r {
+		case '(':
+			depth++
+		case ')':
+			depth--
+		case '/':
+			if depth == 0 {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // combineKinds keeps a cycle kind only on a rate (Hz·1, rpm), and an angle
@@ -234,12 +291,18 @@ func (p *parser) power(depth int) (factor, error) {
 	if n == 0 {
 		return factor{}, p.errf(p.pos-1, "unit raised to the power 0", "leave the unit out instead")
 	}
+	for i := range f.dim {
+		if v := int(f.dim[i]) * n; v > maxUnitExp || v < -maxUnitExp {
+			return factor{}, p.errf(f.col, "unit exponent too large",
+				fmt.Sprintf("a unit may raise each base quantity to at most the power %d", maxUnitExp))
+		}
+	}
 	text := f.text
 	if f.compose {
 		text = "(" + text + ")"
 	}
 	out := factor{text: text + superscript(n), dim: f.dim.Pow(n), scale: math.Pow(f.scale, float64(n)),
-		atoms: f.atoms, affine: f.affine, col: f.col, compose: false}
+		atoms: f.atoms, affine: f.affine, affCol: f.affCol, col: f.col, compose: false}
 	if f.kind == Angle && n == 1 {
 		out.kind = Angle
 	}
@@ -356,7 +419,7 @@ func (p *parser) atom(depth int) (factor, error) {
 			return factor{}, p.unknown(start, sym)
 		}
 		affine := u.Offset != 0
-		return factor{text: u.Symbol, dim: u.Dim, scale: u.Scale, offset: u.Offset, kind: u.Kind, atoms: 1, affine: affine, col: start}, nil
+		return factor{text: u.Symbol, dim: u.Dim, scale: u.Scale, offset: u.Offset, kind: u.Kind, atoms: 1, affine: affine, affCol: start, col: start}, nil
 	case r == 0:
 		return factor{}, p.errf(start, "unit expression ends too early", "")
 	}

@@ -34,13 +34,9 @@ var quantityNames = func() map[Dim]string {
 // (Wb)", or for a dimension without a name its coherent SI unit.
 func Describe(d Dim) string {
 	name, named := quantityNames[d]
+	// One coherent SI unit picks no prefix, except on the gram, where it
+	// gives kg: the coherent unit of mass, not the table's g.
 	unit := AutoUnit(1, d, Plain).Symbol
-	if p, ok := preferredUnits[d]; ok {
-		unit = p.symbol
-		if u, err := Parse(p.symbol); err == nil {
-			unit = u.Symbol
-		}
-	}
 	switch {
 	case d.IsDimensionless():
 		return "a pure number"
