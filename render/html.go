@@ -28,6 +28,12 @@ type Options struct {
 	Digits int
 	// Version is the tool version printed in every footer.
 	Version string
+	// NoGraphs leaves the dependency graphs out; laying them out is the
+	// slowest part of rendering.
+	NoGraphs bool
+	// GraphCache, when set, is a folder where graph layouts are kept by
+	// the hash of their input, so that rebuilds lay out only what changed.
+	GraphCache string
 }
 
 // File is one output file of a built package.
@@ -91,9 +97,18 @@ func WriteHTML(pkg *project.Package, opt Options, emit func(File) error) error {
 	}()
 	for w := 0; w < workers; w++ {
 		go func() {
+			var g *grapher
+			defer func() { g.close() }()
 			for i := range next {
 				s := pkg.Sheets[i]
-				data, err := sheetPage(s, opt)
+				var data []byte
+				var err error
+				if g == nil && !opt.NoGraphs {
+					g, err = newGrapher(opt.GraphCache)
+				}
+				if err == nil {
+					data, err = sheetPage(s, opt, g)
+				}
 				if err != nil {
 					err = fmt.Errorf("%s: %w", s.Path(), err)
 				}
@@ -162,7 +177,7 @@ func (p *page) titleBlock(m sheets.Meta, title, sheetPath string) {
 	p.f("</dl>\n</header>\n")
 }
 
-func sheetPage(s *project.Sheet, opt Options) ([]byte, error) {
+func sheetPage(s *project.Sheet, opt Options, g *grapher) ([]byte, error) {
 	digits := s.Digits(opt.Digits)
 	p := &page{}
 	// Pages run to about ten times their source; growing once saves copies.
@@ -183,6 +198,15 @@ func sheetPage(s *project.Sheet, opt Options) ([]byte, error) {
 		return nil, err
 	}
 	p.f("</article>\n")
+	if g != nil && len(s.Calc.Statements) > 0 {
+		svg, err := g.svg(graphDOT(s, digits))
+		if err != nil {
+			return nil, err
+		}
+		p.f("<section class=\"graph\">\n<h2>Dependency graph</h2>\n<p class=\"loc\">Each arrow runs from a statement to one that uses it; select a box to go to its statement.</p>\n<figure>\n")
+		p.Write(svg)
+		p.f("</figure>\n</section>\n")
+	}
 	inputsRegister(p, s)
 	p.foot(opt.Version, "Page of "+esc(s.Path())+".")
 	return p.Bytes(), nil

@@ -55,7 +55,7 @@ func TestSheetPageShowsFormulaValuesAndChecks(t *testing.T) {
 		t.Fatalf("no sheet page; have %v", pages)
 	}
 	for _, want := range []string{
-		"<math display=\"block\">",
+		"<math class=\"f\">",
 		// symbolic, substituted, result: λ_f = N·Φ = 120·2.5 mWb = 0.3000 Wb
 		"<msub><mi>λ</mi><mi>f</mi></msub><mo>=</mo>",
 		"<mn>120</mn><mo>⋅</mo><mn>2.5</mn><mspace width=\"0.2em\"></mspace><mtext>mWb</mtext>",

@@ -101,7 +101,7 @@ func writeStatement(w sink, st *engine.Statement, digits int) {
 	if st.IsInput() {
 		class = "row input"
 	}
-	w.WriteString(`<div class="` + class + `" id="` + anchor(st) + "\">\n<div class=\"eq\"><math display=\"block\"><mrow>")
+	w.WriteString(`<div class="` + class + `" id="` + anchor(st) + "\">\n<div class=\"eq\"><math class=\"f\"><mrow>")
 	w.WriteString(symbolMathML(st.Name))
 	w.WriteString("<mo>=</mo>")
 	writeFormula(w, st.Expr, symbolic, digits)
@@ -136,7 +136,7 @@ func writeCheck(w sink, st *engine.Statement, digits int) {
 	}
 	cmp := st.Compare()
 	w.WriteString(`<div class="row check ` + cls + `" id="` + anchor(st) + "\">\n<span class=\"verdict\">" + verdict + "</span>\n<div>\n")
-	w.WriteString("<div class=\"eq\"><math display=\"block\"><mrow>")
+	w.WriteString("<div class=\"eq\"><math class=\"f\"><mrow>")
 	writeFormula(w, cmp, symbolic, digits)
 	w.WriteString("<mspace width=\"1em\"></mspace><mo>⇒</mo><mspace width=\"1em\"></mspace><mrow>")
 	w.WriteString(valueMathML(st.Left, st.Shown, digits))

@@ -34,7 +34,7 @@ nav.pkg{font-size:.9rem;margin:.5rem 0 1rem}
 .row:last-child{border-bottom:0}
 .row math{font-size:1.1em}
 .eq{overflow-x:auto;overflow-y:hidden}
-math[display="block"]{text-align:left;margin:.15rem 0}
+.eq math{math-style:normal;display:inline-block;margin:.15rem 0}
 .note{font-size:.82rem;color:var(--muted);display:flex;flex-wrap:wrap;gap:.2rem .9rem}
 .note .desc{color:var(--ink)}
 .loc{color:var(--muted);font-size:.78rem;text-decoration:none;font-family:ui-monospace,Menlo,monospace}
@@ -52,6 +52,9 @@ math[display="block"]{text-align:left;margin:.15rem 0}
 .comment{color:var(--muted);font-style:italic;margin:.3rem 0}
 .util{font-variant-numeric:tabular-nums}
 .caution{border:1px solid var(--warn);background:var(--warn-bg);padding:.6rem .9rem;margin:1.5rem 0;font-size:.85rem}
+.graph figure{margin:.5rem 0;overflow-x:auto;border:1px solid var(--rule);border-radius:4px;padding:.5rem}
+.graph svg{max-width:100%;height:auto}
+.graph a{text-decoration:none}
 footer{margin-top:2rem;border-top:1px solid var(--rule);padding-top:.5rem;font-size:.78rem;color:var(--muted)}
 @media print{
  body{max-width:none;padding:0;font-size:10.5pt}
