@@ -81,6 +81,14 @@ func inferBinary(n *Binary) *diag.Diagnostic {
 					"cannot multiply or divide an absolute temperature (°C or °F): the result would depend on where the scale starts")
 			}
 		}
+		sign := 1
+		if n.Op == "/" {
+			sign = -1
+		}
+		if !mulFits(x.Dim, y.Dim, sign) {
+			return errAt(n.Pos(), "name a quantity with a smaller power of its unit, or check the formula",
+				"the dimension of this result has an exponent beyond ±127, which sheaf cannot hold")
+		}
 		if n.Op == "*" {
 			t.Dim = x.Dim.Mul(y.Dim)
 			t.Val = x.Val * y.Val
@@ -97,6 +105,18 @@ func inferBinary(n *Binary) *diag.Diagnostic {
 		return inferPower(n)
 	}
 	return nil
+}
+
+// mulFits reports whether the dimension of a product (sign 1) or quotient
+// (sign -1) keeps every exponent within int8, so that m⁹⁹·m⁹⁹ is refused
+// instead of wrapping round to m⁻⁵⁸.
+func mulFits(a, b units.Dim, sign int) bool {
+	for i := range a {
+		if v := int(a[i]) + sign*int(b[i]); v > 127 || v < -127 {
+			return false
+		}
+	}
+	return true
 }
 
 // addKinds decides the kind of a sum, difference or comparison, and
@@ -296,19 +316,34 @@ func applyFunction(f *Function, v []float64) float64 {
 }
 
 // displayProblem says why a value of type t cannot be shown in unit u, or
-// returns "" if it can.
-func displayProblem(name string, t Type, u units.Unit) (msg, hint string) {
+// returns "" if it can. formula is a definition's right side as written,
+// for the hint; "" for a check.
+func displayProblem(name, formula string, t Type, u units.Unit) (msg, hint string) {
 	if t.Dim != u.Dim {
 		return fmt.Sprintf("display unit %s measures %s, but %s is %s", u.Symbol, units.Describe(u.Dim), name, units.Describe(t.Dim)),
 			"choose a unit of the same kind, or check the formula"
 	}
+	// The hint shows the corrected right side, not the defined name: the
+	// 2π belongs in the formula.
+	group := formula
+	if _, end := identifier([]rune(formula), 0); end != len([]rune(formula)) {
+		group = "(" + formula + ")"
+	}
 	switch {
 	case t.Kind == units.Cycle && u.Kind == units.Angle:
+		hint = "for an angular velocity multiply the frequency by 2*pi"
+		if formula != "" {
+			hint = "for an angular velocity write " + name + " [" + u.Symbol + "] = 2*pi*" + group
+		}
 		return fmt.Sprintf("%s is a rotational frequency (cycles), and showing it in %s would drop a factor 2π", name, u.Symbol),
-			"for an angular velocity write 2*pi*" + name + "; or show it in Hz or rpm"
+			hint + "; or show it in Hz or rpm"
 	case t.Kind == units.Angle && u.Kind == units.Cycle:
+		hint = "for a frequency divide the angular velocity by 2*pi"
+		if formula != "" {
+			hint = "for a frequency write " + name + " [" + u.Symbol + "] = " + group + "/(2*pi)"
+		}
 		return fmt.Sprintf("%s is an angular velocity (radians), and showing it in %s would add a factor 2π", name, u.Symbol),
-			"for a frequency write " + name + "/(2*pi); or show it in rad/s"
+			hint + "; or show it in rad/s"
 	case u.Kind == units.AbsTemp && t.Kind != units.AbsTemp && t.Dim == dimTemperature:
 		return fmt.Sprintf("%s is a temperature difference and cannot be shown in %s", name, u.Symbol),
 			"show differences in K"

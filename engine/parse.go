@@ -5,6 +5,7 @@ import (
 	"strconv"
 	"strings"
 	"unicode"
+	"unicode/utf8"
 
 	"github.com/expr-lang/expr/ast"
 	"github.com/expr-lang/expr/conf"
@@ -28,6 +29,10 @@ func errAt(pos diag.Pos, hint, format string, args ...any) *diag.Diagnostic {
 func parseStatement(t *text) (*Statement, *diag.Diagnostic) {
 	st := &Statement{Pos: t.pos(skipSpace(t.runes, 0)), Text: strings.TrimSpace(t.String())}
 	if len(t.runes) > MaxStatementLength {
+		// Deep nesting makes a line long; name that cause when it is the one.
+		if at := tooDeep(t.runes); at >= 0 {
+			return st, errAt(t.pos(at), "name the inner parts as separate statements", "parentheses nested more than %d deep", MaxNesting)
+		}
 		return st, errAt(st.Pos, "split it into named parts", "statement is %d characters long; the limit is %d", len(t.runes), MaxStatementLength)
 	}
 	r := t.runes
@@ -111,6 +116,25 @@ func parseStatement(t *text) (*Statement, *diag.Diagnostic) {
 	}
 	st.Expr = e
 	return st, nil
+}
+
+// tooDeep returns the offset of the first parenthesis nested more than
+// MaxNesting deep in the formula part of r (before any ';' or '#'), or -1.
+func tooDeep(r []rune) int {
+	depth := 0
+	for i, c := range r {
+		switch c {
+		case '(':
+			if depth++; depth > MaxNesting {
+				return i
+			}
+		case ')':
+			depth--
+		case ';', '#':
+			return -1
+		}
+	}
+	return -1
 }
 
 // parseDisplay reads an optional "[unit]" at r[i].
@@ -278,6 +302,11 @@ func prescan(t *text, from, to int) (*scanned, *diag.Diagnostic) {
 			for j < to && isIdentPart(r[j]) {
 				j++
 			}
+			if c == '_' {
+				// No name may start with _ (validName), and _q0, _q1, ... are
+				// the placeholders for literals below: refuse it here.
+				return nil, errAt(t.pos(i), "names start with a letter", "name %s starts with _", string(r[i:j]))
+			}
 			for k := i; k < j; k++ {
 				emit(string(r[k]), k)
 			}
@@ -335,6 +364,9 @@ func prescan(t *text, from, to int) (*scanned, *diag.Diagnostic) {
 			return nil, errAt(t.pos(i), "formulas use + - * / ^ and functions such as sqrt( )", "%c is not an operator sheaf knows", c)
 		case c == '.':
 			return nil, errAt(t.pos(i), "names cannot contain a dot; use _ for subscripts", "unexpected .")
+		case c == utf8.RuneError:
+			// The sheet reader put U+FFFD where the file had a byte that is not UTF-8.
+			return nil, errAt(t.pos(i), "save the file as UTF-8, and retype this character", "the formula holds a byte that is not valid UTF-8")
 		case c == ',' || c == '+' || c == '-' || c == '*' || c == '/' || c == '^' || c == '<' || c == '>' || c == '=' || unicode.IsSpace(c):
 		default:
 			return nil, errAt(t.pos(i), "formulas use names, numbers with units, + - * / ^ ( ) and functions", "unexpected character %q", c)
@@ -402,8 +434,9 @@ func scanLiteral(t *text, i, to int) (*Quantity, int, *diag.Diagnostic) {
 	n := units.ScanCompact(rest)
 	if n == 0 {
 		if j == i && j < to && isIdentStart(r[j]) {
-			// "2x" or "3_000x": letters glued to a number that are not a unit.
-			return nil, i, errAt(t.pos(j), "", "malformed number %q", numText+string(r[j]))
+			// "2_x": an underscore glued to a number.
+			return nil, i, errAt(t.pos(start), "write a number as 12, 0.5 or 1.5e-3; _ groups digits, as 3_000",
+				"malformed number %q", numText+string(r[j]))
 		}
 		return nil, i, nil
 	}
@@ -411,13 +444,32 @@ func scanLiteral(t *text, i, to int) (*Quantity, int, *diag.Diagnostic) {
 	unitRunes := len([]rune(unitText))
 	unitPos := t.pos(j)
 	u, uerr := units.ParseCompact(unitText)
+	ue, _ := uerr.(*units.Error)
+	unknown := uerr != nil && (ue != nil && strings.HasPrefix(ue.Msg, "unknown unit") || strings.ContainsRune(unitText, '_'))
+	// A unit never holds _, so "m_x" is a name: guessing a unit for it
+	// (mMx) would mislead.
+	suggest := ""
+	if unknown && !strings.ContainsRune(unitText, '_') {
+		suggest = units.Suggest(unitText)
+	}
+	if unknown && j == i {
+		// "2x" or "1e": letters glued to a number that are not a unit.
+		d := errAt(t.pos(start), "put a space between a number and its unit, as 2 m, or * before a name, as "+numText+"*"+unitText,
+			"malformed number %q", numText+unitText)
+		if unitText[0] == 'e' || unitText[0] == 'E' {
+			d.Hint = "an exponent needs digits, as 1e3 or 1.5e-3; " + d.Hint
+		} else if suggest != "" {
+			d.Hint = "did you mean " + numText + " " + suggest + "? " + d.Hint
+		}
+		return nil, i, d
+	}
 	if uerr != nil {
 		d := unitError(uerr, unitPos, "in "+numText+" "+unitText)
-		if ue, ok := uerr.(*units.Error); ok && strings.HasPrefix(ue.Msg, "unknown unit") || strings.ContainsRune(unitText, '_') {
+		if unknown {
 			d.Message = fmt.Sprintf("unknown unit %q after the number %s", unitText, numText)
 			d.Hint = "to multiply a number by a name write " + numText + "*" + unitText
-			if s := units.Suggest(unitText); s != "" {
-				d.Hint = "did you mean " + numText + " " + s + "? " + d.Hint
+			if suggest != "" {
+				d.Hint = "did you mean " + numText + " " + suggest + "? " + d.Hint
 			}
 		}
 		return nil, i, d
@@ -427,15 +479,23 @@ func scanLiteral(t *text, i, to int) (*Quantity, int, *diag.Diagnostic) {
 	return q, j + unitRunes, nil
 }
 
+// parserConfig is built once: building it allocates the expression
+// parser's table of built-ins, which would dominate the cost of parsing.
+// The parser only reads it. Our own nesting limit applies, not its node
+// budget.
+var parserConfig = func() *conf.Config {
+	c := conf.CreateNew()
+	c.MaxNodes = 0
+	return c
+}()
+
 // parseFormula reads the formula in t.runes[from:to].
 func parseFormula(t *text, from, to int) (Expr, *diag.Diagnostic) {
 	s, err := prescan(t, from, to)
 	if err != nil {
 		return nil, err
 	}
-	cfg := conf.CreateNew()
-	cfg.MaxNodes = 0
-	tree, perr := parser.ParseWithConfig(s.text, cfg)
+	tree, perr := parser.ParseWithConfig(s.text, parserConfig)
 	if perr != nil {
 		return nil, s.parseError(t, perr)
 	}
@@ -469,6 +529,14 @@ func (s *scanned) parseError(t *text, err error) *diag.Diagnostic {
 	switch {
 	case strings.HasPrefix(msg, "unexpected end"):
 		return errAt(pos, "complete the formula", "formula ends too early")
+	case strings.HasPrefix(msg, "unexpected token EOF"):
+		// The parser places the end at the last token read: "1 +" points
+		// at the +, which is where the formula stops short.
+		hint := "complete the formula"
+		if tok := s.tokenAt(fe.From); tok != "" && !strings.HasPrefix(tok, "_q") {
+			hint += " after " + tok
+		}
+		return errAt(pos, hint, "formula ends too early")
 	case strings.HasPrefix(msg, "unexpected token"):
 		tok := s.tokenAt(fe.From)
 		if tok == "" {
@@ -519,7 +587,9 @@ func (c *converter) convert(n ast.Node) Expr {
 	c.depth++
 	defer func() { c.depth-- }()
 	if c.depth > 4*MaxNesting {
-		return c.fail(n, "name the inner parts as separate statements", "formula nested too deeply")
+		// A long sum nests as deep as long parentheses do: say both.
+		return c.fail(n, "split it into named parts, each a few terms long",
+			"formula nested too deeply: more than %d operations or calls inside one another", 4*MaxNesting)
 	}
 	pos := c.s.at(c.t, n.Location().From)
 	switch n := n.(type) {
@@ -552,7 +622,12 @@ func (c *converter) convert(n ast.Node) Expr {
 		case "**":
 			op = "^"
 		case "+", "-", "*", "/", "^", "<", "<=", ">", ">=", "==":
-		case "and", "&&":
+		case "&&":
+			// The parser reads a < b < c as a < b && b < c; prescan refuses
+			// a written &&, so this is always a chain.
+			return c.fail(n, "write each comparison as its own check: check a < b, then check b < c",
+				"a check holds one comparison; a < b < c chains two")
+		case "and":
 			return c.fail(n, "write each comparison as its own check", "a check holds one comparison; 'and' is not supported")
 		default:
 			return c.fail(n, "formulas use + - * / ^", "operator %s is not supported", op)

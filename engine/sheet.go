@@ -205,8 +205,9 @@ func (s *Sheet) check(st *Statement) {
 		return
 	}
 	st.Type = *st.Expr.Type()
-	name := st.Name
+	name, formula := st.Name, st.Formula
 	if st.Kind == Check {
+		formula = ""
 		cmp := st.Compare()
 		st.Type = *cmp.X.Type()
 		if st.Type.Kind == units.Plain {
@@ -215,7 +216,7 @@ func (s *Sheet) check(st *Statement) {
 		name = "the checked quantity"
 	}
 	if st.Display != nil {
-		if msg, hint := displayProblem(name, st.Type, *st.Display); msg != "" {
+		if msg, hint := displayProblem(name, formula, st.Type, *st.Display); msg != "" {
 			s.fail(st, errAt(st.DisplayPos, hint, "%s", msg))
 			return
 		}
@@ -260,10 +261,25 @@ func (s *Sheet) Evaluate() {
 		}
 		s.values[st.slot] = v
 		st.Value = v
-		st.Status = OK
 		st.Shown = shownUnit(st)
+		if !finite(st.Shown.FromSI(v)) {
+			s.fail(st, unshowable(st, v))
+			continue
+		}
+		st.Status = OK
 	}
 	s.Diags.Sort()
+}
+
+// unshowable reports a finite SI value that overflows in the unit it is to
+// be shown in, such as 1e306 m in nm.
+func unshowable(st *Statement, v float64) *diag.Diagnostic {
+	at := st.Pos
+	if st.Display != nil {
+		at = st.DisplayPos
+	}
+	return errAt(at, "choose a larger unit", "%s %s is beyond the range of a number when shown in %s",
+		units.FormatNumber(v, 4), st.Type.Dim.SIUnits(), st.Shown.Symbol)
 }
 
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
@@ -281,6 +297,12 @@ func (s *Sheet) evalCheck(st *Statement) {
 	}
 	st.Left, st.Right = l, r
 	st.Shown = checkUnit(st)
+	for _, side := range []float64{l, r} {
+		if !finite(st.Shown.FromSI(side)) {
+			s.fail(st, unshowable(st, side))
+			return
+		}
+	}
 	pass := false
 	switch cmp.Op {
 	case "<":

@@ -26,8 +26,9 @@ const DefaultDigits = 4
 
 // Package is a compiled and evaluated calculation package.
 type Package struct {
-	Root   string   // the folder as given
-	Sheets []*Sheet // sorted by path
+	Root   string       // the folder as given
+	Sheets []*Sheet     // sorted by path
+	Files  []SourceFile // every source file with its hash, sorted by path
 	Diags  diag.List
 }
 
@@ -109,7 +110,7 @@ func FromFiles(root string, files map[string][]byte) *Package {
 		paths = append(paths, p)
 	}
 	sort.Strings(paths)
-	pkg := &Package{Root: root, Sheets: make([]*Sheet, len(paths))}
+	pkg := &Package{Root: root, Sheets: make([]*Sheet, len(paths)), Files: sourceFiles(files)}
 
 	work := make(chan int)
 	var wg sync.WaitGroup

@@ -1,6 +1,7 @@
 package sheets
 
 import (
+	"bytes"
 	"fmt"
 	"regexp"
 	"strconv"
@@ -57,22 +58,65 @@ func normaliseKey(k string) string {
 
 var yamlLine = regexp.MustCompile(`^yaml: line (\d+): (.*)$`)
 
+// yamlParserError tells yaml.v3's parser errors, whose "line N" counts from
+// 0, from its scanner errors, which count from 1 (yaml.v3 decode.go, fail).
+func yamlParserError(msg string) bool {
+	for _, p := range []string{"did not find expected", "found duplicate %", "found incompatible YAML", "found undefined tag"} {
+		if strings.HasPrefix(msg, p) {
+			return true
+		}
+	}
+	return false
+}
+
+// maxYAMLScan bounds the front matter, in lines, that yamlErrorLine reads
+// again line by line; title blocks are a dozen lines.
+const maxYAMLScan = 200
+
+// yamlErrorLine returns the file line at which front matter stops being
+// readable YAML: the end of the shortest prefix that fails. yaml.v3 names
+// the line where the enclosing construct began (for a misindented field,
+// the first field of the mapping), which is rarely the line to fix. It
+// returns 0 for front matter too long to scan.
+func yamlErrorLine(text []byte) int {
+	lines := bytes.Split(text, []byte("\n"))
+	if len(lines) > maxYAMLScan {
+		return 0
+	}
+	for k := 1; k <= len(lines); k++ {
+		var n yaml.Node
+		if yaml.Unmarshal(bytes.Join(lines[:k], []byte("\n")), &n) != nil {
+			return k + 1 // the opening --- is line 1
+		}
+	}
+	return 0
+}
+
 // decodeMeta reads YAML front matter, whose first line is line 2 of the
-// file, through decode (which unmarshals it into the value given).
-func decodeMeta(path string, decode func(any) error, diags *diag.List) Meta {
+// file. It decodes the text behind one blank line, standing in for the
+// opening ---, so that yaml.v3's line numbers are the file's, and so that
+// yaml.v3 never places an error on its line 0, which it reports as no line
+// or as a later one.
+func decodeMeta(path string, text []byte, diags *diag.List) Meta {
 	var m Meta
 	var root yaml.Node
 	at := func(n *yaml.Node) diag.Pos {
 		if n == nil || n.Line == 0 {
 			return diag.Pos{File: path, Line: 2, Col: 1}
 		}
-		return diag.Pos{File: path, Line: n.Line + 1, Col: n.Column}
+		return diag.Pos{File: path, Line: n.Line, Col: n.Column}
 	}
-	if err := decode(&root); err != nil {
+	if err := yaml.Unmarshal(append([]byte("\n"), text...), &root); err != nil {
 		pos, msg := diag.Pos{File: path, Line: 2, Col: 1}, err.Error()
 		if sm := yamlLine.FindStringSubmatch(msg); sm != nil {
 			n, _ := strconv.Atoi(sm[1])
-			pos.Line, msg = n+1, sm[2]
+			if yamlParserError(sm[2]) {
+				n++ // yaml.v3 counts these lines from 0
+			}
+			pos.Line, msg = max(n, 2), sm[2]
+		}
+		if l := yamlErrorLine(text); l > 0 {
+			pos.Line = l
 		}
 		diags.Add(pos, "front matter is YAML: one `field: value` per line", "front matter: %s", strings.TrimPrefix(msg, "yaml: "))
 		return m

@@ -66,6 +66,7 @@ var (
 // Sheet.Diags, and whatever could be read is kept.
 func Parse(path string, raw []byte) *Sheet {
 	src, diags := cleanSource(path, raw)
+	src = tidyFrontMatterFences(src)
 	s := &Sheet{Path: path, Source: src, Diags: diags, index: newLineIndex(src)}
 
 	md := plain
@@ -81,7 +82,7 @@ func Parse(path string, raw []byte) *Sheet {
 	ctx := parser.NewContext()
 	s.Doc = md.Parser().Parse(text.NewReader(src), parser.WithContext(ctx))
 	if fm := frontmatter.Get(ctx); fm != nil {
-		s.Meta = decodeMeta(path, fm.Decode, &s.Diags)
+		s.Meta = decodeMeta(path, frontMatterText(src), &s.Diags)
 	}
 	s.collectBlocks()
 	return s
@@ -102,6 +103,39 @@ func closesFrontMatter(src []byte) bool {
 		}
 	}
 	return false
+}
+
+// tidyFrontMatterFences drops trailing spaces and tabs from the front
+// matter's opening and closing lines. The front-matter extension takes only
+// a line of bare dashes as a fence: "--- " would open nothing, or close
+// nothing and swallow the whole sheet as front matter. Columns elsewhere
+// do not move.
+func tidyFrontMatterFences(src []byte) []byte {
+	lines := bytes.Split(src, []byte("\n"))
+	if !isFence(lines[0]) {
+		return src
+	}
+	open := bytes.TrimRight(lines[0], " \t")
+	for i, l := range lines[1:] {
+		if bytes.Equal(bytes.TrimRight(l, " \t"), open) {
+			lines[0], lines[i+1] = open, open
+			return bytes.Join(lines, []byte("\n"))
+		}
+	}
+	return src
+}
+
+// frontMatterText returns the lines between the opening fence and the
+// first line that repeats it, as the front-matter extension reads them.
+func frontMatterText(src []byte) []byte {
+	lines := bytes.Split(src, []byte("\n"))
+	open := bytes.TrimRight(lines[0], " \t")
+	for i, l := range lines[1:] {
+		if bytes.Equal(bytes.TrimRight(l, " \t"), open) {
+			return bytes.Join(lines[1:i+1], []byte("\n"))
+		}
+	}
+	return nil
 }
 
 func isFence(l []byte) bool {

@@ -1,0 +1,84 @@
+package engine_test
+
+import (
+	"math"
+	"strings"
+	"testing"
+	"unicode/utf8"
+
+	"github.com/sheaf-calc/sheaf/engine"
+)
+
+func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
+
+// FuzzStatement compiles a one-block sheet from the fuzz string, one line
+// per line, and evaluates it. Whatever the input, every diagnostic points
+// at a place inside the block, every statement ends with an outcome, and
+// every result is a finite number shown in a unit of its own dimension.
+func FuzzStatement(f *testing.F) {
+	for _, seed := range []string{
+		"l_g = 2.5 mm ; air gap ; source: drawing 7 rev B\nA_g = 0.01 m^2\nR_g [kA/Wb] = l_g / (mu_0 * A_g)",
+		"n = 1500 rpm\nomega [rad/s] = 2*pi*n\ncheck omega <= 200 rad/s",
+		"T_a = 40 degC\nT_h = T_a + 80 K\ncheck T_h <= 155 degC",
+		"x = (1 +\n  2)\ny = x^2",
+		"check [kV] 2 kV <= 3 kV",
+		"a = 1 V + 2 A",
+		"b = 1e200 m * 1e200 m\nc = b / 0",
+		"c_1 = c_2\nc_2 = c_1",
+		"d = 1.2.3\ne = 2x\nf = 1e",
+		"g = (((1)\nh = 1))",
+		"check 1 < 2 < 3\ncheck 1 < 2 and 2 < 3",
+		"in = 2\nsqrt = 3\n_x = 1\nmu_0 = 1",
+		"s = \"text\"\np = 5 %\nq = x %",
+		"u = 2 \xff m",
+		"θ = 30 °\nk = sin(θ) * 2 µm",
+		"y [nm] = 1e306 m\ncheck 1e306 m <= 1 nm\nz = y",
+		"x = 1 m^99\ny = x*x\nw = 5 V * _q0",
+	} {
+		f.Add(seed)
+	}
+	f.Fuzz(func(t *testing.T, src string) {
+		lines := strings.Split(src, "\n")
+		s := compileLines(lines...)
+		// The fence is line 1 and the block's lines are 2 to len(lines)+1.
+		for _, d := range s.Diags {
+			if d.Pos.Line < 1 || d.Pos.Col < 1 || d.Pos.Line > len(lines)+1 {
+				t.Fatalf("diagnostic outside the input (%d lines): %s", len(lines), d.Error())
+			}
+			if d.Pos.Line == 1 {
+				if d.Pos.Col != 1 {
+					t.Fatalf("diagnostic on the fence at column %d: %s", d.Pos.Col, d.Error())
+				}
+				continue
+			}
+			// One past the last character is where a missing token goes.
+			if n := utf8.RuneCountInString(lines[d.Pos.Line-2]); d.Pos.Col > n+1 {
+				t.Fatalf("diagnostic at column %d of a %d-character line: %s", d.Pos.Col, n, d.Error())
+			}
+		}
+		for _, st := range s.Statements {
+			switch st.Status {
+			case engine.OK:
+				if !finite(st.Value) || !finite(st.Shown.FromSI(st.Value)) {
+					t.Fatalf("%q: ok with value %v, shown as %v %s", st.Text, st.Value, st.Shown.FromSI(st.Value), st.Shown.Symbol)
+				}
+				if st.Shown.Dim != st.Type.Dim {
+					t.Fatalf("%q: a %v shown in %s", st.Text, st.Type.Dim, st.Shown.Symbol)
+				}
+			case engine.Pass, engine.Fail:
+				if !finite(st.Left) || !finite(st.Right) || !finite(st.Shown.FromSI(st.Left)) || !finite(st.Shown.FromSI(st.Right)) {
+					t.Fatalf("%q: %v with sides %v, %v", st.Text, st.Status, st.Left, st.Right)
+				}
+				if st.Shown.Dim != st.Type.Dim {
+					t.Fatalf("%q: a %v compared in %s", st.Text, st.Type.Dim, st.Shown.Symbol)
+				}
+			case engine.Failed, engine.Blocked:
+				if st.Err == nil {
+					t.Fatalf("%q: %v without a reason", st.Text, st.Status)
+				}
+			default:
+				t.Fatalf("%q: status %v after Evaluate", st.Text, st.Status)
+			}
+		}
+	})
+}

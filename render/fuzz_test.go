@@ -1,0 +1,79 @@
+package render_test
+
+import (
+	"bytes"
+	"encoding/json"
+	"testing"
+
+	"github.com/sheaf-calc/sheaf/project"
+	"github.com/sheaf-calc/sheaf/render"
+)
+
+// FuzzPipeline takes a whole Markdown sheet through the package loader and
+// every renderer. None may panic or fail; every output is non-empty; the
+// JSON is valid and its summary agrees with the package's own counts.
+func FuzzPipeline(f *testing.F) {
+	for _, seed := range []string{
+		"---\ntitle: Field coil\nproject: Tarnwick Weir\ndigits: 5\n---\n# Coil\n\n```sheaf\nN = 120\nI = 12 A\nl_g = 2.5 mm\nA_g = 0.01 m^2\nR_g [kA/Wb] = l_g / (mu_0 * A_g)\nPhi = N*I/R_g\ncheck Phi <= 50 mWb\n```\n",
+		"# Speed\n\n```sheaf\nn = 1500 rpm\nomega [rad/s] = 2*pi*n\nf [Hz] = omega\n```\n",
+		"# Heat\n\n```sheaf\nT_a = 40 degC\nT_h = T_a + 80 K\ndT = T_h - T_a\ncheck T_h <= 155 degC\ncheck dT > 100 K\n```\n",
+		"# Errors\n\n```sheaf\na = 1 V + 2 A\nb = a * 2\nc = 1 / 0\nd = c + 1\n```\n\n```sheaf\n```\n",
+		"---\ntitle: [open\n---\n# T\n",
+		"---\ntitle: never closed\n\n```sheaf\nx = 1\n```\n",
+		"# Prose only, with <b>html</b> & entities\n\n| a | b |\n|---|---|\n| 1 | 2 |\n",
+		"```sheaf\nx = (1 +\n  2)\ny [mm] = x * 1 m ; a note ; source: sketch 4\n```\n```go\nfunc main() {}\n```\n",
+		"```sheaf\nu = 2 \xff m\n```\nbad \xfe prose\n",
+		"> ```sheaf\n> a = -3 kV\n> check a < 0 V\n> ```\n",
+		"```sheaf\nc_1 = c_2\nc_2 = c_1\ncheck 1 < 2 < 3\n```\n",
+		"```sheaf\nx = 1e308 * 10\ny = -1e-320\nz = 0\ncheck z == 0\ncheck y >= -1 m\n```\n",
+	} {
+		f.Add([]byte(seed))
+	}
+	f.Fuzz(func(t *testing.T, data []byte) {
+		pkg := project.FromFiles("pkg", map[string][]byte{"s.md": data})
+		opt := render.Options{Version: "fuzz"}
+
+		files, err := render.HTML(pkg, opt)
+		if err != nil {
+			t.Fatalf("HTML: %v", err)
+		}
+		if len(files) != 1+len(pkg.Sheets) {
+			t.Fatalf("%d HTML files for %d sheets", len(files), len(pkg.Sheets))
+		}
+		for _, fl := range files {
+			if len(fl.Data) == 0 || !bytes.Contains(fl.Data, []byte("</html>")) {
+				t.Fatalf("%s: empty or cut short", fl.Path)
+			}
+		}
+
+		data, err = render.JSON(pkg, opt)
+		if err != nil {
+			t.Fatalf("JSON: %v", err)
+		}
+		if !json.Valid(data) {
+			t.Fatalf("JSON not valid:\n%s", data)
+		}
+		var doc render.JSONDoc
+		if err := json.Unmarshal(data, &doc); err != nil {
+			t.Fatalf("JSON does not decode: %v", err)
+		}
+		c := pkg.Counts()
+		want := render.JSONSummary{Sheets: len(pkg.Sheets), Results: c.Results, Inputs: c.Inputs, Pass: c.Pass,
+			Fail: c.Fail, Errors: c.Errors, Blocked: c.Blocked}
+		if doc.Summary != want {
+			t.Fatalf("JSON summary %+v, package counts %+v", doc.Summary, want)
+		}
+		if len(doc.Diags) != len(pkg.Diags) {
+			t.Fatalf("JSON has %d diagnostics, the package %d", len(doc.Diags), len(pkg.Diags))
+		}
+
+		var out, errs bytes.Buffer
+		render.Terminal(pkg, opt, &out, &errs)
+		if out.Len() == 0 {
+			t.Fatal("terminal report empty")
+		}
+		if len(pkg.Diags) > 0 && errs.Len() == 0 {
+			t.Fatal("diagnostics missing from the terminal")
+		}
+	})
+}
