@@ -474,9 +474,24 @@ func scanLiteral(t *text, i, to int) (*Quantity, int, *diag.Diagnostic) {
 		}
 		return nil, i, d
 	}
+	end := j + unitRunes
+	// "60 cm ^ 2" reads as (60 cm)², but its author almost always meant
+	// 60 cm²: the unit ends at the space. Ask which.
+	if k := skipBlanks(r, end, to); k > end && k < to && (r[k] == '^' || (r[k] == '*' && k+1 < to && r[k+1] == '*')) {
+		return nil, i, errAt(t.pos(k), fmt.Sprintf("write %s %s^… for a power of the unit, or (%s %s)^… for a power of the quantity", numText, unitText, numText, unitText),
+			"a power after a space is ambiguous after a quantity")
+	}
 	q := &Quantity{Text: numText, UnitText: unitText, Value: val, Unit: u, SI: u.ToSI(val)}
 	q.P = t.pos(start)
-	return q, j + unitRunes, nil
+	return q, end, nil
+}
+
+// skipBlanks skips spaces and tabs in r[i:to].
+func skipBlanks(r []rune, i, to int) int {
+	for i < to && (r[i] == ' ' || r[i] == '\t') {
+		i++
+	}
+	return i
 }
 
 // parserConfig is built once: building it allocates the expression

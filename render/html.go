@@ -222,8 +222,8 @@ func statusSection(p *page, s *project.Sheet, digits int) {
 	case c.Fail > 0:
 		class += " has-fail"
 	}
-	p.f("<section class=\"%s\">\n<p><strong>%d results</strong> (%d inputs) · <strong>%d checks</strong>: %d pass, %d fail · <strong>%d errors</strong>",
-		class, c.Results, c.Inputs, c.Pass+c.Fail, c.Pass, c.Fail, c.Errors)
+	p.f("<section class=\"%s\">\n<p><strong>%s</strong> (%s) · <strong>%s</strong>: %d pass, %d fail · <strong>%s</strong>",
+		class, Count(c.Results, "result"), Count(c.Inputs, "input"), Count(c.Pass+c.Fail, "check"), c.Pass, c.Fail, Count(c.Errors, "error"))
 	if c.Blocked > 0 {
 		p.f(" · %d not evaluated", c.Blocked)
 	}
@@ -321,8 +321,8 @@ func indexPage(pkg *project.Package, opt Options) []byte {
 	} else if c.Fail > 0 {
 		class += " has-fail"
 	}
-	p.f("<section class=\"%s\"><p><strong>%d results</strong> · <strong>%d checks</strong>: %d pass, %d fail · <strong>%d errors</strong></p></section>\n",
-		class, c.Results, c.Pass+c.Fail, c.Pass, c.Fail, c.Errors)
+	p.f("<section class=\"%s\"><p><strong>%s</strong> · <strong>%s</strong>: %d pass, %d fail · <strong>%s</strong></p></section>\n",
+		class, Count(c.Results, "result"), Count(c.Pass+c.Fail, "check"), c.Pass, c.Fail, Count(c.Errors, "error"))
 
 	p.f("<h2>Sheets</h2>\n<table>\n<thead><tr><th>Sheet</th><th>Subject</th><th>Rev.</th><th>Results</th><th>Pass</th><th>Fail</th><th>Errors</th></tr></thead>\n<tbody>\n")
 	for _, s := range pkg.Sheets {

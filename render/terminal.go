@@ -27,12 +27,28 @@ func Terminal(pkg *project.Package, opt Options, out, errs io.Writer) {
 	for _, d := range pkg.Diags {
 		fmt.Fprintln(errs, d.Error())
 	}
+	fmt.Fprintln(out, Summary(pkg))
+}
+
+// Summary states a package's outcome in one line: "5 sheets, 102 results,
+// 12 checks: 12 pass, 0 fail; 0 errors".
+func Summary(pkg *project.Package) string {
 	c := pkg.Counts()
-	fmt.Fprintf(out, "%d sheets, %d results, %d checks: %d pass, %d fail; %d errors", len(pkg.Sheets), c.Results, c.Pass+c.Fail, c.Pass, c.Fail, c.Errors)
+	s := fmt.Sprintf("%s, %s, %s: %d pass, %d fail; %s", Count(len(pkg.Sheets), "sheet"), Count(c.Results, "result"),
+		Count(c.Pass+c.Fail, "check"), c.Pass, c.Fail, Count(c.Errors, "error"))
 	if c.Blocked > 0 {
-		fmt.Fprintf(out, "; %d not evaluated", c.Blocked)
+		s += fmt.Sprintf("; %d not evaluated", c.Blocked)
 	}
-	fmt.Fprintln(out)
+	return s
+}
+
+// Count writes a number with a noun, singular or plural: "1 error",
+// "3 errors".
+func Count(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
 }
 
 // TerminalLine writes one statement's outcome as a line of text.

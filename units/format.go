@@ -42,7 +42,7 @@ var preferredUnits = func() map[Dim]preferred {
 	rows := []preferred{
 		{"m", "m", 1, engPrefix, 0}, {"g", "g", 1, massPrefix, 0}, {"s", "s", 1, downPrefix, 0},
 		{"A", "A", 1, engPrefix, 0}, {"K", "K", 1, noPrefix, 0}, {"mol", "mol", 1, engPrefix, 0},
-		{"cd", "cd", 1, noPrefix, 0}, {"m^2", "m", 2, areaPrefix, 0}, {"m^3", "m", 3, areaPrefix, 0},
+		{"cd", "cd", 1, noPrefix, 0}, {"m^2", "m", 2, areaPrefix, 0.1}, {"m^3", "m", 3, areaPrefix, 0.01},
 		{"N", "N", 1, engPrefix, 0}, {"Pa", "Pa", 1, engPrefix, 0}, {"J", "J", 1, engPrefix, 0},
 		{"W", "W", 1, engPrefix, 0}, {"C", "C", 1, engPrefix, 0}, {"V", "V", 1, engPrefix, 0},
 		{"F", "F", 1, engPrefix, 0}, {"Ω", "Ω", 1, engPrefix, 0}, {"S", "S", 1, engPrefix, 0},

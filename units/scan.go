@@ -1,6 +1,7 @@
 package units
 
 import (
+	"strings"
 	"unicode"
 	"unicode/utf8"
 )
@@ -34,7 +35,7 @@ func ScanCompact(s string) int {
 	i = scanExponent(s, i)
 	for i < len(s) {
 		r, n := utf8.DecodeRuneInString(s[i:])
-		if !isMulSign(r) && r != '/' {
+		if (!isMulSign(r) && r != '/') || strings.HasPrefix(s[i:], "**") {
 			break
 		}
 		j := i + n
@@ -87,6 +88,13 @@ func scanSymbol(s string, i int) int {
 }
 
 func scanExponent(s string, i int) int {
+	if i+1 < len(s) && s[i] == '*' && s[i+1] == '*' {
+		// "m**2" is the same power as "m^2".
+		if end := scanExponent(s[:i]+"^"+s[i+2:], i); end > i {
+			return end + 1
+		}
+		return i
+	}
 	if i < len(s) && s[i] == '^' {
 		j := i + 1
 		paren := j < len(s) && s[j] == '('

@@ -81,9 +81,7 @@ func buildCmd(stdout, stderr io.Writer) *cobra.Command {
 			for _, d := range pkg.Diags {
 				fmt.Fprintln(stderr, d.Error())
 			}
-			c := pkg.Counts()
-			fmt.Fprintf(stdout, "wrote %s (%d sheets, %d results, %d checks: %d pass, %d fail; %d errors)\n",
-				filepath.Join(out, "index.html"), len(pkg.Sheets), c.Results, c.Pass+c.Fail, c.Pass, c.Fail, c.Errors)
+			fmt.Fprintf(stdout, "wrote %s (%s)\n", filepath.Join(out, "index.html"), render.Summary(pkg))
 			return outcome(pkg)
 		},
 	}
