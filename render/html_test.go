@@ -139,3 +139,22 @@ func TestStatementsShowInTheOrderWrittenAndResultsAboveInputsWork(t *testing.T) 
 		t.Errorf("P not evaluated from inputs written below it")
 	}
 }
+
+// Two renders of the same package, graphs laid out afresh each time, give
+// the same bytes.
+func TestRenderIsDeterministic(t *testing.T) {
+	files := map[string]string{"coil.md": coil, "sub/other.md": "# Other\n\n```sheaf\nx = 1 m\ny = 2 * x\n```\n"}
+	_, first := build(t, files)
+	_, second := build(t, files)
+	if len(first) != 3 {
+		t.Fatalf("expected 3 pages, got %d", len(first))
+	}
+	for name, page := range first {
+		if page != second[name] {
+			t.Errorf("%s differs between two renders", name)
+		}
+		if name != "index.html" && !strings.Contains(page, "<svg") {
+			t.Errorf("%s has no dependency graph", name)
+		}
+	}
+}

@@ -15,7 +15,9 @@ import (
 // each line, up to a handful.
 func cleanSource(path string, raw []byte) ([]byte, diag.List) {
 	raw = bytes.TrimPrefix(raw, []byte("\xef\xbb\xbf"))
-	raw = bytes.ReplaceAll(raw, []byte("\r\n"), []byte("\n"))
+	if bytes.Contains(raw, []byte("\r\n")) {
+		raw = bytes.ReplaceAll(raw, []byte("\r\n"), []byte("\n"))
+	}
 	if utf8.Valid(raw) {
 		return raw, nil
 	}

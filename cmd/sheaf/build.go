@@ -3,6 +3,7 @@ package main
 import (
 	"fmt"
 	"io"
+	"os"
 	"path/filepath"
 
 	"github.com/spf13/cobra"
@@ -63,6 +64,7 @@ func outcome(pkg *project.Package) error {
 func buildCmd(stdout, stderr io.Writer) *cobra.Command {
 	var flags commonFlags
 	var out string
+	var noGraphs bool
 	c := &cobra.Command{
 		Use:   "build <folder|file> -o <dir>",
 		Short: "Render the package as HTML: index.html and one page per sheet",
@@ -72,7 +74,12 @@ func buildCmd(stdout, stderr io.Writer) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			err = render.WriteHTML(pkg, flags.options(), func(f render.File) error {
+			opt := flags.options()
+			opt.NoGraphs = noGraphs
+			if dir, err := os.UserCacheDir(); err == nil && !noGraphs {
+				opt.GraphCache = filepath.Join(dir, "sheaf")
+			}
+			err = render.WriteHTML(pkg, opt, func(f render.File) error {
 				return atomicfile.Write(filepath.Join(out, filepath.FromSlash(f.Path)), f.Data, 0o644)
 			})
 			if err != nil {
@@ -87,6 +94,7 @@ func buildCmd(stdout, stderr io.Writer) *cobra.Command {
 	}
 	flags.register(c)
 	c.Flags().StringVarP(&out, "out", "o", "", "folder to write the package into (required)")
+	c.Flags().BoolVar(&noGraphs, "no-graphs", false, "leave the dependency graphs out of the pages (faster for very large packages)")
 	_ = c.MarkFlagRequired("out")
 	return c
 }
