@@ -171,7 +171,9 @@ func unitError(err error, at diag.Pos, what string) *diag.Diagnostic {
 	return errAt(at, "", "%s: %v", what, err)
 }
 
-// parseNotes reads the annotations after the first ';'.
+// parseNotes reads the annotations after the first ';'. An annotation is
+// `key: value` for a key sheaf knows (source, assume, assumes, and
+// accept <code>); any other text is the statement's description.
 func parseNotes(st *Statement, t *text, from int) *diag.Diagnostic {
 	r := t.runes
 	for i := from; i < len(r); {
@@ -186,32 +188,57 @@ func parseNotes(st *Statement, t *text, from int) *diag.Diagnostic {
 		if val == "" {
 			continue
 		}
-		key, rest, hasKey := strings.Cut(val, ":")
-		key = strings.ToLower(strings.TrimSpace(key))
-		if hasKey && isNoteKey(key) {
-			rest = strings.TrimSpace(rest)
-			if key == "source" {
-				if st.Source != "" {
-					st.Source += "; "
+		if n, ok := noteOf(val, at); ok {
+			switch n.Key {
+			case "source":
+				st.Source = joinNote(st.Source, n.Value)
+			case "assume":
+				st.Assumption = joinNote(st.Assumption, n.Value)
+			case "assumes":
+				for _, id := range strings.Split(n.Value, ",") {
+					if id = strings.TrimSpace(id); id != "" {
+						st.Assumes = append(st.Assumes, id)
+					}
 				}
-				st.Source += rest
 			}
-			st.Notes = append(st.Notes, Note{Key: key, Value: rest, Pos: at})
+			st.Notes = append(st.Notes, n)
 			continue
 		}
-		if st.Description != "" {
-			st.Description += "; "
-		}
-		st.Description += val
+		st.Description = joinNote(st.Description, val)
 	}
 	return nil
 }
 
-// noteKeys are the annotation keys sheaf understands; any other text is the
-// statement's description.
-var noteKeys = map[string]bool{"source": true}
+func joinNote(a, b string) string {
+	if a == "" {
+		return b
+	}
+	return a + "; " + b
+}
 
-func isNoteKey(k string) bool { return noteKeys[k] }
+// noteKeys are the annotation keys sheaf understands.
+var noteKeys = map[string]bool{"source": true, "assume": true, "assumes": true, "accept": true}
+
+// noteOf reads "key: value" or "accept code: reason"; ok is false for text
+// that is not an annotation sheaf knows.
+func noteOf(val string, at diag.Pos) (Note, bool) {
+	head, rest, found := strings.Cut(val, ":")
+	if !found {
+		return Note{}, false
+	}
+	fields := strings.Fields(strings.ToLower(head))
+	if len(fields) == 0 || !noteKeys[fields[0]] {
+		return Note{}, false
+	}
+	n := Note{Key: fields[0], Value: strings.TrimSpace(rest), Pos: at}
+	switch {
+	case n.Key == "accept" && len(fields) == 2:
+		n.Arg = fields[1]
+	case len(fields) != 1:
+		return Note{}, false
+	}
+	return n, true
+}
 
 func skipSpace(r []rune, i int) int {
 	for i < len(r) && unicode.IsSpace(r[i]) {

@@ -19,6 +19,9 @@ type Sheet struct {
 	// the ones it uses, otherwise in the order written.
 	Order []*Statement
 	Diags diag.List
+	// Assumptions are the sheet's prose assumptions and assumption
+	// statements, prose first, each with what rests on it.
+	Assumptions []*Assumption
 
 	byName map[string]*Statement
 	values []float64
@@ -56,6 +59,7 @@ func Compile(src SheetSource) *Sheet {
 	for _, st := range s.Order {
 		s.check(st)
 	}
+	s.linkAssumptions(src.Assumptions)
 	s.Diags.Sort()
 	return s
 }

@@ -23,8 +23,9 @@ type Block struct {
 
 // SheetSource is everything the engine needs from one sheet.
 type SheetSource struct {
-	Path   string
-	Blocks []Block
+	Path        string
+	Blocks      []Block
+	Assumptions []AssumptionSource // prose assumptions, in the order written
 }
 
 // MaxStatementLength bounds one statement, in characters. A formula longer

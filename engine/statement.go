@@ -39,9 +39,11 @@ func (s Status) String() string {
 	return [...]string{"pending", "ok", "pass", "fail", "error", "blocked"}[s]
 }
 
-// Note is an annotation after a statement: `; key: value`.
+// Note is an annotation after a statement: `; key: value`, or for an
+// acceptance `; accept code: reason`, where Arg is the code.
 type Note struct {
 	Key   string
+	Arg   string
 	Value string
 	Pos   diag.Pos
 }
@@ -72,7 +74,12 @@ type Statement struct {
 
 	Description string
 	Source      string
-	Notes       []Note
+	// Assumption is the text of `; assume: ...`: the statement itself is an
+	// assumption. Assumes lists the ids of the sheet's assumptions that it
+	// rests on (`; assumes: id, id`).
+	Assumption string
+	Assumes    []string
+	Notes      []Note
 
 	// Type is what the checker inferred for a definition's value, or for
 	// the two sides of a check.

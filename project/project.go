@@ -140,6 +140,9 @@ func FromFiles(root string, files map[string][]byte) *Package {
 func compileSheet(p string, data []byte) *Sheet {
 	doc := sheets.Parse(p, data)
 	src := engine.SheetSource{Path: p}
+	for _, a := range doc.Assumptions {
+		src.Assumptions = append(src.Assumptions, engine.AssumptionSource{ID: a.ID, Text: a.Text, Pos: a.Pos})
+	}
 	for _, b := range doc.Blocks {
 		eb := engine.Block{Fence: b.Fence}
 		for _, l := range b.Lines {

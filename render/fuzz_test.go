@@ -37,7 +37,8 @@ func FuzzPipeline(f *testing.F) {
 		if err != nil {
 			t.Fatalf("HTML: %v", err)
 		}
-		if len(files) != 1+len(pkg.Sheets) {
+		// The index, the inputs and assumptions registers, and one page per sheet.
+		if len(files) != 3+len(pkg.Sheets) {
 			t.Fatalf("%d HTML files for %d sheets", len(files), len(pkg.Sheets))
 		}
 		for _, fl := range files {

@@ -11,10 +11,7 @@ import (
 	"runtime"
 	"strings"
 
-	"github.com/yuin/goldmark"
-	"github.com/yuin/goldmark/renderer"
-	"github.com/yuin/goldmark/util"
-
+	"github.com/sheaf-calc/sheaf/audit"
 	"github.com/sheaf-calc/sheaf/diag"
 	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
@@ -34,6 +31,11 @@ type Options struct {
 	// GraphCache, when set, is a folder where graph layouts are kept by
 	// the hash of their input, so that rebuilds lay out only what changed.
 	GraphCache string
+	// BuildDate is the date the pages state, from the sources or
+	// SOURCE_DATE_EPOCH (see project.Package.BuildDate); "" states none.
+	BuildDate string
+	// Audit, when set, adds the audit page and the findings to the JSON.
+	Audit *audit.Report
 }
 
 // File is one output file of a built package.
@@ -63,8 +65,10 @@ func HTML(pkg *project.Package, opt Options) ([]File, error) {
 // rendered in parallel but emitted in a fixed order, and only a few are
 // held in memory at once.
 func WriteHTML(pkg *project.Package, opt Options, emit func(File) error) error {
-	if err := emit(File{Path: "index.html", Data: indexPage(pkg, opt)}); err != nil {
-		return err
+	for _, f := range packagePages(pkg, opt) {
+		if err := emit(f); err != nil {
+			return err
+		}
 	}
 	type result struct {
 		file File
@@ -107,7 +111,7 @@ func WriteHTML(pkg *project.Package, opt Options, emit func(File) error) error {
 					g, err = newGrapher(opt.GraphCache)
 				}
 				if err == nil {
-					data, err = sheetPage(s, opt, g)
+					data, err = sheetPage(pkg, s, opt, g)
 				}
 				if err != nil {
 					err = fmt.Errorf("%s: %w", s.Path(), err)
@@ -137,107 +141,108 @@ func rel(page string) string {
 	return strings.Repeat("../", strings.Count(page, "/"))
 }
 
+// page is an HTML page under construction.
 type page struct {
 	bytes.Buffer
 }
 
 func (p *page) f(format string, args ...any) { fmt.Fprintf(&p.Buffer, format, args...) }
 
-func (p *page) head(title, version string) {
+// titleBlock is what the header of every page shows, and what repeats at
+// the top of every printed page.
+type titleBlock struct {
+	kicker, heading, subject string
+	fields                   [][2]string // label, value; empty values are left out
+}
+
+// frame is what every page of a package shares.
+type frame struct {
+	title string // the browser's title
+	block titleBlock
+	root  string // path from the page to the package folder: "", "../"
+	stamp string
+	date  string
+	pages []navItem // the package pages that exist
+}
+
+type navItem struct{ path, label string }
+
+// open writes the head of a page: the document head, and a frame table
+// whose header (the title block) and footer (the stamp) a browser repeats
+// on every printed page.
+func (p *page) open(fr frame, version string) {
 	p.f("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n")
 	p.f("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n")
-	p.f("<meta name=\"generator\" content=\"sheaf %s\">\n<title>%s</title>\n<style>%s</style>\n</head>\n<body>\n",
-		esc(version), esc(title), pageCSS)
-}
-
-func (p *page) foot(version, what string) {
-	p.f("<aside class=\"caution\"><strong>Caution.</strong> %s</aside>\n", esc(Caution))
-	p.f("<footer>%s Built by sheaf %s.</footer>\n</body>\n</html>\n", what, esc(version))
-}
-
-// titleBlock writes the sheet's title block from its front matter.
-func (p *page) titleBlock(m sheets.Meta, title, sheetPath string) {
+	p.f("<meta name=\"generator\" content=\"sheaf %s\">\n", esc(version))
+	p.f("<meta name=\"sheaf-stamp\" content=\"%s\">\n", esc(fr.stamp))
+	p.f("<title>%s</title>\n<style>%s</style>\n</head>\n<body>\n", esc(fr.title), pageCSS)
+	p.f("<table class=\"frame\">\n<thead><tr><td>\n")
+	b := fr.block
 	p.f("<header class=\"titleblock\">\n<div>\n")
-	if m.Project != "" {
-		p.f("<p class=\"kicker\">%s</p>\n", esc(m.Project))
+	if b.kicker != "" {
+		p.f("<p class=\"kicker\">%s</p>\n", esc(b.kicker))
 	}
-	p.f("<h1>%s</h1>\n", esc(title))
-	if m.Subject != "" {
-		p.f("<p>%s</p>\n", esc(m.Subject))
+	p.f("<h1>%s</h1>\n", esc(b.heading))
+	if b.subject != "" {
+		p.f("<p>%s</p>\n", esc(b.subject))
 	}
 	p.f("</div>\n<dl>\n")
-	for _, kv := range [][2]string{
-		{"Client", m.Client}, {"Job", m.Job}, {"Sheet", sheetPath}, {"Revision", m.Revision}, {"Date", m.Date},
-		{"Prepared", m.PreparedBy}, {"Checked", m.CheckedBy},
-	} {
+	for _, kv := range b.fields {
 		if kv[1] != "" {
 			p.f("<dt>%s</dt><dd>%s</dd>\n", kv[0], esc(kv[1]))
 		}
 	}
-	p.f("</dl>\n</header>\n")
-}
-
-func sheetPage(s *project.Sheet, opt Options, g *grapher) ([]byte, error) {
-	digits := s.Digits(opt.Digits)
-	p := &page{}
-	// Pages run to about ten times their source; growing once saves copies.
-	p.Grow(16<<10 + 10*len(s.Doc.Source))
-	title := s.Title()
-	p.head(title, opt.Version)
-	p.titleBlock(s.Doc.Meta, title, s.Path())
-	p.f("<nav class=\"pkg\"><a href=\"%sindex.html\">Package index</a></nav>\n", rel(s.Page))
-	statusSection(p, s, digits)
-
-	blocks := &blockRenderer{sheet: s, digits: digits}
-	md := goldmark.New(
-		goldmark.WithExtensions(sheets.Extensions()...),
-		goldmark.WithRendererOptions(renderer.WithNodeRenderers(util.Prioritized(blocks, 100))),
-	)
-	p.f("<article class=\"prose\">\n")
-	if err := md.Renderer().Render(&p.Buffer, s.Doc.Source, s.Doc.Doc); err != nil {
-		return nil, err
+	p.f("</dl>\n</header>\n</td></tr></thead>\n")
+	p.f("<tfoot><tr><td><p class=\"stampline\">Package stamp <code>%s</code>", esc(fr.stamp))
+	if fr.date != "" {
+		p.f(" · built %s", esc(fr.date))
 	}
-	p.f("</article>\n")
-	if g != nil && len(s.Calc.Statements) > 0 {
-		svg, err := g.svg(graphDOT(s, digits))
-		if err != nil {
-			return nil, err
+	p.f(" · sheaf %s</p></td></tr></tfoot>\n<tbody><tr><td>\n", esc(version))
+	p.f("<nav class=\"pkg\">")
+	for i, n := range fr.pages {
+		if i > 0 {
+			p.f(" · ")
 		}
-		p.f("<section class=\"graph\">\n<h2>Dependency graph</h2>\n<p class=\"loc\">Each arrow runs from a statement to one that uses it; select a box to go to its statement.</p>\n<figure>\n")
-		p.Write(svg)
-		p.f("</figure>\n</section>\n")
+		p.f("<a href=\"%s%s\">%s</a>", fr.root, n.path, esc(n.label))
 	}
-	inputsRegister(p, s)
-	p.foot(opt.Version, "Page of "+esc(s.Path())+".")
-	return p.Bytes(), nil
+	p.f("</nav>\n")
 }
 
-// statusSection writes the counts, the checks and the errors of a sheet.
-func statusSection(p *page, s *project.Sheet, digits int) {
-	c := s.Counts()
-	class := "status"
+// close writes the cautions and the footer, and ends the page.
+func (p *page) close(version, what string) {
+	p.f("<aside class=\"caution\"><strong>Caution.</strong> %s</aside>\n", esc(Caution))
+	p.f("<footer>%s Built by sheaf %s.</footer>\n", what, esc(version))
+	p.f("</td></tr></tbody>\n</table>\n</body>\n</html>\n")
+}
+
+// packageFrame is the frame every page of a package shares.
+func packageFrame(pkg *project.Package, opt Options) frame {
+	fr := frame{stamp: project.StampOf(pkg.Files, opt.Version), date: opt.BuildDate}
+	fr.pages = []navItem{{"index.html", "Package index"}, {"inputs.html", "Inputs register"}, {"assumptions.html", "Assumptions register"}}
+	if opt.Audit != nil {
+		fr.pages = append(fr.pages, navItem{"audit.html", "Audit"})
+	}
+	return fr
+}
+
+// sheetFields are a sheet's title-block fields.
+func sheetFields(m sheets.Meta, sheetPath string) [][2]string {
+	return [][2]string{
+		{"Client", m.Client}, {"Job", m.Job}, {"Sheet", sheetPath}, {"Revision", m.Revision}, {"Date", m.Date},
+		{"Prepared", signed(m.PreparedBy, m.PreparedOn)}, {"Checked", signed(m.CheckedBy, m.CheckedOn)},
+		{"Approved", signed(m.ApprovedBy, m.ApprovedOn)},
+	}
+}
+
+// signed writes a sign-off: "R. Okonkwo-Hale, 2026-11-30".
+func signed(by, on string) string {
 	switch {
-	case c.Errors > 0:
-		class += " has-errors"
-	case c.Fail > 0:
-		class += " has-fail"
+	case by == "":
+		return ""
+	case on == "":
+		return by
 	}
-	p.f("<section class=\"%s\">\n<p><strong>%s</strong> (%s) · <strong>%s</strong>: %d pass, %d fail · <strong>%s</strong>",
-		class, Count(c.Results, "result"), Count(c.Inputs, "input"), Count(c.Pass+c.Fail, "check"), c.Pass, c.Fail, Count(c.Errors, "error"))
-	if c.Blocked > 0 {
-		p.f(" · %d not evaluated", c.Blocked)
-	}
-	p.f("</p>\n")
-	diags := append(append(diag.List{}, s.Doc.Diags...), s.Calc.Diags...)
-	diags.Sort()
-	if len(diags) > 0 {
-		p.f("<ul>\n")
-		for _, d := range diags {
-			p.f("<li><a class=\"loc\" href=\"#L%d\">%s</a> %s</li>\n", d.Pos.Line, esc(d.Pos.String()), esc(messageText(d)))
-		}
-		p.f("</ul>\n")
-	}
-	p.f("</section>\n")
+	return by + ", " + on
 }
 
 func messageText(d diag.Diagnostic) string {
@@ -249,29 +254,6 @@ func messageText(d diag.Diagnostic) string {
 		msg += " — " + d.Hint
 	}
 	return msg
-}
-
-// inputsRegister lists the sheet's inputs: name, value as written, unit,
-// description and source.
-func inputsRegister(p *page, s *project.Sheet) {
-	var rows []*engine.Statement
-	for _, st := range s.Calc.Statements {
-		if st.IsInput() && st.Status == engine.OK {
-			rows = append(rows, st)
-		}
-	}
-	p.f("<section class=\"register\">\n<h2>Inputs register</h2>\n")
-	if len(rows) == 0 {
-		p.f("<p>This sheet has no inputs of its own.</p>\n</section>\n")
-		return
-	}
-	p.f("<table>\n<thead><tr><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th><th>Line</th></tr></thead>\n<tbody>\n")
-	for _, st := range rows {
-		value, unit := InputText(st)
-		p.f("<tr><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td><a class=\"loc\" href=\"#%s\">%d</a></td></tr>\n",
-			symbolHTML(st.Name), esc(value), esc(unit), esc(st.Description), esc(st.Source), anchor(st), st.Pos.Line)
-	}
-	p.f("</tbody>\n</table>\n</section>\n")
 }
 
 // InputText returns an input's value and unit as the author wrote them.
@@ -291,57 +273,6 @@ func InputText(st *engine.Statement) (value, unit string) {
 		return sign + n.Text, ""
 	}
 	return "", ""
-}
-
-func indexPage(pkg *project.Package, opt Options) []byte {
-	p := &page{}
-	title := packageTitle(pkg)
-	p.head(title, opt.Version)
-	var meta sheets.Meta
-	for _, s := range pkg.Sheets {
-		if s.Doc.Meta.Project != "" {
-			meta = s.Doc.Meta
-			break
-		}
-	}
-	p.f("<header class=\"titleblock\">\n<div>\n<p class=\"kicker\">Calculation package</p>\n<h1>%s</h1>\n", esc(title))
-	if meta.Client != "" {
-		p.f("<p>%s</p>\n", esc(meta.Client))
-	}
-	p.f("</div>\n<dl>\n")
-	if meta.Job != "" {
-		p.f("<dt>Job</dt><dd>%s</dd>\n", esc(meta.Job))
-	}
-	p.f("<dt>Sheets</dt><dd>%d</dd>\n</dl>\n</header>\n", len(pkg.Sheets))
-
-	c := pkg.Counts()
-	class := "status"
-	if c.Errors > 0 {
-		class += " has-errors"
-	} else if c.Fail > 0 {
-		class += " has-fail"
-	}
-	p.f("<section class=\"%s\"><p><strong>%s</strong> · <strong>%s</strong>: %d pass, %d fail · <strong>%s</strong></p></section>\n",
-		class, Count(c.Results, "result"), Count(c.Pass+c.Fail, "check"), c.Pass, c.Fail, Count(c.Errors, "error"))
-
-	p.f("<h2>Sheets</h2>\n<table>\n<thead><tr><th>Sheet</th><th>Subject</th><th>Rev.</th><th>Results</th><th>Pass</th><th>Fail</th><th>Errors</th></tr></thead>\n<tbody>\n")
-	for _, s := range pkg.Sheets {
-		sc := s.Counts()
-		p.f("<tr><td><a href=\"%s\">%s</a><br><span class=\"loc\">%s</span></td><td>%s</td><td>%s</td><td class=\"num\">%d</td><td class=\"num\">%d</td><td class=\"num\">%d</td><td class=\"num\">%d</td></tr>\n",
-			esc(s.Page), esc(s.Title()), esc(s.Path()), esc(s.Doc.Meta.Subject), esc(s.Doc.Meta.Revision), sc.Results, sc.Pass, sc.Fail, sc.Errors)
-	}
-	p.f("</tbody>\n</table>\n")
-
-	if len(pkg.Diags) > 0 {
-		p.f("<h2>Errors</h2>\n<ul>\n")
-		for _, d := range pkg.Diags {
-			page := pageOf(pkg, d.Pos.File)
-			p.f("<li><a class=\"loc\" href=\"%s#L%d\">%s</a> %s</li>\n", esc(page), d.Pos.Line, esc(d.Pos.String()), esc(messageText(d)))
-		}
-		p.f("</ul>\n")
-	}
-	p.foot(opt.Version, "Package index.")
-	return p.Bytes()
 }
 
 func pageOf(pkg *project.Package, file string) string {

@@ -8,6 +8,7 @@ import (
 	"io"
 	"math"
 
+	"github.com/sheaf-calc/sheaf/audit"
 	"github.com/sheaf-calc/sheaf/diag"
 	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
@@ -19,13 +20,60 @@ import (
 // a field changes meaning or goes away.
 const JSONSchemaID = "https://sheaf-calc.github.io/schema/package-1.json"
 
-// JSONDoc is the JSON form of a package.
+// JSONDoc is the JSON form of a package. schema/package-1.json in the
+// repository describes it as a JSON Schema.
 type JSONDoc struct {
-	Schema  string      `json:"$schema"`
-	Tool    JSONTool    `json:"tool"`
-	Summary JSONSummary `json:"summary"`
-	Sheets  []JSONSheet `json:"sheets"`
-	Diags   []JSONDiag  `json:"diagnostics"`
+	Schema    string               `json:"$schema"`
+	Tool      JSONTool             `json:"tool"`
+	Stamp     string               `json:"stamp"`
+	BuildDate string               `json:"build_date,omitempty"`
+	Sources   []project.SourceFile `json:"sources"`
+	Summary   JSONSummary          `json:"summary"`
+	Registers JSONRegisters        `json:"registers"`
+	Audit     *JSONAudit           `json:"audit,omitempty"`
+	Sheets    []JSONSheet          `json:"sheets"`
+	Diags     []JSONDiag           `json:"diagnostics"`
+}
+
+// JSONRegisters are the package-wide registers.
+type JSONRegisters struct {
+	Inputs      []JSONInput      `json:"inputs"`
+	Assumptions []JSONAssumption `json:"assumptions"`
+}
+
+// JSONInput is a row of the inputs register.
+type JSONInput struct {
+	Sheet       string    `json:"sheet"`
+	Name        string    `json:"name"`
+	Pos         diag.Pos  `json:"pos"`
+	Value       string    `json:"value"` // as written
+	Unit        string    `json:"unit"`
+	SI          JSONValue `json:"si"`
+	Description string    `json:"description,omitempty"`
+	Source      string    `json:"source,omitempty"`
+}
+
+// JSONAssumption is a row of the assumptions register.
+type JSONAssumption struct {
+	Sheet      string    `json:"sheet"`
+	ID         string    `json:"id"`
+	Text       string    `json:"text"`
+	Pos        diag.Pos  `json:"pos"`
+	Statement  string    `json:"statement,omitempty"` // set when the assumption is a statement
+	Dependents []JSONRef `json:"dependents"`
+}
+
+// JSONRef points at a statement.
+type JSONRef struct {
+	Name string   `json:"name,omitempty"` // a definition's name
+	Kind string   `json:"kind"`
+	Pos  diag.Pos `json:"pos"`
+}
+
+// JSONAudit is the audit of the package.
+type JSONAudit struct {
+	Open     int             `json:"open"`
+	Findings []audit.Finding `json:"findings"`
 }
 
 // JSONTool names the tool that wrote the document.
@@ -69,9 +117,18 @@ type JSONStatement struct {
 	Check        *JSONCheck `json:"check,omitempty"`
 	Description  string     `json:"description,omitempty"`
 	Source       string     `json:"source,omitempty"`
+	Assumption   string     `json:"assumption,omitempty"`
+	Assumes      []string   `json:"assumes,omitempty"`
 	Uses         []string   `json:"uses"`
 	UsedBy       []string   `json:"used_by"`
+	RestsOn      *JSONTrace `json:"rests_on,omitempty"`
 	Error        *JSONDiag  `json:"error,omitempty"`
+}
+
+// JSONTrace lists the inputs and assumptions a result ultimately rests on.
+type JSONTrace struct {
+	Inputs      []string `json:"inputs"`
+	Assumptions []string `json:"assumptions"`
 }
 
 // JSONValue is a number in a unit.
@@ -183,20 +240,68 @@ func marshal(v any, prefix string) ([]byte, error) {
 
 func documentHead(pkg *project.Package, opt Options) JSONDoc {
 	c := pkg.Counts()
-	return JSONDoc{
-		Schema:  JSONSchemaID,
-		Tool:    JSONTool{Name: "sheaf", Version: opt.Version},
-		Summary: JSONSummary{Sheets: len(pkg.Sheets), Results: c.Results, Inputs: c.Inputs, Pass: c.Pass, Fail: c.Fail, Errors: c.Errors, Blocked: c.Blocked},
-		Sheets:  []JSONSheet{},
-		Diags:   []JSONDiag{},
+	doc := JSONDoc{
+		Schema:    JSONSchemaID,
+		Tool:      JSONTool{Name: "sheaf", Version: opt.Version},
+		Stamp:     project.StampOf(pkg.Files, opt.Version),
+		BuildDate: opt.BuildDate,
+		Sources:   pkg.Files,
+		Summary:   JSONSummary{Sheets: len(pkg.Sheets), Results: c.Results, Inputs: c.Inputs, Pass: c.Pass, Fail: c.Fail, Errors: c.Errors, Blocked: c.Blocked},
+		Registers: registers(pkg),
+		Sheets:    []JSONSheet{},
+		Diags:     []JSONDiag{},
 	}
+	if doc.Sources == nil {
+		doc.Sources = []project.SourceFile{}
+	}
+	if opt.Audit != nil {
+		doc.Audit = &JSONAudit{Open: opt.Audit.Open(), Findings: opt.Audit.Findings}
+		if doc.Audit.Findings == nil {
+			doc.Audit.Findings = []audit.Finding{}
+		}
+	}
+	return doc
+}
+
+// registers builds the package-wide inputs and assumptions registers.
+func registers(pkg *project.Package) JSONRegisters {
+	r := JSONRegisters{Inputs: []JSONInput{}, Assumptions: []JSONAssumption{}}
+	for _, s := range pkg.Sheets {
+		for _, st := range s.Calc.Statements {
+			if !st.IsInput() || st.Status != engine.OK {
+				continue
+			}
+			v, u := InputText(st)
+			r.Inputs = append(r.Inputs, JSONInput{Sheet: s.Path(), Name: st.Name, Pos: st.Pos, Value: v, Unit: u,
+				SI: JSONValue{Value: st.Value, Unit: st.Type.Dim.SIUnits()}, Description: st.Description, Source: st.Source})
+		}
+		for _, a := range s.Calc.Assumptions {
+			ja := JSONAssumption{Sheet: s.Path(), ID: a.ID, Text: a.Text, Pos: a.Pos, Dependents: []JSONRef{}}
+			if a.Statement != nil {
+				ja.Statement = a.Statement.Name
+			}
+			for _, d := range a.Dependents {
+				ja.Dependents = append(ja.Dependents, ref(d))
+			}
+			r.Assumptions = append(r.Assumptions, ja)
+		}
+	}
+	return r
+}
+
+func ref(st *engine.Statement) JSONRef {
+	k := "definition"
+	if st.Kind == engine.Check {
+		k = "check"
+	}
+	return JSONRef{Name: st.Name, Kind: k, Pos: st.Pos}
 }
 
 func jsonSheet(s *project.Sheet, opt Options) JSONSheet {
 	digits := s.Digits(opt.Digits)
 	js := JSONSheet{Path: s.Path(), Page: s.Page, Title: s.Title(), Meta: s.Doc.Meta, Statements: []JSONStatement{}}
 	for _, st := range s.Calc.Statements {
-		js.Statements = append(js.Statements, jsonStatement(st, digits))
+		js.Statements = append(js.Statements, jsonStatement(s.Calc, st, digits))
 	}
 	return js
 }
@@ -223,11 +328,20 @@ func names(sts []*engine.Statement) []string {
 	return out
 }
 
-func jsonStatement(st *engine.Statement, digits int) JSONStatement {
+func jsonStatement(calc *engine.Sheet, st *engine.Statement, digits int) JSONStatement {
 	j := JSONStatement{
 		Kind: "definition", Name: st.Name, Pos: st.Pos, Text: st.Text, Status: st.Status.String(),
 		Input: st.IsInput(), Description: st.Description, Source: st.Source,
+		Assumption: st.Assumption, Assumes: st.Assumes,
 		Uses: names(st.Deps), UsedBy: names(st.Users),
+	}
+	if !st.IsInput() && st.Expr != nil {
+		inputs, assumptions := calc.RestsOn(st)
+		t := &JSONTrace{Inputs: names(inputs), Assumptions: []string{}}
+		for _, a := range assumptions {
+			t.Assumptions = append(t.Assumptions, a.ID)
+		}
+		j.RestsOn = t
 	}
 	if st.Kind == engine.Check {
 		j.Kind = "check"

@@ -26,6 +26,41 @@ type blockRenderer struct {
 // RegisterFuncs implements renderer.NodeRenderer.
 func (r *blockRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 	reg.Register(ast.KindFencedCodeBlock, r.fenced)
+	reg.Register(ast.KindParagraph, r.paragraph)
+}
+
+// paragraph draws prose paragraphs, and an assumption paragraph as a boxed
+// assumption that lists what rests on it.
+func (r *blockRenderer) paragraph(w util.BufWriter, source []byte, n ast.Node, entering bool) (ast.WalkStatus, error) {
+	p := n.(*ast.Paragraph)
+	a := r.sheet.Doc.AssumptionAt(p)
+	if a == nil {
+		if entering {
+			w.WriteString("<p>")
+		} else {
+			w.WriteString("</p>\n")
+		}
+		return ast.WalkContinue, nil
+	}
+	if entering {
+		w.WriteString(`<div class="assumption" id="A-` + esc(a.ID) + `"><p>`)
+		return ast.WalkContinue, nil
+	}
+	w.WriteString("</p>")
+	for _, ea := range r.sheet.Calc.Assumptions {
+		if ea.Statement == nil && ea.ID == a.ID {
+			if len(ea.Dependents) == 0 {
+				w.WriteString(`<p class="links">No statement cites this assumption.</p>`)
+			} else {
+				w.WriteString(`<p class="links">`)
+				writeLinks(w, "Resting on it:", ea.Dependents)
+				w.WriteString("</p>")
+			}
+			break
+		}
+	}
+	w.WriteString("</div>\n")
+	return ast.WalkContinue, nil
 }
 
 func (r *blockRenderer) fenced(w util.BufWriter, source []byte, n ast.Node, entering bool) (ast.WalkStatus, error) {
@@ -74,7 +109,7 @@ func (r *blockRenderer) block(w sink, bi int) {
 	}
 	for _, l := range b.Lines {
 		if st, ok := byLine[l.Pos.Line]; ok {
-			writeStatement(w, st, r.digits)
+			writeStatement(w, r.sheet.Calc, st, r.digits)
 			continue
 		}
 		if t := strings.TrimSpace(l.Text); strings.HasPrefix(t, "#") {
@@ -88,13 +123,13 @@ func anchor(st *engine.Statement) string { return "L" + strconv.Itoa(st.Pos.Line
 
 // writeStatement draws one statement as the checker reads it: the formula
 // with symbols, the same with values, and the result.
-func writeStatement(w sink, st *engine.Statement, digits int) {
+func writeStatement(w sink, calc *engine.Sheet, st *engine.Statement, digits int) {
 	switch st.Status {
 	case engine.Failed, engine.Blocked, engine.Pending:
 		writeProblem(w, st)
 		return
 	case engine.Pass, engine.Fail:
-		writeCheck(w, st, digits)
+		writeCheck(w, calc, st, digits)
 		return
 	}
 	class := "row def"
@@ -114,11 +149,14 @@ func writeStatement(w sink, st *engine.Statement, digits int) {
 		w.WriteString(valueMathML(st.Value, st.Shown, digits))
 	}
 	w.WriteString("</mrow></math></div>\n")
-	writeNote(w, st)
+	writeNote(w, calc, st)
 	w.WriteString("</div>\n")
 }
 
-func writeNote(w sink, st *engine.Statement) {
+// writeNote writes what a checker wants beside a result: its description,
+// its source, its assumption, its place in the sheet, what it uses and what
+// uses it, and what it ultimately rests on.
+func writeNote(w sink, calc *engine.Sheet, st *engine.Statement) {
 	w.WriteString("<div class=\"note\">")
 	if st.Description != "" {
 		w.WriteString("<span class=\"desc\">" + esc(st.Description) + "</span>")
@@ -126,10 +164,82 @@ func writeNote(w sink, st *engine.Statement) {
 	if st.Source != "" {
 		w.WriteString("<span class=\"srcref\">Source: " + esc(st.Source) + "</span>")
 	}
-	w.WriteString(`<a class="loc" href="#` + anchor(st) + `">` + esc(st.Pos.String()) + "</a></div>\n")
+	if st.Assumption != "" {
+		w.WriteString("<span class=\"assumed\">Assumption: " + esc(st.Assumption) + "</span>")
+	}
+	if len(st.Assumes) > 0 {
+		w.WriteString("<span class=\"links\">assumes ")
+		for i, id := range st.Assumes {
+			if i > 0 {
+				w.WriteString(", ")
+			}
+			w.WriteString(`<a href="#A-` + esc(id) + `">` + esc(id) + "</a>")
+		}
+		w.WriteString("</span>")
+	}
+	w.WriteString(`<a class="loc" href="#` + anchor(st) + `">` + esc(st.Pos.String()) + "</a>")
+	writeLinks(w, "uses", st.Deps)
+	writeLinks(w, "used by", st.Users)
+	w.WriteString("</div>\n")
+	if !st.IsInput() && len(st.Deps) > 0 {
+		inputs, assumptions := calc.RestsOn(st)
+		w.WriteString("<details class=\"trace\"><summary>rests on ")
+		w.WriteString(Count(len(inputs), "input"))
+		if len(assumptions) > 0 {
+			w.WriteString(" and " + Count(len(assumptions), "assumption"))
+		}
+		w.WriteString("</summary><p>")
+		for i, in := range inputs {
+			if i > 0 {
+				w.WriteString(", ")
+			}
+			v, u := InputText(in)
+			w.WriteString(`<a href="#` + anchor(in) + `">` + symbolHTML(in.Name) + "</a> = " + esc(v))
+			if u != "" {
+				w.WriteString(" " + esc(u))
+			}
+		}
+		w.WriteString("</p>")
+		if len(assumptions) > 0 {
+			w.WriteString("<ul class=\"assumptions\">")
+			for _, a := range assumptions {
+				w.WriteString(`<li><a href="#` + assumptionAnchor(a) + `">` + esc(a.ID) + "</a>: " + esc(a.Text) + "</li>")
+			}
+			w.WriteString("</ul>")
+		}
+		w.WriteString("</details>\n")
+	}
 }
 
-func writeCheck(w sink, st *engine.Statement, digits int) {
+// writeLinks writes a labelled list of links to statements.
+func writeLinks(w sink, label string, sts []*engine.Statement) {
+	if len(sts) == 0 {
+		return
+	}
+	w.WriteString("<span class=\"links\">" + label + " ")
+	for i, d := range sts {
+		if i > 0 {
+			w.WriteString(", ")
+		}
+		name := symbolHTML(d.Name)
+		if d.Kind == engine.Check {
+			name = "check at line " + strconv.Itoa(d.Pos.Line)
+		}
+		w.WriteString(`<a href="#` + anchor(d) + `">` + name + "</a>")
+	}
+	w.WriteString("</span>")
+}
+
+// assumptionAnchor is the id of an assumption on its sheet's page: the
+// prose paragraph, or the statement that is the assumption.
+func assumptionAnchor(a *engine.Assumption) string {
+	if a.Statement != nil {
+		return anchor(a.Statement)
+	}
+	return "A-" + a.ID
+}
+
+func writeCheck(w sink, calc *engine.Sheet, st *engine.Statement, digits int) {
 	cls, verdict := "pass", "PASS"
 	if st.Status == engine.Fail {
 		cls, verdict = "fail", "FAIL"
@@ -146,7 +256,7 @@ func writeCheck(w sink, st *engine.Statement, digits int) {
 	if u := UtilisationText(st.Utilisation); u != "" {
 		w.WriteString("<div class=\"note\"><span class=\"util\">utilisation " + u + "</span></div>\n")
 	}
-	writeNote(w, st)
+	writeNote(w, calc, st)
 	w.WriteString("</div>\n</div>\n")
 }
 

@@ -17,6 +17,13 @@ table{border-collapse:collapse;width:100%;margin:.75rem 0}
 th,td{border:1px solid var(--rule);padding:.3rem .5rem;text-align:left;vertical-align:top}
 th{background:var(--band);font-weight:600}
 td.num{text-align:right;font-variant-numeric:tabular-nums;white-space:nowrap}
+table.frame,table.frame>thead,table.frame>tbody,table.frame>tfoot,table.frame>*>tr,table.frame>*>tr>td{display:block;border:0;padding:0;margin:0;width:auto}
+table.frame>tfoot{display:none}
+.stampline{font-size:.75rem;color:var(--muted);margin:.3rem 0;word-break:break-all}
+.history table{font-size:.82rem}
+table.checks td{vertical-align:middle}
+table.checks tr.pass .verdict{color:var(--ok);background:var(--ok-bg);border:1px solid var(--ok)}
+table.checks tr.fail .verdict{color:var(--bad);background:var(--bad-bg);border:1px solid var(--bad)}
 .titleblock{display:grid;grid-template-columns:1fr auto;gap:1rem;border:2px solid var(--ink);padding:.75rem 1rem;margin-bottom:1rem}
 .titleblock h1{margin:.1rem 0;font-size:1.5rem}
 .titleblock .kicker{margin:0;color:var(--muted);text-transform:uppercase;letter-spacing:.06em;font-size:.75rem}
@@ -49,6 +56,18 @@ nav.pkg{font-size:.9rem;margin:.5rem 0 1rem}
 .error mark{background:var(--bad);color:#fff}
 .msg{margin:.2rem 0 0;font-size:.9rem}
 .msg .hint{color:var(--muted)}
+.note .links a{margin:0 .1rem}
+.assumed{color:var(--warn)}
+details.trace{font-size:.8rem;color:var(--muted);margin:.1rem 0 0}
+details.trace summary{cursor:pointer}
+details.trace p,details.trace ul{margin:.2rem 0 .2rem 1rem}
+.assumption{border-left:4px solid var(--warn);background:var(--warn-bg);padding:.3rem .8rem;margin:1rem 0}
+.assumption p{margin:.3rem 0}
+table.diff del{background:var(--bad-bg);text-decoration:line-through;text-decoration-color:var(--bad)}
+table.diff ins{background:var(--ok-bg);text-decoration:none}
+table.diff .kind{font-size:.78rem;font-weight:700;white-space:nowrap}
+table.diff tr.check-flipped .kind,table.diff tr.status-changed .kind{color:var(--bad)}
+table.diff tr.input-changed .kind,table.diff tr.formula-changed .kind{color:var(--warn)}
 .comment{color:var(--muted);font-style:italic;margin:.3rem 0}
 .util{font-variant-numeric:tabular-nums}
 .caution{border:1px solid var(--warn);background:var(--warn-bg);padding:.6rem .9rem;margin:1.5rem 0;font-size:.85rem}
@@ -63,6 +82,14 @@ footer{margin-top:2rem;border-top:1px solid var(--rule);padding-top:.5rem;font-s
  .calc,.titleblock,.status,table,tr{break-inside:avoid}
  .error,.blocked,.pass .verdict,.fail .verdict{-webkit-print-color-adjust:exact;print-color-adjust:exact}
  h2{break-after:avoid}
- @page{size:A4;margin:16mm 14mm}
+ table.frame{display:table;width:100%;border-collapse:collapse}
+ table.frame>thead{display:table-header-group}
+ table.frame>tfoot{display:table-footer-group}
+ table.frame>tbody{display:table-row-group}
+ table.frame>*>tr{display:table-row}
+ table.frame>*>tr>td{display:table-cell}
+ .titleblock{margin-bottom:4mm}
+ details.trace{display:none}
+ @page{size:A4;margin:14mm 14mm}
 }
 `

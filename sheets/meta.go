@@ -22,11 +22,56 @@ type Meta struct {
 	Revision   string `json:"revision,omitempty"`
 	Date       string `json:"date,omitempty"`
 	PreparedBy string `json:"prepared_by,omitempty"`
+	PreparedOn string `json:"prepared_on,omitempty"`
 	CheckedBy  string `json:"checked_by,omitempty"`
+	CheckedOn  string `json:"checked_on,omitempty"`
+	ApprovedBy string `json:"approved_by,omitempty"`
+	ApprovedOn string `json:"approved_on,omitempty"`
+	// History is the revision history, oldest first.
+	History []Revision `json:"history,omitempty"`
+	// Accept records audit findings of the sheet as a whole that the firm
+	// accepts, each with its reason.
+	Accept []Acceptance `json:"accept,omitempty"`
 	// Digits is the number of significant figures for results; 0 means the
 	// package default.
 	Digits int `json:"digits,omitempty"`
 }
+
+// Revision is one row of a sheet's revision history.
+type Revision struct {
+	Rev  string `json:"rev"`
+	Date string `json:"date,omitempty"`
+	By   string `json:"by,omitempty"`
+	Note string `json:"note,omitempty"`
+}
+
+// Acceptance is an audit finding accepted in the front matter.
+type Acceptance struct {
+	Code   string   `json:"code"`
+	Reason string   `json:"reason"`
+	Pos    diag.Pos `json:"pos"`
+}
+
+// Dates returns every date of the title block and the history written as
+// YYYY-MM-DD.
+func (m Meta) Dates() []string {
+	var out []string
+	for _, d := range []string{m.Date, m.PreparedOn, m.CheckedOn, m.ApprovedOn} {
+		if isDate(d) {
+			out = append(out, d)
+		}
+	}
+	for _, r := range m.History {
+		if isDate(r.Date) {
+			out = append(out, r.Date)
+		}
+	}
+	return out
+}
+
+var datePattern = regexp.MustCompile(`^\d{4}-\d{2}-\d{2}$`)
+
+func isDate(s string) bool { return datePattern.MatchString(s) }
 
 // metaFields maps a normalised front-matter key to the field it fills.
 var metaFields = map[string]func(*Meta) *string{
@@ -38,11 +83,18 @@ var metaFields = map[string]func(*Meta) *string{
 	"revision":    func(m *Meta) *string { return &m.Revision },
 	"date":        func(m *Meta) *string { return &m.Date },
 	"prepared_by": func(m *Meta) *string { return &m.PreparedBy },
+	"prepared_on": func(m *Meta) *string { return &m.PreparedOn },
 	"checked_by":  func(m *Meta) *string { return &m.CheckedBy },
+	"checked_on":  func(m *Meta) *string { return &m.CheckedOn },
+	"approved_by": func(m *Meta) *string { return &m.ApprovedBy },
+	"approved_on": func(m *Meta) *string { return &m.ApprovedOn },
 }
 
+// dateFields are the fields that hold a date.
+var dateFields = map[string]bool{"date": true, "prepared_on": true, "checked_on": true, "approved_on": true}
+
 func knownFields() string {
-	names := []string{"digits"}
+	names := []string{"digits", "history", "accept"}
 	for k := range metaFields {
 		names = append(names, k)
 	}
@@ -141,6 +193,14 @@ func decodeMeta(path string, text []byte, diags *diag.List) Meta {
 			m.Digits = n
 			continue
 		}
+		switch key {
+		case "history":
+			m.History = decodeHistory(v, at, diags)
+			continue
+		case "accept":
+			m.Accept = decodeAccept(v, at, diags)
+			continue
+		}
 		field, ok := metaFields[key]
 		if !ok {
 			d := diag.Diagnostic{Pos: at(k), Severity: diag.Warning,
@@ -153,6 +213,73 @@ func decodeMeta(path string, text []byte, diags *diag.List) Meta {
 			continue
 		}
 		*field(&m) = v.Value
+		if dateFields[key] && v.Value != "" && !isDate(v.Value) {
+			*diags = append(*diags, diag.Diagnostic{Pos: at(v), Severity: diag.Warning,
+				Message: fmt.Sprintf("%s %q is not a date written YYYY-MM-DD", k.Value, v.Value), Hint: "write for example 2026-11-30"})
+		}
 	}
 	return m
+}
+
+// decodeHistory reads the revision history: a list of entries with rev,
+// date, by and note.
+func decodeHistory(v *yaml.Node, at func(*yaml.Node) diag.Pos, diags *diag.List) []Revision {
+	const hint = "write history as a list of entries, each with rev, date, by and note"
+	if v.Kind != yaml.SequenceNode {
+		diags.Add(at(v), hint, "history must be a list")
+		return nil
+	}
+	var out []Revision
+	for _, item := range v.Content {
+		if item.Kind != yaml.MappingNode {
+			diags.Add(at(item), hint, "a history entry must have fields")
+			continue
+		}
+		var r Revision
+		for i := 0; i+1 < len(item.Content); i += 2 {
+			k, val := item.Content[i], item.Content[i+1]
+			if val.Kind != yaml.ScalarNode {
+				diags.Add(at(val), hint, "history field %q must be text", k.Value)
+				continue
+			}
+			switch normaliseKey(k.Value) {
+			case "rev", "revision":
+				r.Rev = val.Value
+			case "date":
+				r.Date = val.Value
+			case "by":
+				r.By = val.Value
+			case "note", "description":
+				r.Note = val.Value
+			default:
+				*diags = append(*diags, diag.Diagnostic{Pos: at(k), Severity: diag.Warning,
+					Message: fmt.Sprintf("unknown history field %q", k.Value), Hint: "history entries have rev, date, by and note"})
+			}
+		}
+		if r.Rev == "" {
+			diags.Add(at(item), hint, "a history entry needs rev")
+			continue
+		}
+		out = append(out, r)
+	}
+	return out
+}
+
+// decodeAccept reads accepted findings: code: reason.
+func decodeAccept(v *yaml.Node, at func(*yaml.Node) diag.Pos, diags *diag.List) []Acceptance {
+	const hint = "write accept as finding codes with their reasons, for example  no-checker: checked in the design review of 2026-11-30"
+	if v.Kind != yaml.MappingNode {
+		diags.Add(at(v), hint, "accept must list codes with reasons")
+		return nil
+	}
+	var out []Acceptance
+	for i := 0; i+1 < len(v.Content); i += 2 {
+		k, val := v.Content[i], v.Content[i+1]
+		if val.Kind != yaml.ScalarNode {
+			diags.Add(at(val), hint, "the reason for accepting %s must be text", k.Value)
+			continue
+		}
+		out = append(out, Acceptance{Code: strings.TrimSpace(k.Value), Reason: strings.TrimSpace(val.Value), Pos: at(k)})
+	}
+	return out
 }

@@ -6,6 +6,7 @@ package sheets
 
 import (
 	"bytes"
+	"regexp"
 	"slices"
 	"strings"
 
@@ -29,10 +30,24 @@ type Sheet struct {
 	Meta   Meta
 	Doc    ast.Node // the goldmark document, for rendering prose
 	Blocks []*Block // formula blocks in document order
-	Diags  diag.List
+	// Assumptions are the paragraphs marked as assumptions, in order.
+	Assumptions []*Assumption
+	Diags       diag.List
 
 	index lineIndex
 }
+
+// Assumption is a paragraph of prose that starts "Assumption <id>:". The
+// statements that rest on it cite its id with `; assumes: <id>`.
+type Assumption struct {
+	ID   string
+	Text string // the paragraph after "Assumption <id>:", lines joined
+	Pos  diag.Pos
+	Node *ast.Paragraph
+}
+
+// assumptionHead matches the start of an assumption paragraph.
+var assumptionHead = regexp.MustCompile(`^Assumption\s+([A-Za-z0-9][A-Za-z0-9_.-]*)\s*:\s*`)
 
 // Block is one formula block.
 type Block struct {
@@ -154,6 +169,10 @@ func (s *Sheet) LineText(n int) string { return s.index.lineText(n) }
 
 func (s *Sheet) collectBlocks() {
 	_ = ast.Walk(s.Doc, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
+		if p, ok := n.(*ast.Paragraph); ok && entering {
+			s.collectAssumption(p)
+			return ast.WalkSkipChildren, nil
+		}
 		fc, ok := n.(*ast.FencedCodeBlock)
 		if !entering || !ok || !IsFormulaBlock(fc, s.Source) {
 			return ast.WalkContinue, nil
@@ -179,6 +198,35 @@ func (s *Sheet) collectBlocks() {
 		s.Blocks = append(s.Blocks, b)
 		return ast.WalkSkipChildren, nil
 	})
+}
+
+// collectAssumption records a paragraph that starts "Assumption <id>:".
+func (s *Sheet) collectAssumption(p *ast.Paragraph) {
+	lines := p.Lines()
+	if lines.Len() == 0 {
+		return
+	}
+	var parts []string
+	for i := 0; i < lines.Len(); i++ {
+		seg := lines.At(i)
+		parts = append(parts, strings.TrimSpace(string(seg.Value(s.Source))))
+	}
+	text := strings.Join(parts, " ")
+	m := assumptionHead.FindStringSubmatch(text)
+	if m == nil {
+		return
+	}
+	s.Assumptions = append(s.Assumptions, &Assumption{ID: m[1], Text: text[len(m[0]):], Pos: s.Pos(lines.At(0).Start), Node: p})
+}
+
+// AssumptionAt returns the assumption a paragraph declares, or nil.
+func (s *Sheet) AssumptionAt(p *ast.Paragraph) *Assumption {
+	for _, a := range s.Assumptions {
+		if a.Node == p {
+			return a
+		}
+	}
+	return nil
 }
 
 // IsFormulaBlock reports whether a fenced code block is a formula block.

@@ -60,6 +60,7 @@ func newRoot(stdout, stderr io.Writer) *cobra.Command {
 	root.SetOut(stdout)
 	root.SetErr(stderr)
 	root.CompletionOptions.DisableDefaultCmd = true
-	root.AddCommand(buildCmd(stdout, stderr), checkCmd(stdout, stderr), unitsCmd(stdout))
+	root.AddCommand(buildCmd(stdout, stderr), checkCmd(stdout, stderr), auditCmd(stdout, stderr),
+		diffCmd(stdout, stderr), verifyCmd(stdout, stderr), unitsCmd(stdout))
 	return root
 }

@@ -1,0 +1,435 @@
+// Package audit reads a compiled calculation package the way a careful
+// checker does and lists what deserves a second look: inputs without a
+// source, numbers buried in formulas, checks against unnamed limits,
+// results that read badly, inputs that disagree between sheets, thin
+// margins and more. Every finding has a stable code, so that a firm can
+// agree which findings may be accepted and record the acceptance, with its
+// reason, in the sheet itself.
+package audit
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"github.com/sheaf-calc/sheaf/diag"
+	"github.com/sheaf-calc/sheaf/engine"
+	"github.com/sheaf-calc/sheaf/project"
+	"github.com/sheaf-calc/sheaf/units"
+)
+
+// Rule describes one kind of finding.
+type Rule struct {
+	Code  string // stable: never renamed or reused
+	Title string
+	Why   string // what a checker would say, and how to resolve it
+}
+
+// Rules lists every finding sheaf's audit can report, in the order the
+// README documents them.
+var Rules = []Rule{
+	{"no-source", "input without a source", "every input should say where it comes from: a drawing, a data sheet, a test report or a standard; add `; source: ...`"},
+	{"no-description", "input without a description", "a checker should not have to guess what an input is; add a description after `;`"},
+	{"open-source", "input whose source is still open", "a source marked TBC, TBD or to be confirmed is a hold point: confirm it before issue"},
+	{"unused-input", "input that nothing uses", "an input no formula uses is a leftover or a formula that forgot it; delete it or use it"},
+	{"unused-result", "undescribed result that nothing uses", "a result that nothing uses and that has no description is probably a leftover; describe it if it is a result of the sheet, or delete it"},
+	{"buried-number", "number buried in a formula", "a factor such as 1.15 inside a formula hides an assumption; name it as an input with a source (small whole numbers, halves and quarters, and exponents are fine)"},
+	{"buried-quantity", "quantity buried in a formula", "a value with a unit inside a formula is an input in disguise; name it as an input with a source"},
+	{"check-literal", "check against an unnamed limit", "the limit a check compares against should be a named input with a source, so that the checker can trace it"},
+	{"awkward-magnitude", "result that reads badly", "the number needs an exponent or the unit has no name; give the result a display unit such as [kV] or [mWb]"},
+	{"inconsistent-input", "input that disagrees with another sheet", "the same name has another value in another sheet of the package; make them agree, or rename one"},
+	{"thin-margin", "check within 5 % of its limit", "a pass with a utilisation above 95 % leaves little margin for the uncertainty of the inputs; confirm the margin is enough"},
+	{"no-checker", "sheet without a checker or revision", "the title block should name the revision and who checked the sheet"},
+	{"unknown-acceptance", "acceptance of a finding that is not there", "an `accept` names a code that does not occur at that place; remove it or fix the code"},
+	{"acceptance-without-reason", "acceptance without a reason", "an accepted finding must say why it is acceptable"},
+}
+
+// RuleByCode finds a rule.
+func RuleByCode(code string) (Rule, bool) {
+	for _, r := range Rules {
+		if r.Code == code {
+			return r, true
+		}
+	}
+	return Rule{}, false
+}
+
+// Finding is one thing the audit reports.
+type Finding struct {
+	Code    string   `json:"code"`
+	Pos     diag.Pos `json:"pos"`
+	Subject string   `json:"subject,omitempty"` // the statement's name or formula
+	Message string   `json:"message"`
+	// Accepted is set when the sheet accepts this finding; Reason says why.
+	Accepted bool   `json:"accepted"`
+	Reason   string `json:"reason,omitempty"`
+}
+
+// Report is the audit of a package.
+type Report struct {
+	Findings []Finding `json:"findings"`
+}
+
+// Open counts the findings not accepted.
+func (r Report) Open() int {
+	n := 0
+	for _, f := range r.Findings {
+		if !f.Accepted {
+			n++
+		}
+	}
+	return n
+}
+
+// ThinMargin is the utilisation above which a passing check is reported.
+const ThinMargin = 0.95
+
+// Run audits a package. Findings come sorted by position and code.
+func Run(pkg *project.Package) Report {
+	var r Report
+	for _, s := range pkg.Sheets {
+		r.Findings = append(r.Findings, sheetFindings(s)...)
+	}
+	r.Findings = append(r.Findings, inconsistentInputs(pkg)...)
+	applyAcceptances(pkg, &r)
+	sort.SliceStable(r.Findings, func(i, j int) bool {
+		a, b := r.Findings[i], r.Findings[j]
+		if c := diag.Compare(a.Pos, b.Pos); c != 0 {
+			return c < 0
+		}
+		return a.Code < b.Code
+	})
+	return r
+}
+
+func finding(code string, pos diag.Pos, subject, format string, args ...any) Finding {
+	return Finding{Code: code, Pos: pos, Subject: subject, Message: fmt.Sprintf(format, args...)}
+}
+
+func sheetFindings(s *project.Sheet) []Finding {
+	var out []Finding
+	m := s.Doc.Meta
+	if m.CheckedBy == "" || m.Revision == "" {
+		var missing []string
+		if m.Revision == "" {
+			missing = append(missing, "revision")
+		}
+		if m.CheckedBy == "" {
+			missing = append(missing, "checked by")
+		}
+		out = append(out, finding("no-checker", diag.Pos{File: s.Path(), Line: 1, Col: 1}, "",
+			"the title block has no %s", strings.Join(missing, " and no ")))
+	}
+	for _, st := range s.Calc.Statements {
+		out = append(out, statementFindings(st)...)
+	}
+	return out
+}
+
+var openMarkers = []string{"tbc", "tbd", "tba", "to be confirmed", "to be decided", "preliminary", "?"}
+
+func statementFindings(st *engine.Statement) []Finding {
+	var out []Finding
+	name := st.Name
+	if st.Kind == engine.Check {
+		name = "check " + st.Formula
+	}
+	if st.Status == engine.Failed || st.Status == engine.Blocked || st.Status == engine.Pending {
+		return nil // errors are reported as errors
+	}
+	if st.IsInput() {
+		switch {
+		case st.Source == "":
+			out = append(out, finding("no-source", st.Pos, name, "input %s has no source", name))
+		case isOpen(st.Source):
+			out = append(out, finding("open-source", st.Pos, name, "the source of %s is still open: %q", name, st.Source))
+		}
+		if st.Description == "" {
+			out = append(out, finding("no-description", st.Pos, name, "input %s has no description", name))
+		}
+		if len(st.Users) == 0 {
+			out = append(out, finding("unused-input", st.Pos, name, "nothing uses input %s", name))
+		}
+		return out
+	}
+	if st.Kind == engine.Definition && len(st.Users) == 0 && st.Description == "" {
+		out = append(out, finding("unused-result", st.Pos, name, "nothing uses %s and it has no description", name))
+	}
+	out = append(out, buried(st, name)...)
+	if st.Kind == engine.Check {
+		if st.Status == engine.Pass && st.Utilisation > ThinMargin && !math.IsNaN(st.Utilisation) {
+			out = append(out, finding("thin-margin", st.Pos, name, "%s passes at %.1f %% utilisation", name, st.Utilisation*100))
+		}
+	}
+	if st.Kind == engine.Definition && st.Display == nil && st.Status == engine.OK && readsBadly(st) {
+		out = append(out, finding("awkward-magnitude", st.Pos, name, "%s shows as %s %s", name,
+			units.FormatNumber(st.Shown.FromSI(st.Value), 4), st.Shown.Symbol))
+	}
+	return out
+}
+
+func isOpen(source string) bool {
+	s := strings.ToLower(source)
+	for _, m := range openMarkers {
+		if m == "?" {
+			if strings.HasSuffix(strings.TrimSpace(s), "?") {
+				return true
+			}
+			continue
+		}
+		if containsWord(s, m) {
+			return true
+		}
+	}
+	return false
+}
+
+func containsWord(s, w string) bool {
+	for i := strings.Index(s, w); i >= 0; {
+		before := i == 0 || !isLetter(s[i-1])
+		after := i+len(w) == len(s) || !isLetter(s[i+len(w)])
+		if before && after {
+			return true
+		}
+		j := strings.Index(s[i+1:], w)
+		if j < 0 {
+			break
+		}
+		i += 1 + j
+	}
+	return false
+}
+
+func isLetter(b byte) bool { return b >= 'a' && b <= 'z' || b >= 'A' && b <= 'Z' }
+
+// buried finds numbers and quantities inside a formula that are not plain
+// small factors, and, in a check, a limit written as a literal.
+func buried(st *engine.Statement, name string) []Finding {
+	var out []Finding
+	var exponents = map[engine.Expr]bool{}
+	engine.Walk(st.Expr, func(e engine.Expr) {
+		if b, ok := e.(*engine.Binary); ok && b.Op == "^" {
+			exponents[b.Y] = true
+		}
+	})
+	var limits = map[engine.Expr]bool{}
+	if st.Kind == engine.Check {
+		cmp := st.Compare()
+		for _, side := range []engine.Expr{cmp.X, cmp.Y} {
+			if literal(side) {
+				limits[side] = true
+				out = append(out, finding("check-literal", side.Pos(), name, "%s compares against the unnamed value %s", name, literalText(side)))
+			}
+		}
+	}
+	engine.Walk(st.Expr, func(e engine.Expr) {
+		if exponents[e] || limits[e] {
+			return
+		}
+		switch n := e.(type) {
+		case *engine.Number:
+			if !plainFactor(n.Value) {
+				out = append(out, finding("buried-number", n.Pos(), name, "the number %s is buried in the formula of %s", n.Text, name))
+			}
+		case *engine.Quantity:
+			if !plainQuantity(n) {
+				out = append(out, finding("buried-quantity", n.Pos(), name, "the value %s %s is buried in the formula of %s", n.Text, n.Unit.Symbol, name))
+			}
+		}
+	})
+	return out
+}
+
+// literal reports whether a check side is a bare number or quantity,
+// possibly negated.
+func literal(e engine.Expr) bool {
+	if u, ok := e.(*engine.Unary); ok {
+		e = u.X
+	}
+	switch n := e.(type) {
+	case *engine.Quantity:
+		return true
+	case *engine.Number:
+		return n.Value != 0
+	}
+	return false
+}
+
+func literalText(e engine.Expr) string {
+	sign := ""
+	if u, ok := e.(*engine.Unary); ok {
+		e = u.X
+		if u.Op == "-" {
+			sign = "-"
+		}
+	}
+	switch n := e.(type) {
+	case *engine.Quantity:
+		return sign + n.Text + " " + n.Unit.Symbol
+	case *engine.Number:
+		return sign + n.Text
+	}
+	return ""
+}
+
+// plainFactor tells the numbers a formula may hold without comment: small
+// whole numbers (the 2 of 2·π, the 3 of √3), halves and quarters.
+func plainFactor(v float64) bool {
+	a := math.Abs(v)
+	if a == math.Trunc(a) && a <= 12 {
+		return true
+	}
+	switch a {
+	case 0.5, 0.25, 0.75, 1.5:
+		return true
+	}
+	return false
+}
+
+// plainQuantity tells the quantities a formula may hold without comment:
+// one of a unit, which only strips or names a unit, as in x/(1 m), and
+// right angles, as in sin(90 deg).
+func plainQuantity(q *engine.Quantity) bool {
+	if q.Value == 1 {
+		return true
+	}
+	if q.Unit.Kind == units.Angle {
+		deg := q.SI * 180 / math.Pi
+		return math.Abs(deg-math.Round(deg/90)*90) < 1e-9
+	}
+	return false
+}
+
+// readsBadly reports whether a result shown in the unit sheaf picked needs
+// an exponent, or has a unit with no name.
+func readsBadly(st *engine.Statement) bool {
+	v := math.Abs(st.Shown.FromSI(st.Value))
+	if v != 0 && (v < 1e-3 || v >= 1e6) {
+		return true
+	}
+	return strings.Contains(st.Shown.Symbol, "·") && st.Shown.Symbol == st.Type.Dim.SIUnits()
+}
+
+// inconsistentInputs finds inputs of the same name and dimension with
+// different values in different sheets of the same project (sheets whose
+// front matter names another project describe another machine, where the
+// same symbol may well mean another thing).
+func inconsistentInputs(pkg *project.Package) []Finding {
+	type seen struct {
+		st    *engine.Statement
+		sheet string
+	}
+	type key struct{ project, name string }
+	first := map[key]seen{}
+	var out []Finding
+	for _, s := range pkg.Sheets {
+		for _, st := range s.Calc.Statements {
+			if !st.IsInput() || st.Status != engine.OK {
+				continue
+			}
+			k := key{s.Doc.Meta.Project, st.Name}
+			f, ok := first[k]
+			if !ok {
+				first[k] = seen{st, s.Path()}
+				continue
+			}
+			if f.st.Type.Dim != st.Type.Dim {
+				continue // a different quantity that shares a symbol
+			}
+			if !same(f.st.Value, st.Value) {
+				out = append(out, finding("inconsistent-input", st.Pos, st.Name, "%s is %s here but %s in %s:%d",
+					st.Name, inputText(st), inputText(f.st), f.sheet, f.st.Pos.Line))
+			}
+		}
+	}
+	return out
+}
+
+func same(a, b float64) bool {
+	return a == b || math.Abs(a-b) <= 1e-12*math.Max(math.Abs(a), math.Abs(b))
+}
+
+func inputText(st *engine.Statement) string {
+	e := st.Expr
+	sign := ""
+	if u, ok := e.(*engine.Unary); ok && u.Op == "-" {
+		e, sign = u.X, "-"
+	}
+	switch n := e.(type) {
+	case *engine.Quantity:
+		return sign + n.Text + " " + n.Unit.Symbol
+	case *engine.Number:
+		return sign + n.Text
+	}
+	return ""
+}
+
+// applyAcceptances marks findings that a sheet accepts: `; accept code:
+// reason` on the statement for findings at that statement, and the
+// front matter's accept field for findings of the sheet as a whole. An
+// acceptance that matches nothing, or gives no reason, is a finding too.
+func applyAcceptances(pkg *project.Package, r *Report) {
+	type key struct {
+		file string
+		line int
+		code string
+	}
+	byStatement := map[key][]int{}
+	for i, f := range r.Findings {
+		byStatement[key{f.Pos.File, statementLine(pkg, f), f.Code}] = append(byStatement[key{f.Pos.File, statementLine(pkg, f), f.Code}], i)
+	}
+	accept := func(k key, reason string, pos diag.Pos, subject string) {
+		if strings.TrimSpace(reason) == "" {
+			r.Findings = append(r.Findings, finding("acceptance-without-reason", pos, subject, "accept %s gives no reason", k.code))
+			return
+		}
+		idx, ok := byStatement[k]
+		if !ok {
+			msg := "accept %s matches no finding here"
+			if _, known := RuleByCode(k.code); !known {
+				msg = "accept %s names no finding sheaf knows"
+			}
+			r.Findings = append(r.Findings, finding("unknown-acceptance", pos, subject, msg, k.code))
+			return
+		}
+		for _, i := range idx {
+			r.Findings[i].Accepted = true
+			r.Findings[i].Reason = reason
+		}
+	}
+	for _, s := range pkg.Sheets {
+		for _, a := range s.Doc.Meta.Accept {
+			accept(key{s.Path(), 1, a.Code}, a.Reason, a.Pos, "")
+		}
+		for _, st := range s.Calc.Statements {
+			for _, n := range st.Notes {
+				if n.Key == "accept" {
+					accept(key{s.Path(), st.Pos.Line, n.Arg}, n.Value, n.Pos, st.Name)
+				}
+			}
+		}
+	}
+}
+
+// statementLine is the line of the statement a finding belongs to: its own
+// line for most, the statement's first line for a finding inside a formula
+// that spans lines, 1 for the sheet as a whole.
+func statementLine(pkg *project.Package, f Finding) int {
+	for _, s := range pkg.Sheets {
+		if s.Path() != f.Pos.File {
+			continue
+		}
+		best := 1
+		for _, st := range s.Calc.Statements {
+			if st.Pos.Line <= f.Pos.Line && st.Pos.Line > best {
+				best = st.Pos.Line
+			}
+		}
+		if f.Pos.Line == 1 {
+			return 1
+		}
+		return best
+	}
+	return f.Pos.Line
+}

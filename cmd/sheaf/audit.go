@@ -1,0 +1,63 @@
+package main
+
+import (
+	"fmt"
+	"io"
+
+	"github.com/spf13/cobra"
+
+	"github.com/sheaf-calc/sheaf/internal/atomicfile"
+	"github.com/sheaf-calc/sheaf/render"
+)
+
+func auditCmd(stdout, stderr io.Writer) *cobra.Command {
+	var flags commonFlags
+	var html string
+	var all bool
+	c := &cobra.Command{
+		Use:   "audit <folder|file>",
+		Short: "List what a careful checker would question: inputs without sources, buried factors, unnamed limits and more",
+		Long: "audit reads the package as a checker does and prints each finding as file:line:col: [code] message.\n" +
+			"Findings the sheets accept (`; accept <code>: <reason>` on a statement, or `accept:` in the front matter)\n" +
+			"are listed with their reason and do not fail the audit.\n\n" +
+			"Exit codes: 0 no open findings; 1 open findings; 2 errors in the sheets or usage.",
+		Args: cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			pkg, opt, err := flags.load(args[0])
+			if err != nil {
+				return err
+			}
+			r := *opt.Audit
+			for _, f := range r.Findings {
+				if f.Accepted && !all {
+					continue
+				}
+				line := fmt.Sprintf("%s: [%s] %s", f.Pos, f.Code, f.Message)
+				if f.Accepted {
+					line += " (accepted: " + f.Reason + ")"
+				}
+				fmt.Fprintln(stdout, line)
+			}
+			for _, d := range pkg.Diags {
+				fmt.Fprintln(stderr, d.Error())
+			}
+			fmt.Fprintf(stdout, "%s open, %d accepted\n", render.Count(r.Open(), "finding"), len(r.Findings)-r.Open())
+			if html != "" {
+				if err := atomicfile.Write(html, render.AuditHTML(pkg, opt), 0o644); err != nil {
+					return err
+				}
+			}
+			switch {
+			case pkg.Counts().Errors > 0:
+				return exitCode(exitErrors)
+			case r.Open() > 0:
+				return exitCode(exitCheckFailed)
+			}
+			return nil
+		},
+	}
+	flags.register(c)
+	c.Flags().StringVar(&html, "html", "", "also write the audit as an HTML page to this file")
+	c.Flags().BoolVar(&all, "all", false, "list accepted findings too")
+	return c
+}

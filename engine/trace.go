@@ -1,0 +1,137 @@
+package engine
+
+import (
+	"sort"
+	"strconv"
+	"strings"
+
+	"github.com/sheaf-calc/sheaf/diag"
+)
+
+// Assumption is something a calculation takes as given: a paragraph of
+// prose the author marked as an assumption (with an id that statements
+// cite with `; assumes: id`), or a statement marked `; assume: why`.
+type Assumption struct {
+	ID   string
+	Text string
+	Pos  diag.Pos
+	// Statement is set when the assumption is a statement of its own.
+	Statement *Statement
+	// Direct are the statements that cite it or are it; Dependents are
+	// every statement whose result rests on it, directly or through others,
+	// in the order written.
+	Direct     []*Statement
+	Dependents []*Statement
+}
+
+// AssumptionSource is a prose assumption as the sheet reader found it.
+type AssumptionSource struct {
+	ID   string
+	Text string
+	Pos  diag.Pos
+}
+
+// linkAssumptions ties every `assumes:` to the sheet's prose assumptions,
+// turns `assume:` statements into assumptions, and works out what rests on
+// each. An unknown id is an error at its annotation; it does not stop the
+// calculation.
+func (s *Sheet) linkAssumptions(prose []AssumptionSource) {
+	byID := map[string]*Assumption{}
+	for _, p := range prose {
+		if first, dup := byID[p.ID]; dup {
+			s.Diags.Add(p.Pos, "give each assumption its own id", "assumption %s is already declared at %d:%d", p.ID, first.Pos.Line, first.Pos.Col)
+			continue
+		}
+		a := &Assumption{ID: p.ID, Text: p.Text, Pos: p.Pos}
+		byID[p.ID] = a
+		s.Assumptions = append(s.Assumptions, a)
+	}
+	for _, st := range s.Statements {
+		if st.Assumption != "" {
+			a := &Assumption{ID: st.Name, Text: st.Assumption, Pos: st.Pos, Statement: st, Direct: []*Statement{st}}
+			if st.Name == "" {
+				a.ID = "line-" + strconv.Itoa(st.Pos.Line)
+			}
+			s.Assumptions = append(s.Assumptions, a)
+		}
+		for _, id := range st.Assumes {
+			a, ok := byID[id]
+			if !ok {
+				s.Diags.Add(notePos(st, "assumes"), s.assumptionHint(byID), "unknown assumption %s", id)
+				continue
+			}
+			a.Direct = append(a.Direct, st)
+		}
+	}
+	for _, a := range s.Assumptions {
+		a.Dependents = closure(a.Direct, func(st *Statement) []*Statement { return st.Users })
+	}
+}
+
+func (s *Sheet) assumptionHint(byID map[string]*Assumption) string {
+	if len(byID) == 0 {
+		return "declare it in the prose with a paragraph that starts: Assumption " + "<id>: ..."
+	}
+	ids := make([]string, 0, len(byID))
+	for id := range byID {
+		ids = append(ids, id)
+	}
+	sort.Strings(ids)
+	return "this sheet declares " + strings.Join(ids, ", ")
+}
+
+func notePos(st *Statement, key string) diag.Pos {
+	for _, n := range st.Notes {
+		if n.Key == key {
+			return n.Pos
+		}
+	}
+	return st.Pos
+}
+
+// closure returns every statement reachable from start through next,
+// start included, in the order written.
+func closure(start []*Statement, next func(*Statement) []*Statement) []*Statement {
+	seen := map[*Statement]bool{}
+	var out []*Statement
+	var walk func(st *Statement)
+	walk = func(st *Statement) {
+		if seen[st] {
+			return
+		}
+		seen[st] = true
+		out = append(out, st)
+		for _, n := range next(st) {
+			walk(n)
+		}
+	}
+	for _, st := range start {
+		walk(st)
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i].Index < out[j].Index })
+	return out
+}
+
+// RestsOn returns the inputs and the assumptions that a statement's result
+// ultimately rests on, through every statement it uses, in the order
+// written. A statement that is itself an input or an assumption is among
+// them.
+func (s *Sheet) RestsOn(st *Statement) (inputs []*Statement, assumptions []*Assumption) {
+	all := closure([]*Statement{st}, func(x *Statement) []*Statement { return x.Deps })
+	in := map[*Statement]bool{}
+	for _, x := range all {
+		in[x] = true
+		if x.IsInput() {
+			inputs = append(inputs, x)
+		}
+	}
+	for _, a := range s.Assumptions {
+		for _, d := range a.Direct {
+			if in[d] {
+				assumptions = append(assumptions, a)
+				break
+			}
+		}
+	}
+	return inputs, assumptions
+}

@@ -1,0 +1,112 @@
+package project
+
+import (
+	"archive/tar"
+	"bytes"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"os/exec"
+	"path"
+	"strings"
+)
+
+// LoadRevision reads a package as it was at a git revision. spec is
+// "<revision>:<folder>", as git names a tree: "HEAD~1:examples/job" or
+// "v1.2:calcs". The folder is taken relative to the current directory.
+// It needs git on the PATH.
+func LoadRevision(spec string) (*Package, error) {
+	rev, folder, ok := strings.Cut(spec, ":")
+	if !ok || rev == "" {
+		return nil, fmt.Errorf("%q is neither a folder nor <git revision>:<folder>", spec)
+	}
+	if folder == "" {
+		folder = "."
+	}
+	prefix, err := git("rev-parse", "--show-prefix")
+	if err != nil {
+		return nil, err
+	}
+	root := path.Clean(path.Join(strings.TrimSpace(string(prefix)), folder))
+	if strings.HasPrefix(root, "..") {
+		return nil, fmt.Errorf("%s lies outside the git repository", folder)
+	}
+	archive, err := git("archive", "--format=tar", rev, "--", pathspec(folder))
+	if err != nil {
+		return nil, err
+	}
+	files := map[string][]byte{}
+	tr := tar.NewReader(bytes.NewReader(archive))
+	for {
+		h, err := tr.Next()
+		if errors.Is(err, io.EOF) {
+			break
+		}
+		if err != nil {
+			return nil, fmt.Errorf("reading %s from git: %w", spec, err)
+		}
+		if h.Typeflag != tar.TypeReg || !strings.EqualFold(path.Ext(h.Name), ".md") {
+			continue
+		}
+		rel := strings.TrimPrefix(h.Name, root+"/")
+		if root == "." {
+			rel = h.Name
+		}
+		if rel == h.Name && root != "." || hiddenPath(rel) {
+			continue
+		}
+		data, err := io.ReadAll(tr)
+		if err != nil {
+			return nil, err
+		}
+		files[rel] = data
+	}
+	if len(files) == 0 {
+		return nil, fmt.Errorf("%s holds no Markdown sheets at revision %s", folder, rev)
+	}
+	return FromFiles(spec, files), nil
+}
+
+func pathspec(folder string) string {
+	if folder == "." {
+		return "."
+	}
+	return strings.TrimSuffix(folder, "/")
+}
+
+// hiddenPath mirrors Load: folders whose names start with . or _ are
+// skipped.
+func hiddenPath(rel string) bool {
+	parts := strings.Split(rel, "/")
+	for _, p := range parts[:len(parts)-1] {
+		if strings.HasPrefix(p, ".") || strings.HasPrefix(p, "_") {
+			return true
+		}
+	}
+	return false
+}
+
+func git(args ...string) ([]byte, error) {
+	cmd := exec.Command("git", args...)
+	var stderr bytes.Buffer
+	cmd.Stderr = &stderr
+	out, err := cmd.Output()
+	if err != nil {
+		var ee *exec.Error
+		if errors.As(err, &ee) {
+			return nil, fmt.Errorf("reading a git revision needs git on the PATH: %w", err)
+		}
+		return nil, fmt.Errorf("git %s: %s", strings.Join(args, " "), strings.TrimSpace(stderr.String()))
+	}
+	return out, nil
+}
+
+// LoadAny reads a package from a folder or file, or, when no such path
+// exists and the argument has the form <revision>:<folder>, from git.
+func LoadAny(arg string) (*Package, error) {
+	if _, err := os.Stat(arg); err == nil || !strings.Contains(arg, ":") {
+		return Load(arg)
+	}
+	return LoadRevision(arg)
+}

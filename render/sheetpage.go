@@ -1,0 +1,152 @@
+package render
+
+import (
+	"github.com/yuin/goldmark"
+	"github.com/yuin/goldmark/renderer"
+	"github.com/yuin/goldmark/util"
+
+	"github.com/sheaf-calc/sheaf/diag"
+	"github.com/sheaf-calc/sheaf/engine"
+	"github.com/sheaf-calc/sheaf/project"
+	"github.com/sheaf-calc/sheaf/sheets"
+)
+
+// sheetPage renders one sheet: its title block and revision history, the
+// tally of its results, checks and errors, the prose with every formula
+// block drawn in place, the dependency graph and the inputs register.
+func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, g *grapher) ([]byte, error) {
+	digits := s.Digits(opt.Digits)
+	p := &page{}
+	// Pages run to about ten times their source; growing once saves copies.
+	p.Grow(16<<10 + 10*len(s.Doc.Source))
+	fr := packageFrame(pkg, opt)
+	fr.title = s.Title()
+	fr.root = rel(s.Page)
+	m := s.Doc.Meta
+	fr.block = titleBlock{kicker: m.Project, heading: s.Title(), subject: m.Subject, fields: sheetFields(m, s.Path())}
+	p.open(fr, opt.Version)
+	history(p, m)
+	statusSection(p, s, digits)
+
+	blocks := &blockRenderer{sheet: s, digits: digits}
+	md := goldmark.New(
+		goldmark.WithExtensions(sheets.Extensions()...),
+		goldmark.WithRendererOptions(renderer.WithNodeRenderers(util.Prioritized(blocks, 100))),
+	)
+	p.f("<article class=\"prose\">\n")
+	if err := md.Renderer().Render(&p.Buffer, s.Doc.Source, s.Doc.Doc); err != nil {
+		return nil, err
+	}
+	p.f("</article>\n")
+	if g != nil && len(s.Calc.Statements) > 0 {
+		svg, err := g.svg(graphDOT(s, digits))
+		if err != nil {
+			return nil, err
+		}
+		p.f("<section class=\"graph\">\n<h2>Dependency graph</h2>\n<p class=\"loc\">Each arrow runs from a statement to one that uses it; select a box to go to its statement.</p>\n<figure>\n")
+		p.Write(svg)
+		p.f("</figure>\n</section>\n")
+	}
+	inputsRegister(p, s)
+	p.close(opt.Version, "Page of "+esc(s.Path())+".")
+	return p.Bytes(), nil
+}
+
+// history writes the revision history, when the front matter has one.
+func history(p *page, m sheets.Meta) {
+	if len(m.History) == 0 {
+		return
+	}
+	p.f("<section class=\"history\">\n<table>\n<thead><tr><th>Rev.</th><th>Date</th><th>By</th><th>Revision</th></tr></thead>\n<tbody>\n")
+	for _, r := range m.History {
+		p.f("<tr><td>%s</td><td>%s</td><td>%s</td><td>%s</td></tr>\n", esc(r.Rev), esc(r.Date), esc(r.By), esc(r.Note))
+	}
+	p.f("</tbody>\n</table>\n</section>\n")
+}
+
+// statusSection writes the counts, the checks and the errors of a sheet.
+func statusSection(p *page, s *project.Sheet, digits int) {
+	c := s.Counts()
+	class := "status"
+	switch {
+	case c.Errors > 0:
+		class += " has-errors"
+	case c.Fail > 0:
+		class += " has-fail"
+	}
+	p.f("<section class=\"%s\">\n<p><strong>%s</strong> (%s) · <strong>%s</strong>: %d pass, %d fail · <strong>%s</strong>",
+		class, Count(c.Results, "result"), Count(c.Inputs, "input"), Count(c.Pass+c.Fail, "check"), c.Pass, c.Fail, Count(c.Errors, "error"))
+	if c.Blocked > 0 {
+		p.f(" · %d not evaluated", c.Blocked)
+	}
+	p.f("</p>\n")
+	var checks []*engine.Statement
+	for _, st := range s.Calc.Statements {
+		if st.Status == engine.Pass || st.Status == engine.Fail {
+			checks = append(checks, st)
+		}
+	}
+	if len(checks) > 0 {
+		checksTable(p, checks, func(*engine.Statement) (string, string) { return "", "" }, digits)
+	}
+	diags := append(append(diag.List{}, s.Doc.Diags...), s.Calc.Diags...)
+	diags.Sort()
+	if len(diags) > 0 {
+		p.f("<ul>\n")
+		for _, d := range diags {
+			p.f("<li><a class=\"loc\" href=\"#L%d\">%s</a> %s</li>\n", d.Pos.Line, esc(d.Pos.String()), esc(messageText(d)))
+		}
+		p.f("</ul>\n")
+	}
+	p.f("</section>\n")
+}
+
+// checksTable lists checks with their verdict, both sides in the check's
+// unit, and the utilisation. where gives each check's page (for links from
+// the package index) and the sheet column's text.
+func checksTable(p *page, checks []*engine.Statement, where func(*engine.Statement) (page, sheet string), digits int) {
+	_, sheetCol := where(checks[0])
+	p.f("<table class=\"checks\">\n<thead><tr><th></th>")
+	if sheetCol != "" {
+		p.f("<th>Sheet</th>")
+	}
+	p.f("<th>Check</th><th>Left</th><th></th><th>Right</th><th>Utilisation</th><th>Description</th></tr></thead>\n<tbody>\n")
+	for _, st := range checks {
+		pg, sheet := where(st)
+		verdict, cls := "PASS", "pass"
+		if st.Status == engine.Fail {
+			verdict, cls = "FAIL", "fail"
+		}
+		p.f("<tr class=\"%s\"><td><span class=\"verdict\">%s</span></td>", cls, verdict)
+		if sheetCol != "" {
+			p.f("<td>%s</td>", esc(sheet))
+		}
+		p.f("<td><a href=\"%s#%s\"><code>%s</code></a></td><td class=\"num\">%s</td><td>%s</td><td class=\"num\">%s</td><td class=\"num\">%s</td><td>%s</td></tr>\n",
+			esc(pg), anchor(st), esc(st.Formula), esc(ValueText(st.Left, st.Shown, digits)), esc(relations[st.Compare().Op]),
+			esc(ValueText(st.Right, st.Shown, digits)), esc(UtilisationText(st.Utilisation)), esc(st.Description))
+	}
+	p.f("</tbody>\n</table>\n")
+}
+
+// inputsRegister lists the sheet's inputs: name, value as written, unit,
+// description and source.
+func inputsRegister(p *page, s *project.Sheet) {
+	var rows []*engine.Statement
+	for _, st := range s.Calc.Statements {
+		if st.IsInput() && st.Status == engine.OK {
+			rows = append(rows, st)
+		}
+	}
+	p.f("<section class=\"register\">\n<h2>Inputs register</h2>\n")
+	if len(rows) == 0 {
+		p.f("<p>This sheet has no inputs of its own.</p>\n</section>\n")
+		return
+	}
+	p.f("<table>\n<thead><tr><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th><th>Line</th></tr></thead>\n<tbody>\n")
+	for _, st := range rows {
+		value, unit := InputText(st)
+		p.f("<tr><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td><a class=\"loc\" href=\"#%s\">%d</a></td></tr>\n",
+			symbolHTML(st.Name), esc(value), esc(unit), esc(st.Description), esc(st.Source), anchor(st), st.Pos.Line)
+	}
+	p.f("</tbody>\n</table>\n</section>\n")
+}
