@@ -24,13 +24,10 @@ func LoadRevision(spec string) (*Package, error) {
 	if folder == "" {
 		folder = "."
 	}
-	prefix, err := git("rev-parse", "--show-prefix")
-	if err != nil {
-		return nil, err
-	}
-	root := path.Clean(path.Join(strings.TrimSpace(string(prefix)), folder))
-	if strings.HasPrefix(root, "..") {
-		return nil, fmt.Errorf("%s lies outside the git repository", folder)
+	// git archive names files relative to the current directory.
+	root := path.Clean(strings.ReplaceAll(folder, "\\", "/"))
+	if root == ".." || strings.HasPrefix(root, "../") || path.IsAbs(root) {
+		return nil, fmt.Errorf("%s: name a folder below the current directory, or run sheaf from a folder that contains it", spec)
 	}
 	archive, err := git("archive", "--format=tar", rev, "--", pathspec(folder))
 	if err != nil {

@@ -180,3 +180,134 @@ func TestUnitsListsTheTable(t *testing.T) {
 		}
 	}
 }
+
+// copyDir copies the Markdown sheets of a folder.
+func copyDir(t *testing.T, from string) string {
+	t.Helper()
+	to := t.TempDir()
+	entries, err := os.ReadDir(from)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, e := range entries {
+		data, err := os.ReadFile(filepath.Join(from, e.Name()))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if err := os.WriteFile(filepath.Join(to, e.Name()), data, 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	return to
+}
+
+func TestVerify(t *testing.T) {
+	src := copyDir(t, demo)
+	out := t.TempDir()
+	if code, _, stderr := runCLI("build", src, "-o", out); code != exitOK {
+		t.Fatalf("build: exit %d: %s", code, stderr)
+	}
+	code, stdout, _ := runCLI("verify", out, src)
+	if code != exitOK || !strings.HasPrefix(stdout, "verified:") {
+		t.Fatalf("verify of an untouched build: exit %d: %s", code, stdout)
+	}
+
+	// One character of one source changes: verify fails and names the file.
+	sheet := filepath.Join(src, "03-speed-voltage.md")
+	data, _ := os.ReadFile(sheet)
+	changed := strings.Replace(string(data), "D = 0.900 m", "D = 0.901 m", 1)
+	if changed == string(data) {
+		t.Fatal("the demo sheet no longer has the line this test edits")
+	}
+	if err := os.WriteFile(sheet, []byte(changed), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, stdout, _ = runCLI("verify", out, src)
+	if code != exitCheckFailed || !strings.Contains(stdout, "03-speed-voltage.md: this source differs") {
+		t.Errorf("verify after a one-character change: exit %d:\n%s", code, stdout)
+	}
+	if err := os.WriteFile(sheet, data, 0o644); err != nil {
+		t.Fatal(err)
+	}
+
+	// A page edited after the build is named too.
+	page := filepath.Join(out, "sheets", "02-coil-emf.html")
+	html, _ := os.ReadFile(page)
+	if err := os.WriteFile(page, []byte(strings.Replace(string(html), "399.1", "398.1", 1)), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, stdout, _ = runCLI("verify", out, src)
+	if code != exitCheckFailed || !strings.Contains(stdout, "sheets/02-coil-emf.html: page has been changed since it was built") {
+		t.Errorf("verify after a page was edited: exit %d:\n%s", code, stdout)
+	}
+
+	// A source added to the folder is named.
+	if err := os.WriteFile(page, html, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(filepath.Join(src, "06-extra.md"), []byte("# extra\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, stdout, _ = runCLI("verify", out, src)
+	if code != exitCheckFailed || !strings.Contains(stdout, "06-extra.md: this source is not among") {
+		t.Errorf("verify with an extra source: exit %d:\n%s", code, stdout)
+	}
+}
+
+func TestEveryPageCarriesTheStampAndTheSourceDate(t *testing.T) {
+	out := t.TempDir()
+	t.Setenv("SOURCE_DATE_EPOCH", "")
+	if code, _, stderr := runCLI("build", demo, "-o", out, "--no-graphs"); code != exitOK {
+		t.Fatalf("build: %s", stderr)
+	}
+	var manifest struct {
+		Stamp     string `json:"stamp"`
+		BuildDate string `json:"build_date"`
+	}
+	data, _ := os.ReadFile(filepath.Join(out, "sheaf-manifest.json"))
+	if err := json.Unmarshal(data, &manifest); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.HasPrefix(manifest.Stamp, "sha256:") || len(manifest.Stamp) != 71 {
+		t.Fatalf("stamp %q", manifest.Stamp)
+	}
+	// The latest date in the demo's front matter, not today.
+	if manifest.BuildDate != "2026-11-30" {
+		t.Errorf("build date %q, want the sources' latest date 2026-11-30", manifest.BuildDate)
+	}
+	for name, page := range readTree(t, out) {
+		if strings.HasSuffix(name, ".html") && !bytes.Contains(page, []byte(manifest.Stamp)) {
+			t.Errorf("%s does not carry the stamp", name)
+		}
+	}
+	// SOURCE_DATE_EPOCH wins over the sources.
+	t.Setenv("SOURCE_DATE_EPOCH", "1767225600") // 2026-01-01T00:00:00Z
+	out2 := t.TempDir()
+	if code, _, _ := runCLI("build", demo, "-o", out2, "--no-graphs"); code != exitOK {
+		t.Fatal("build with SOURCE_DATE_EPOCH failed")
+	}
+	index, _ := os.ReadFile(filepath.Join(out2, "index.html"))
+	if !bytes.Contains(index, []byte("built 2026-01-01")) {
+		t.Errorf("SOURCE_DATE_EPOCH did not set the build date")
+	}
+}
+
+func TestAuditAndDiffCommandsOnTheDemo(t *testing.T) {
+	code, stdout, _ := runCLI("audit", demo)
+	if code != exitOK || !strings.Contains(stdout, "0 findings open, 4 accepted") {
+		t.Errorf("audit of the demo: exit %d:\n%s", code, stdout)
+	}
+	code, stdout, _ = runCLI("audit", "../../examples/tarnwick-weir-rev-A")
+	if code != exitCheckFailed || !strings.Contains(stdout, "[no-source] input N_1 has no source") {
+		t.Errorf("audit of revision A: exit %d:\n%s", code, stdout)
+	}
+	html := filepath.Join(t.TempDir(), "changes.html")
+	code, stdout, _ = runCLI("diff", "../../examples/tarnwick-weir-rev-A", demo, "--html", html)
+	if code != exitOK || !strings.Contains(stdout, "check flipped    check k_m * U_tt_s <= U_w_tt: FAIL (118 %) → PASS (27.5 %)") {
+		t.Errorf("diff of the demo's revisions: exit %d:\n%s", code, stdout)
+	}
+	page, err := os.ReadFile(html)
+	if err != nil || !bytes.Contains(page, []byte("<del>787.5 V</del>")) {
+		t.Errorf("diff page: %v", err)
+	}
+}
