@@ -56,6 +56,12 @@ func parseStatement(t *text) (*Statement, *diag.Diagnostic) {
 	}
 
 	i := skipSpace(r, 0)
+	switch w, j := word(r, i); {
+	case w == "param" && j < end && unicode.IsSpace(r[j]):
+		return st, parseParam(st, t, skipSpace(r, j), end)
+	case w == "use" && j < end && unicode.IsSpace(r[j]):
+		return st, parseUse(st, t, skipSpace(r, j), end)
+	}
 	if w, j := word(r, i); w == "check" && (j == end || r[j] == ' ' || r[j] == '\t' || r[j] == '[') {
 		st.Kind = Check
 		i = skipSpace(r, j)
@@ -275,7 +281,7 @@ func identifier(r []rune, i int) (string, int) {
 
 // reserved are words the formula parser gives a meaning of its own.
 var reserved = map[string]bool{
-	"check": true, "in": true, "not": true, "and": true, "or": true, "let": true, "if": true, "else": true,
+	"check": true, "use": true, "param": true, "with": true, "extrapolate": true, "in": true, "not": true, "and": true, "or": true, "let": true, "if": true, "else": true,
 	"true": true, "false": true, "nil": true, "matches": true, "contains": true, "startsWith": true, "endsWith": true,
 }
 
@@ -333,6 +339,14 @@ func prescan(t *text, from, to int) (*scanned, *diag.Diagnostic) {
 				// No name may start with _ (validName), and _q0, _q1, ... are
 				// the placeholders for literals below: refuse it here.
 				return nil, errAt(t.pos(i), "names start with a letter", "name %s starts with _", string(r[i:j]))
+			}
+			// A qualified name reaches into a template instance or a
+			// table: coil_a.lambda, BH.B.
+			for j+1 < to && r[j] == '.' && isIdentStart(r[j+1]) && r[j+1] != '_' {
+				j += 2
+				for j < to && isIdentPart(r[j]) {
+					j++
+				}
 			}
 			for k := i; k < j; k++ {
 				emit(string(r[k]), k)
@@ -693,8 +707,15 @@ func (c *converter) convert(n ast.Node) Expr {
 		return c.call(n, id.Value, n.Arguments, pos)
 	case *ast.BuiltinNode:
 		return c.call(n, n.Name, n.Arguments, pos)
-	case *ast.MemberNode, *ast.ChainNode:
-		return c.fail(n, "names cannot contain a dot; use _ for subscripts", "unexpected .")
+	case *ast.MemberNode:
+		if name, ok := qualifiedName(n); ok {
+			e := &Ref{Name: name}
+			e.P = c.s.at(c.t, qualifiedStart(n))
+			return e
+		}
+		return c.fail(n, "names use _ for subscripts; a dot reaches into a template instance or a table, as in coil_a.lambda", "unexpected .")
+	case *ast.ChainNode:
+		return c.fail(n, "names use _ for subscripts; a dot reaches into a template instance or a table, as in coil_a.lambda", "unexpected .")
 	case *ast.ConditionalNode:
 		return c.fail(n, "", "conditional expressions are not supported")
 	case *ast.StringNode, *ast.BytesNode:
@@ -750,4 +771,32 @@ func isComparison(op string) bool {
 		return true
 	}
 	return false
+}
+
+// qualifiedName flattens a.b.c, which the expression parser reads as
+// member accesses, into one name.
+func qualifiedName(n ast.Node) (string, bool) {
+	switch n := n.(type) {
+	case *ast.IdentifierNode:
+		return n.Value, true
+	case *ast.MemberNode:
+		prop, ok := n.Property.(*ast.StringNode)
+		if !ok || n.Optional || n.Method {
+			return "", false
+		}
+		head, ok := qualifiedName(n.Node)
+		return head + "." + prop.Value, ok
+	}
+	return "", false
+}
+
+// qualifiedStart is where a qualified name begins in the scanned text.
+func qualifiedStart(n ast.Node) int {
+	for {
+		m, ok := n.(*ast.MemberNode)
+		if !ok {
+			return n.Location().From
+		}
+		n = m.Node
+	}
 }

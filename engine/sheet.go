@@ -32,9 +32,15 @@ func (s *Sheet) Lookup(name string) *Statement { return s.byName[name] }
 
 // Compile parses, resolves, orders and checks every statement of a sheet,
 // and compiles the ones that are sound. A bad statement is reported and
-// skipped; statements that do not depend on it are unaffected.
-func Compile(src SheetSource) *Sheet {
+// skipped; statements that do not depend on it are unaffected. Use
+// statements are errors: CompileWith reads templates.
+func Compile(src SheetSource) *Sheet { return CompileWith(src, Options{}) }
+
+// CompileWith compiles a sheet whose use statements find their templates
+// through opt.Resolve.
+func CompileWith(src SheetSource, opt Options) *Sheet {
 	s := &Sheet{Path: src.Path, byName: map[string]*Statement{}}
+	var parsed []*Statement
 	for bi, b := range src.Blocks {
 		texts := splitStatements(b)
 		if len(texts) == 0 {
@@ -43,14 +49,17 @@ func Compile(src SheetSource) *Sheet {
 		}
 		for _, t := range texts {
 			st, err := parseStatement(t)
-			st.Index = len(s.Statements)
 			st.Block = bi
-			st.slot = st.Index
-			s.Statements = append(s.Statements, st)
+			parsed = append(parsed, st)
 			if err != nil {
 				s.fail(st, err)
 			}
 		}
+	}
+	x := &expander{sheet: s, resolve: opt.Resolve, stack: []string{src.Path}}
+	s.Statements = x.expand(parsed, src.Path)
+	for i, st := range s.Statements {
+		st.Index, st.slot = i, i
 	}
 	s.values = make([]float64, len(s.Statements))
 	s.define()
@@ -59,7 +68,7 @@ func Compile(src SheetSource) *Sheet {
 	for _, st := range s.Order {
 		s.check(st)
 	}
-	s.linkAssumptions(src.Assumptions)
+	s.linkAssumptions(append(src.Assumptions, x.assumptions...))
 	s.Diags.Sort()
 	return s
 }
@@ -75,8 +84,21 @@ func (s *Sheet) fail(st *Statement, d *diag.Diagnostic) {
 
 // define records every name; a second definition of a name is an error.
 func (s *Sheet) define() {
+	instances := map[string]*Statement{}
 	for _, st := range s.Statements {
-		if st.Kind != Definition || st.Name == "" {
+		if st.Kind == Use && st.Instance == "" {
+			if first, dup := instances[st.Name]; dup {
+				s.fail(st, errAt(st.NamePos, "give each instance its own name", "instance %s is already defined at %d:%d", st.Name, first.NamePos.Line, first.NamePos.Col))
+			}
+			instances[st.Name] = st
+		}
+	}
+	for _, st := range s.Statements {
+		if (st.Kind != Definition && st.Kind != Param) || st.Name == "" {
+			continue
+		}
+		if inst, clash := instances[st.Name]; clash && st.Instance == "" {
+			s.fail(st, errAt(st.NamePos, "rename one of them", "%s is already the name of the instance at %d:%d", st.Name, inst.NamePos.Line, inst.NamePos.Col))
 			continue
 		}
 		if first, dup := s.byName[st.Name]; dup {
@@ -197,6 +219,15 @@ func (s *Sheet) check(st *Statement) {
 	if st.Status == Failed {
 		return
 	}
+	switch st.Kind {
+	case Use:
+		st.Status = OK // the instance's own statements carry its results
+		return
+	case Param:
+		s.fail(st, errAt(st.NamePos, "this sheet is a template: use it from another sheet with use ... with "+st.Name+" = ...",
+			"%s is a template parameter and has no value here", st.Name))
+		return
+	}
 	for _, d := range st.Deps {
 		if !d.compiled {
 			st.Status = Blocked
@@ -218,6 +249,10 @@ func (s *Sheet) check(st *Statement) {
 			st.Type.Kind = cmp.Y.Type().Kind
 		}
 		name = "the checked quantity"
+	}
+	if err := overrideProblem(st); err != nil {
+		s.fail(st, err)
+		return
 	}
 	if st.Display != nil {
 		if msg, hint := displayProblem(name, formula, st.Type, *st.Display); msg != "" {

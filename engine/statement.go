@@ -15,6 +15,12 @@ const (
 	Definition StmtKind = iota
 	// Check is `check left OP right`: a comparison that must hold.
 	Check
+	// Param is `param name [unit]`: an input a template requires, with a
+	// unit and no value; a sheet that uses the template sets it.
+	Param
+	// Use is `use name = template with a = ..., b = ...`: an instance of a
+	// template under a name of the sheet's own.
+	Use
 )
 
 // Status is how a statement came out.
@@ -85,6 +91,21 @@ type Statement struct {
 	// the two sides of a check.
 	Type Type
 
+	// Template reuse. On a Use statement: Template is the template as
+	// named, and Overrides the inputs it sets. On a statement that comes
+	// from a template: Instance is the instance name ("coil_a"; nested
+	// instances "coil_a.gap"), Use the statement that made it, and, when
+	// the user set its value, Overridden and Default (the template's own
+	// value). Declared is the unit a template input must measure: a
+	// parameter's unit, or the unit of its default.
+	Template   string
+	Overrides  []Override
+	Instance   string
+	Use        *Statement
+	Overridden bool
+	Default    Expr
+	Declared   *units.Unit
+
 	// Deps are the statements this one uses directly, in order of first
 	// use; Users are those that use it.
 	Deps  []*Statement
@@ -108,6 +129,14 @@ type Statement struct {
 	compiled bool
 	fn       evalFn // a definition's value, or a check's left side
 	right    evalFn // a check's right side
+}
+
+// Override is one `name = formula` after `with` in a use statement.
+type Override struct {
+	Name    string
+	NamePos diag.Pos
+	Formula string
+	Expr    Expr
 }
 
 // IsInput reports whether a definition's right side is a single literal,

@@ -26,10 +26,13 @@ const DefaultDigits = 4
 
 // Package is a compiled and evaluated calculation package.
 type Package struct {
-	Root   string       // the folder as given
-	Sheets []*Sheet     // sorted by path
-	Files  []SourceFile // every source file with its hash, sorted by path
-	Diags  diag.List
+	Root   string   // the folder as given
+	Sheets []*Sheet // the pages of the package, sorted by path
+	// Templates are the package's sheets that other sheets use and that
+	// are not pages themselves, sorted by path.
+	Templates []*sheets.Sheet
+	Files     []SourceFile // every source file with its hash, sorted by path
+	Diags     diag.List
 }
 
 // Sheet pairs a parsed Markdown sheet with its compiled calculation.
@@ -52,10 +55,13 @@ func (s *Sheet) Title() string {
 	return strings.TrimSuffix(path.Base(s.Doc.Path), ".md")
 }
 
-// Load reads a package from a folder (every .md file below it, skipping
-// folders whose names start with . or _) or from a single Markdown file.
-// It fails only when the files cannot be read; problems inside the sheets
-// are diagnostics of the returned package.
+// Load reads a package from a folder, or from a single Markdown file.
+// Every .md file below the folder is read, except in folders whose names
+// start with "."; files in folders whose names start with "_", and sheets
+// whose front matter says template: true, are templates: other sheets use
+// them, and they are not pages of their own. Load fails only when the
+// files cannot be read; problems inside the sheets are diagnostics of the
+// returned package.
 func Load(root string) (*Package, error) {
 	info, err := os.Stat(root)
 	if err != nil {
@@ -76,7 +82,7 @@ func Load(root string) (*Package, error) {
 		}
 		name := d.Name()
 		if d.IsDir() {
-			if p != root && (strings.HasPrefix(name, ".") || strings.HasPrefix(name, "_")) {
+			if p != root && strings.HasPrefix(name, ".") {
 				return filepath.SkipDir
 			}
 			return nil
@@ -101,34 +107,52 @@ func Load(root string) (*Package, error) {
 	return FromFiles(root, files), nil
 }
 
+// isTemplatePath reports whether a file lies in a folder whose name starts
+// with "_".
+func isTemplatePath(p string) bool {
+	parts := strings.Split(p, "/")
+	for _, d := range parts[:len(parts)-1] {
+		if strings.HasPrefix(d, "_") {
+			return true
+		}
+	}
+	return false
+}
+
 // FromFiles builds a package from file contents keyed by their path inside
-// the package. Sheets compile in parallel; the result does not depend on
-// the order in which they finish.
+// the package. Files are parsed and sheets compiled in parallel; the result
+// does not depend on the order in which they finish.
 func FromFiles(root string, files map[string][]byte) *Package {
 	paths := make([]string, 0, len(files))
 	for p := range files {
 		paths = append(paths, p)
 	}
 	sort.Strings(paths)
-	pkg := &Package{Root: root, Sheets: make([]*Sheet, len(paths)), Files: sourceFiles(files)}
+	pkg := &Package{Root: root, Files: sourceFiles(files)}
 
-	work := make(chan int)
-	var wg sync.WaitGroup
-	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for i := range work {
-				pkg.Sheets[i] = compileSheet(paths[i], files[paths[i]])
-			}
-		}()
+	docs := make([]*sheets.Sheet, len(paths))
+	parallel(len(paths), func(i int) { docs[i] = sheets.Parse(paths[i], files[paths[i]]) })
+	r := &resolver{docs: map[string]*sheets.Sheet{}}
+	var pages []*sheets.Sheet
+	for _, d := range docs {
+		r.docs[d.Path] = d
+		if d.Meta.Template || isTemplatePath(d.Path) {
+			pkg.Templates = append(pkg.Templates, d)
+			continue
+		}
+		pages = append(pages, d)
 	}
-	for i := range paths {
-		work <- i
-	}
-	close(work)
-	wg.Wait()
+	pkg.Sheets = make([]*Sheet, len(pages))
+	parallel(len(pages), func(i int) {
+		doc := pages[i]
+		calc := engine.CompileWith(sourceOf(doc), engine.Options{Resolve: r.resolve})
+		calc.Evaluate()
+		pkg.Sheets[i] = &Sheet{Doc: doc, Calc: calc, Page: "sheets/" + strings.TrimSuffix(doc.Path, path.Ext(doc.Path)) + ".html"}
+	})
 
+	for _, d := range pkg.Templates {
+		pkg.Diags = append(pkg.Diags, d.Diags...)
+	}
 	for _, s := range pkg.Sheets {
 		pkg.Diags = append(pkg.Diags, s.Doc.Diags...)
 		pkg.Diags = append(pkg.Diags, s.Calc.Diags...)
@@ -137,9 +161,29 @@ func FromFiles(root string, files map[string][]byte) *Package {
 	return pkg
 }
 
-func compileSheet(p string, data []byte) *Sheet {
-	doc := sheets.Parse(p, data)
-	src := engine.SheetSource{Path: p}
+// parallel runs f(0..n-1) on as many goroutines as there are processors.
+func parallel(n int, f func(i int)) {
+	work := make(chan int)
+	var wg sync.WaitGroup
+	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range work {
+				f(i)
+			}
+		}()
+	}
+	for i := 0; i < n; i++ {
+		work <- i
+	}
+	close(work)
+	wg.Wait()
+}
+
+// sourceOf gives the engine a sheet's formula blocks and assumptions.
+func sourceOf(doc *sheets.Sheet) engine.SheetSource {
+	src := engine.SheetSource{Path: doc.Path}
 	for _, a := range doc.Assumptions {
 		src.Assumptions = append(src.Assumptions, engine.AssumptionSource{ID: a.ID, Text: a.Text, Pos: a.Pos})
 	}
@@ -150,9 +194,48 @@ func compileSheet(p string, data []byte) *Sheet {
 		}
 		src.Blocks = append(src.Blocks, eb)
 	}
-	calc := engine.Compile(src)
-	calc.Evaluate()
-	return &Sheet{Doc: doc, Calc: calc, Page: "sheets/" + strings.TrimSuffix(p, path.Ext(p)) + ".html"}
+	return src
+}
+
+// resolver finds templates for use statements: the built-in library
+// (lib/<name>) or a sheet of the package, by its path relative to the
+// sheet that uses it. Nothing outside the package folder can be named: the
+// package's files were read before compiling, and a path that leaves the
+// folder is refused.
+type resolver struct {
+	docs map[string]*sheets.Sheet
+}
+
+func (r *resolver) resolve(ref, from string) (engine.SheetSource, string, error) {
+	if name, ok := strings.CutPrefix(ref, sheets.LibraryPrefix); ok {
+		doc, err := sheets.LibraryTemplate(name)
+		if err != nil {
+			return engine.SheetSource{}, "", err
+		}
+		return sourceOf(doc), doc.Path, nil
+	}
+	if strings.HasPrefix(from, sheets.LibraryPrefix) {
+		return engine.SheetSource{}, "", fmt.Errorf("a built-in template can use only other built-in templates, not %s", ref)
+	}
+	if path.IsAbs(ref) || strings.ContainsAny(ref, "\\:") {
+		return engine.SheetSource{}, "", fmt.Errorf("template %s must be a path inside the package folder, written with /", ref)
+	}
+	p := path.Clean(path.Join(path.Dir(from), ref))
+	if !strings.EqualFold(path.Ext(p), ".md") {
+		p += ".md"
+	}
+	if p == ".." || strings.HasPrefix(p, "../") {
+		return engine.SheetSource{}, "", fmt.Errorf("template %s leaves the package folder; templates must lie inside it", ref)
+	}
+	doc, ok := r.docs[p]
+	if !ok {
+		return engine.SheetSource{}, "", fmt.Errorf("no sheet %s in the package", p)
+	}
+	if doc.Diags.Errors() > 0 {
+		d := doc.Diags[0]
+		return engine.SheetSource{}, "", fmt.Errorf("template %s has an error at %s: %s", p, d.Pos, d.Message)
+	}
+	return sourceOf(doc), p, nil
 }
 
 // Counts tallies a sheet's or a package's outcomes.
@@ -172,6 +255,9 @@ func (s *Sheet) Counts() Counts {
 	for _, st := range s.Calc.Statements {
 		switch st.Status {
 		case engine.OK:
+			if st.Kind == engine.Use {
+				continue // an instance's results are its own statements
+			}
 			c.Results++
 			if st.IsInput() {
 				c.Inputs++

@@ -20,6 +20,11 @@ func Terminal(pkg *project.Package, opt Options, out, errs io.Writer) {
 			if line == "" {
 				continue
 			}
+			if st.Instance != "" {
+				// From a template: indented under its use statement.
+				fmt.Fprintf(out, "          %s\n", line)
+				continue
+			}
 			fmt.Fprintf(out, "  %4d  %s\n", st.Pos.Line, line)
 		}
 		fmt.Fprintln(out)
@@ -53,6 +58,9 @@ func Count(n int, noun string) string {
 
 // TerminalLine writes one statement's outcome as a line of text.
 func TerminalLine(st *engine.Statement, digits int) string {
+	if st.Kind == engine.Use && st.Status == engine.OK {
+		return fmt.Sprintf("use %s = %s", st.Name, st.Formula)
+	}
 	switch st.Status {
 	case engine.OK:
 		if st.IsInput() {
@@ -69,7 +77,7 @@ func TerminalLine(st *engine.Statement, digits int) string {
 		if st.Status == engine.Fail {
 			verdict = "FAIL"
 		}
-		s := fmt.Sprintf("%s  %s  (%s %s %s", verdict, st.Formula,
+		s := fmt.Sprintf("%s  %s%s  (%s %s %s", verdict, instancePrefix(st), st.Formula,
 			ValueText(st.Left, st.Shown, digits), relations[cmp.Op], ValueText(st.Right, st.Shown, digits))
 		if u := UtilisationText(st.Utilisation); u != "" {
 			s += ", utilisation " + u
@@ -101,4 +109,12 @@ func ValueText(si float64, u units.Unit, digits int) string {
 		s += u.Symbol
 	}
 	return s
+}
+
+// instancePrefix names the instance a statement comes from: "c1: ".
+func instancePrefix(st *engine.Statement) string {
+	if st.Instance == "" {
+		return ""
+	}
+	return st.Instance + ": "
 }

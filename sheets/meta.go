@@ -35,6 +35,9 @@ type Meta struct {
 	// Digits is the number of significant figures for results; 0 means the
 	// package default.
 	Digits int `json:"digits,omitempty"`
+	// Template marks a sheet that other sheets use and that is not a page
+	// of the package itself.
+	Template bool `json:"template,omitempty"`
 }
 
 // Revision is one row of a sheet's revision history.
@@ -94,7 +97,7 @@ var metaFields = map[string]func(*Meta) *string{
 var dateFields = map[string]bool{"date": true, "prepared_on": true, "checked_on": true, "approved_on": true}
 
 func knownFields() string {
-	names := []string{"digits", "history", "accept"}
+	names := []string{"digits", "history", "accept", "template"}
 	for k := range metaFields {
 		names = append(names, k)
 	}
@@ -194,6 +197,13 @@ func decodeMeta(path string, text []byte, diags *diag.List) Meta {
 			continue
 		}
 		switch key {
+		case "template":
+			b, err := strconv.ParseBool(v.Value)
+			if err != nil {
+				diags.Add(at(v), "write template: true", "template must be true or false")
+			}
+			m.Template = b
+			continue
 		case "history":
 			m.History = decodeHistory(v, at, diags)
 			continue

@@ -1,0 +1,364 @@
+package engine
+
+import (
+	"sort"
+	"strings"
+	"unicode"
+
+	"github.com/sheaf-calc/sheaf/diag"
+	"github.com/sheaf-calc/sheaf/units"
+)
+
+// Resolver finds a template named by a use statement: ref as written, from
+// the path of the sheet (or template) that uses it. It returns the
+// template's source with Path set to the name errors should show, and a
+// key that is the same for every way of naming the same template (for
+// reporting import cycles).
+type Resolver func(ref, from string) (src SheetSource, key string, err error)
+
+// Options control compilation.
+type Options struct {
+	// Resolve finds templates; nil means use statements are errors.
+	Resolve Resolver
+}
+
+// MaxTemplateDepth bounds templates that use templates.
+const MaxTemplateDepth = 16
+
+// parseParam reads `param name [unit]`.
+func parseParam(st *Statement, t *text, i, end int) *diag.Diagnostic {
+	r := t.runes
+	st.Kind = Param
+	name, j := identifier(r, i)
+	if name == "" {
+		return errAt(t.pos(i), "write for example: param Phi [Wb] ; flux per pole", "param needs a name")
+	}
+	st.Name, st.NamePos = name, t.pos(i)
+	if err := validName(name, st.NamePos); err != nil {
+		return err
+	}
+	j = skipSpace(r, j)
+	if j >= end || r[j] != '[' {
+		return errAt(t.pos(j), "write the unit it is measured in, for example param "+name+" [Wb], or [1] for a pure number",
+			"param %s needs a unit in [ ]", name)
+	}
+	k, err := parseDisplay(st, t, j, end)
+	if err != nil {
+		return err
+	}
+	if skipSpace(r[:end], k) != end {
+		return errAt(t.pos(k), "a parameter has no value: the sheet that uses the template sets it", "unexpected text after param %s [%s]", name, st.DisplayText)
+	}
+	st.Declared = st.Display
+	st.Formula = "[" + st.DisplayText + "]"
+	return nil
+}
+
+// parseUse reads `use name = template with a = formula, b = formula`.
+func parseUse(st *Statement, t *text, i, end int) *diag.Diagnostic {
+	r := t.runes
+	st.Kind = Use
+	const example = `write for example: use coil_a = lib/magnetic-circuit with N = N_f, I = I_f`
+	name, j := identifier(r, i)
+	if name == "" {
+		return errAt(t.pos(i), example, "use needs a name for the instance")
+	}
+	st.Name, st.NamePos = name, t.pos(i)
+	if err := validName(name, st.NamePos); err != nil {
+		return err
+	}
+	j = skipSpace(r, j)
+	if j >= end || r[j] != '=' {
+		return errAt(t.pos(j), example, "expected = after use %s", name)
+	}
+	j = skipSpace(r, j+1)
+	// The template: a quoted name, or a name without spaces.
+	start := j
+	if j < end && r[j] == '"' {
+		k := j + 1
+		for k < end && r[k] != '"' {
+			k++
+		}
+		if k >= end {
+			return errAt(t.pos(j), "close the template name with \"", "unterminated template name")
+		}
+		st.Template = string(r[j+1 : k])
+		j = k + 1
+	} else {
+		for j < end && !unicode.IsSpace(r[j]) {
+			j++
+		}
+		st.Template = string(r[start:j])
+	}
+	if st.Template == "" {
+		return errAt(t.pos(start), example, "use %s = needs a template", name)
+	}
+	st.Formula = strings.TrimSpace(string(r[start:end]))
+	st.DisplayPos = t.pos(start)
+	j = skipSpace(r, j)
+	if j >= end {
+		return nil
+	}
+	if w, k := word(r, j); w != "with" {
+		return errAt(t.pos(j), "set the template's inputs after with: "+example, "unexpected text after the template")
+	} else {
+		j = k
+	}
+	// Assignments, separated by commas outside parentheses.
+	for j < end {
+		j = skipSpace(r, j)
+		n, k := identifier(r, j)
+		if n == "" {
+			return errAt(t.pos(j), "write name = formula", "expected the name of an input of the template")
+		}
+		o := Override{Name: n, NamePos: t.pos(j)}
+		k = skipSpace(r, k)
+		if k >= end || r[k] != '=' || (k+1 < end && r[k+1] == '=') {
+			return errAt(t.pos(k), "write "+n+" = formula", "expected = after %s", n)
+		}
+		from := k + 1
+		depth, stop := 0, from
+		for stop < end {
+			c := r[stop]
+			if c == '(' {
+				depth++
+			} else if c == ')' {
+				depth--
+			} else if c == ',' && depth == 0 {
+				break
+			}
+			stop++
+		}
+		if skipSpace(r[:stop], from) == stop {
+			return errAt(t.pos(from), "write the value or formula after =", "%s = has nothing on the right", n)
+		}
+		o.Formula = strings.TrimSpace(string(r[from:stop]))
+		e, err := parseFormula(t, from, stop)
+		if err != nil {
+			return err
+		}
+		for _, prev := range st.Overrides {
+			if prev.Name == n {
+				return errAt(o.NamePos, "set each input once", "%s is set twice", n)
+			}
+		}
+		o.Expr = e
+		st.Overrides = append(st.Overrides, o)
+		j = stop + 1
+	}
+	return nil
+}
+
+// expander turns use statements into the statements of their instances.
+type expander struct {
+	sheet   *Sheet
+	resolve Resolver
+	stack   []string // template keys being expanded, for cycles
+	// assumptions are the prose assumptions of the templates, under the
+	// instance's name: "coil_a.uniform-gap".
+	assumptions []AssumptionSource
+}
+
+// expand returns the statements of a sheet with every instance's
+// statements placed after its use statement.
+func (x *expander) expand(sts []*Statement, from string) []*Statement {
+	var out []*Statement
+	for _, st := range sts {
+		out = append(out, st)
+		if st.Kind != Use || st.Status == Failed {
+			continue
+		}
+		out = append(out, x.instantiate(st, from)...)
+	}
+	return out
+}
+
+// instantiate compiles the template a use statement names, under the
+// instance's name, with the inputs it sets.
+func (x *expander) instantiate(use *Statement, from string) []*Statement {
+	fail := func(d *diag.Diagnostic) []*Statement {
+		x.sheet.fail(use, d)
+		return nil
+	}
+	if x.resolve == nil {
+		return fail(errAt(use.DisplayPos, "templates are read from the package folder or the built-in library", "templates are not available here"))
+	}
+	if len(x.stack) >= MaxTemplateDepth {
+		return fail(errAt(use.DisplayPos, "", "templates nested more than %d deep", MaxTemplateDepth))
+	}
+	src, key, err := x.resolve(use.Template, from)
+	if err != nil {
+		return fail(errAt(use.DisplayPos, "run `sheaf templates` for the built-in library; other templates are paths inside the package folder", "%v", err))
+	}
+	for i, k := range x.stack {
+		if k == key {
+			chain := append(append([]string{}, x.stack[i:]...), key)
+			return fail(errAt(use.DisplayPos, "a template may not use itself, directly or through others",
+				"template cycle: %s", strings.Join(chain, " → ")))
+		}
+	}
+	x.stack = append(x.stack, key)
+	defer func() { x.stack = x.stack[:len(x.stack)-1] }()
+
+	// Parse the template afresh: every instance has statements of its own.
+	var body []*Statement
+	for _, b := range src.Blocks {
+		for _, t := range splitStatements(b) {
+			st, perr := parseStatement(t)
+			if perr != nil {
+				return fail(errAt(use.DisplayPos, "fix the template first", "template %s has an error at %s: %s", use.Template, perr.Pos, perr.Message))
+			}
+			body = append(body, st)
+		}
+	}
+	body = x.expand(body, src.Path)
+	for _, a := range src.Assumptions {
+		a.ID = use.Name + "." + a.ID
+		x.assumptions = append(x.assumptions, a)
+	}
+
+	// Names the template defines, and the instances inside it.
+	local := map[string]*Statement{}
+	for _, st := range body {
+		if st.Name != "" && (st.Kind == Definition || st.Kind == Param) && st.Instance == "" {
+			local[st.Name] = st
+		}
+	}
+	prefix := use.Name + "."
+	inner := map[string]bool{}
+	for _, st := range body {
+		if st.Kind == Use && st.Instance == "" {
+			inner[st.Name] = true
+		}
+	}
+	rename := func(name string) string {
+		head, _, _ := strings.Cut(name, ".")
+		if _, ok := local[name]; ok || inner[head] {
+			return prefix + name
+		}
+		return name
+	}
+
+	// Apply the user's values.
+	set := map[string]bool{}
+	mine := map[*Statement]bool{} // formulas written in the using sheet
+	for _, o := range use.Overrides {
+		target, ok := local[o.Name]
+		if !ok || !(target.Kind == Param || target.IsInput()) {
+			return fail(errAt(o.NamePos, "its inputs are "+inputList(body), "template %s has no input %s", use.Template, o.Name))
+		}
+		set[o.Name] = true
+		mine[target] = true
+		target.Default = target.Expr
+		target.Expr = o.Expr
+		target.Overridden = true
+		target.Formula = o.Formula
+	}
+	var missing []string
+	for _, st := range body {
+		if st.Kind == Param && st.Instance == "" && !set[st.Name] {
+			desc := st.Name + " [" + st.DisplayText + "]"
+			if st.Description != "" {
+				desc += " (" + st.Description + ")"
+			}
+			missing = append(missing, desc)
+		}
+	}
+	if len(missing) > 0 {
+		return fail(errAt(use.DisplayPos, "set them after with, for example: with "+strings.SplitN(missing[0], " ", 2)[0]+" = ...",
+			"%s needs %s", use.Template, strings.Join(missing, ", ")))
+	}
+
+	for _, st := range body {
+		if st.Kind == Param || st.IsInput() {
+			if st.Declared == nil {
+				st.Declared = literalUnit(valueExpr(st))
+			}
+			if st.Kind == Param {
+				st.Kind = Definition // it has its value now
+			}
+		}
+		// Names inside the template's own formulas refer to the instance;
+		// the user's formulas keep the user's names.
+		if !mine[st] {
+			Walk(st.Expr, func(e Expr) {
+				if r, ok := e.(*Ref); ok {
+					r.Name = rename(r.Name)
+				}
+			})
+		}
+		if st.Name != "" {
+			st.Name = prefix + st.Name
+		}
+		for i, id := range st.Assumes {
+			st.Assumes[i] = prefix + id
+		}
+		if st.Instance == "" {
+			st.Instance = use.Name
+			st.Use = use
+		} else {
+			st.Instance = prefix + st.Instance
+		}
+		st.Block = use.Block
+	}
+	return body
+}
+
+// valueExpr is the template's own value of an input: its default when the
+// user set it.
+func valueExpr(st *Statement) Expr {
+	if st.Default != nil {
+		return st.Default
+	}
+	return st.Expr
+}
+
+// literalUnit is the unit a literal was written in.
+func literalUnit(e Expr) *units.Unit {
+	if u, ok := e.(*Unary); ok {
+		e = u.X
+	}
+	switch n := e.(type) {
+	case *Quantity:
+		u := n.Unit
+		return &u
+	case *Number:
+		u := units.One
+		return &u
+	}
+	return nil
+}
+
+func inputList(body []*Statement) string {
+	var names []string
+	for _, st := range body {
+		if st.Instance == "" && (st.Kind == Param || st.IsInput() || st.Overridden) {
+			names = append(names, st.Name)
+		}
+	}
+	sort.Strings(names)
+	if len(names) == 0 {
+		return "none"
+	}
+	return strings.Join(names, ", ")
+}
+
+// overrideProblem says why a value set by a use statement does not fit the
+// template's input, or returns nil.
+func overrideProblem(st *Statement) *diag.Diagnostic {
+	if !st.Overridden || st.Declared == nil {
+		return nil
+	}
+	if st.Type.Dim != st.Declared.Dim {
+		want := "a value in " + st.Declared.Symbol + " or a unit of the same kind"
+		if st.Declared.Dim.IsDimensionless() {
+			want = "a pure number"
+		}
+		return errAt(st.Expr.Pos(), "give "+st.Name+" "+want,
+			"%s must be %s, but the value set is %s", st.Name, units.Describe(st.Declared.Dim), units.Describe(st.Type.Dim))
+	}
+	if msg, hint := displayProblem(st.Name, "", st.Type, *st.Declared); msg != "" && st.Declared.Kind != units.Plain {
+		return errAt(st.Expr.Pos(), hint, "%s", msg)
+	}
+	return nil
+}
