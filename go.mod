@@ -5,6 +5,7 @@ go 1.26.8
 require (
 	github.com/expr-lang/expr v1.17.8
 	github.com/goccy/go-graphviz v0.2.10
+	github.com/santhosh-tekuri/jsonschema/v6 v6.0.3
 	github.com/spf13/cobra v1.10.2
 	github.com/yuin/goldmark v1.8.7
 	go.abhg.dev/goldmark/frontmatter v0.2.0

@@ -53,7 +53,11 @@ func (p *Package) Stamp() string { return StampOf(p.Files, version.Version) }
 func (p *Package) BuildDate(sourceDateEpoch string) string {
 	if sourceDateEpoch != "" {
 		if secs, err := strconv.ParseInt(strings.TrimSpace(sourceDateEpoch), 10, 64); err == nil {
-			return time.Unix(secs, 0).UTC().Format("2006-01-02")
+			// An epoch past year 9999 (or before year 0) would format as
+			// no YYYY-MM-DD date; it is ignored like a malformed one.
+			if d := time.Unix(secs, 0).UTC().Format("2006-01-02"); isISODate(d) {
+				return d
+			}
 		}
 	}
 	latest := ""
