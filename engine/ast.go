@@ -59,12 +59,21 @@ type Quantity struct {
 	SI       float64
 }
 
-// Ref names a statement of the sheet or a built-in constant.
+// Ref names a statement of the sheet, a built-in constant, or a column of
+// a table (BH.B).
 type Ref struct {
 	node
 	Name     string
 	Target   *Statement      // set when the name is a statement of the sheet
 	Constant *units.Constant // set when it is a built-in constant
+	Column   *Column         // set when it is a table column
+}
+
+// Keyword is a word with a meaning of its own inside a call:
+// interp(BH.B, BH.H, H_c, extrapolate).
+type Keyword struct {
+	node
+	Word string
 }
 
 // Unary is -x or +x.
@@ -87,11 +96,16 @@ type Call struct {
 	Name string
 	Func *Function
 	Args []Expr
+	// table is the fitted interpolator of interp and spline, or the
+	// columns of lookup, set when the call is checked.
+	table *interpolator
+	y, x  *Column
 }
 
 func (*Number) children() []Expr   { return nil }
 func (*Quantity) children() []Expr { return nil }
 func (*Ref) children() []Expr      { return nil }
+func (*Keyword) children() []Expr  { return nil }
 func (u *Unary) children() []Expr  { return []Expr{u.X} }
 func (b *Binary) children() []Expr { return []Expr{b.X, b.Y} }
 func (c *Call) children() []Expr   { return c.Args }

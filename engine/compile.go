@@ -11,6 +11,12 @@ type evalFn func(v []float64) float64
 
 // compile builds the closure for every node of e and returns the root's.
 func compile(e Expr) evalFn {
+	if c, ok := e.(*Call); ok && c.Func.table != "" {
+		// Table columns are data, not values: only the x argument compiles.
+		fn := compileCall(c)
+		c.fn = fn
+		return fn
+	}
 	for _, c := range e.children() {
 		compile(c)
 	}
@@ -124,6 +130,20 @@ func constOf(e Expr) (float64, bool) {
 }
 
 func compileCall(n *Call) evalFn {
+	if n.Func.table != "" {
+		x := compile(n.Args[2])
+		if n.table != nil {
+			ip := n.table
+			return func(v []float64) float64 { return ip.at(x(v)) }
+		}
+		xs, ys := n.x, n.y
+		return func(v []float64) float64 {
+			if i := lookupIndex(xs, x(v)); i >= 0 {
+				return ys.Values[i]
+			}
+			return math.NaN()
+		}
+	}
 	f := n.Func
 	args := make([]evalFn, len(n.Args))
 	for i, a := range n.Args {

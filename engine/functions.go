@@ -41,8 +41,10 @@ type Function struct {
 	result  resultRule
 	// domain explains a non-finite result from finite arguments.
 	domain string
-	f1     func(float64) float64
-	f2     func(float64, float64) float64
+	// table marks interp, spline and lookup, which read table columns.
+	table string
+	f1    func(float64) float64
+	f2    func(float64, float64) float64
 }
 
 func (f *Function) arity() string {
@@ -92,6 +94,14 @@ func init() {
 		one("floor", "largest whole number not above x; x a pure number", dimensionless, plainOne, "", math.Floor),
 		one("ceil", "smallest whole number not below x; x a pure number", dimensionless, plainOne, "", math.Ceil),
 		one("round", "nearest whole number, halves away from zero; x a pure number", dimensionless, plainOne, "", math.Round),
+		{Name: "interp", MinArgs: 3, MaxArgs: 4, Usage: "interp(T.y, T.x, x) or interp(T.y, T.x, x, extrapolate)", table: "linear",
+			Doc: "y read from table T at x, straight lines between rows; refuses an x outside the table unless told to extrapolate"},
+		{Name: "spline", MinArgs: 3, MaxArgs: 4, Usage: "spline(T.y, T.x, x) or spline(T.y, T.x, x, extrapolate)", table: "cubic",
+			Doc: "y read from table T at x along a monotone cubic (Fritsch–Butland) through the rows; refuses an x outside the table unless told to extrapolate"},
+		{Name: "solve", MinArgs: 3, MaxArgs: 3, Usage: "x = solve(left == right, lowest, highest)",
+			Doc: "the x between lowest and highest for which the relation holds (Brent's method); the relation may use statements that use x"},
+		{Name: "lookup", MinArgs: 3, MaxArgs: 3, Usage: "lookup(T.y, T.x, x)", table: "exact",
+			Doc: "y from the row of table T whose x equals the given x"},
 	} {
 		functions[f.Name] = f
 	}

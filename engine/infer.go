@@ -14,6 +14,9 @@ var dimTemperature = units.DimOf(units.Temperature)
 // before anything is evaluated. Names must already be resolved and the
 // statements they name already inferred.
 func infer(e Expr) *diag.Diagnostic {
+	if c, ok := e.(*Call); ok && c.Func.table != "" {
+		return inferTableCall(c)
+	}
 	for _, c := range e.children() {
 		if err := infer(c); err != nil {
 			return err
@@ -26,6 +29,10 @@ func infer(e Expr) *diag.Diagnostic {
 	case *Quantity:
 		*t = Type{Dim: n.Unit.Dim, Kind: n.Unit.Kind, Const: true, Val: n.SI}
 	case *Ref:
+		if n.Column != nil {
+			return errAt(n.Pos(), "read it with interp("+n.Name+", ...), spline(...) or lookup(...)",
+				"%s is a column of table %s, not a single value", n.Name, n.Column.Table.Name)
+		}
 		if n.Constant != nil {
 			*t = Type{Dim: n.Constant.Dim, Const: true, Val: n.Constant.Value}
 		} else {
@@ -43,7 +50,55 @@ func infer(e Expr) *diag.Diagnostic {
 		return inferBinary(n)
 	case *Call:
 		return inferCall(n)
+	case *Keyword:
+		return errAt(n.Pos(), "write it as the last argument of interp or spline", "%s has a meaning only inside interp( ) and spline( )", n.Word)
 	}
+	return nil
+}
+
+// inferTableCall checks interp, spline and lookup: two columns of one
+// table, and an x of the x column's dimension. The result has the y
+// column's unit.
+func inferTableCall(n *Call) *diag.Diagnostic {
+	y, yok := n.Args[0].(*Ref)
+	x, xok := n.Args[1].(*Ref)
+	if !yok || !xok || y.Column == nil || x.Column == nil {
+		at := n.Args[0].Pos()
+		if yok && y.Column != nil {
+			at = n.Args[1].Pos()
+		}
+		return errAt(at, "write "+n.Func.Usage+", for example "+n.Name+"(BH.B, BH.H, H_c)",
+			"the first two arguments of %s are columns of a table", n.Name)
+	}
+	if y.Column.Table != x.Column.Table {
+		return errAt(n.Args[1].Pos(), "read two columns of the same table", "%s and %s are columns of different tables", y.Name, x.Name)
+	}
+	if err := infer(n.Args[2]); err != nil {
+		return err
+	}
+	at := n.Args[2].Type()
+	if at.Dim != x.Column.Unit.Dim {
+		return errAt(n.Args[2].Pos(), "give a value of the x column's kind",
+			"%s reads %s against %s, which is %s, but the value given is %s", n.Name, y.Name, x.Name,
+			units.Describe(x.Column.Unit.Dim), units.Describe(at.Dim))
+	}
+	extrapolate := false
+	if len(n.Args) == 4 {
+		k, ok := n.Args[3].(*Keyword)
+		if !ok || n.Func.table == "exact" {
+			return errAt(n.Args[3].Pos(), "the fourth argument may only be the word extrapolate", "unexpected fourth argument of %s", n.Name)
+		}
+		extrapolate = k.Word == "extrapolate"
+	}
+	n.y, n.x = y.Column, x.Column
+	if n.Func.table != "exact" {
+		ip, err := newInterpolator(y.Column, x.Column, n.Func.table == "cubic", extrapolate)
+		if err != nil {
+			return errAt(n.Args[1].Pos(), "sort the table by that column, or read against another one", "%v", err)
+		}
+		n.table = ip
+	}
+	*n.Type() = Type{Dim: y.Column.Unit.Dim, Kind: y.Column.Unit.Kind}
 	return nil
 }
 

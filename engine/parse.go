@@ -740,6 +740,12 @@ func (c *converter) call(n ast.Node, name string, args []ast.Node, pos diag.Pos)
 	e := &Call{Name: name, Func: f}
 	e.P = pos
 	for _, a := range args {
+		if id, ok := a.(*ast.IdentifierNode); ok && id.Value == "extrapolate" {
+			k := &Keyword{Word: id.Value}
+			k.P = c.s.at(c.t, a.Location().From)
+			e.Args = append(e.Args, k)
+			continue
+		}
 		e.Args = append(e.Args, c.convert(a))
 	}
 	if len(e.Args) < f.MinArgs || (f.MaxArgs >= 0 && len(e.Args) > f.MaxArgs) {

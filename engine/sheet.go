@@ -22,6 +22,9 @@ type Sheet struct {
 	// Assumptions are the sheet's prose assumptions and assumption
 	// statements, prose first, each with what rests on it.
 	Assumptions []*Assumption
+	// Tables are the sheet's named tables, and those of its instances
+	// under the instance's name (coil_a.BH).
+	Tables []*Table
 
 	byName map[string]*Statement
 	values []float64
@@ -58,16 +61,35 @@ func CompileWith(src SheetSource, opt Options) *Sheet {
 	}
 	x := &expander{sheet: s, resolve: opt.Resolve, stack: []string{src.Path}}
 	s.Statements = x.expand(parsed, src.Path)
+	for _, ts := range append(src.Tables, x.tables...) {
+		t := readTable(ts, ts.Name)
+		if t.Err != nil {
+			s.Diags = append(s.Diags, *t.Err)
+		}
+		s.Tables = append(s.Tables, t)
+	}
 	for i, st := range s.Statements {
 		st.Index, st.slot = i, i
+		if st.Status == Failed || st.Expr == nil {
+			continue
+		}
+		if err := solveOutside(st); err != nil {
+			s.fail(st, err)
+		} else if _, ok := isSolve(st); ok {
+			if err := prepareSolve(st); err != nil {
+				s.fail(st, err)
+			}
+		}
 	}
 	s.values = make([]float64, len(s.Statements))
 	s.define()
 	s.resolve()
+	s.linkSolves()
 	s.order()
 	for _, st := range s.Order {
 		s.check(st)
 	}
+	s.checkSolveRelations()
 	s.linkAssumptions(append(src.Assumptions, x.assumptions...))
 	s.Diags.Sort()
 	return s
@@ -117,6 +139,12 @@ func (s *Sheet) resolve() {
 			continue
 		}
 		seen := map[*Statement]bool{}
+		// The names in a solve's relation are not ordinary dependencies:
+		// linkSolves sorts them out once every statement is resolved.
+		inRelation := map[Expr]bool{}
+		if st.solve != nil {
+			Walk(st.solve.relation, func(e Expr) { inRelation[e] = true })
+		}
 		Walk(st.Expr, func(e Expr) {
 			r, ok := e.(*Ref)
 			if !ok || st.Status == Failed {
@@ -124,6 +152,12 @@ func (s *Sheet) resolve() {
 			}
 			if target, ok := s.byName[r.Name]; ok {
 				r.Target = target
+				if inRelation[e] {
+					if !containsStmt(st.solve.refs, target) {
+						st.solve.refs = append(st.solve.refs, target)
+					}
+					return
+				}
 				if !seen[target] {
 					seen[target] = true
 					st.Deps = append(st.Deps, target)
@@ -135,9 +169,44 @@ func (s *Sheet) resolve() {
 				r.Constant = &c
 				return
 			}
+			if d := s.resolveColumn(r); d != nil || r.Column != nil {
+				if d != nil {
+					s.fail(st, d)
+				}
+				return
+			}
+			if r.Name == "extrapolate" {
+				s.fail(st, errAt(r.Pos(), "write it as the last argument of interp or spline", "extrapolate has a meaning only inside interp( ) and spline( )"))
+				return
+			}
 			s.fail(st, s.unknownName(r))
 		})
 	}
+}
+
+// resolveColumn ties T.col to a column of table T. It returns an error
+// when the name starts with a table's name but is not one of its columns;
+// nil with r.Column unset when the name is not a table's.
+func (s *Sheet) resolveColumn(r *Ref) *diag.Diagnostic {
+	for _, t := range s.Tables {
+		if r.Name == t.Name {
+			return errAt(r.Pos(), "read a table with interp(T.y, T.x, x), spline(...) or lookup(...)", "%s is a table, not a value", t.Name)
+		}
+		col, ok := strings.CutPrefix(r.Name, t.Name+".")
+		if !ok || strings.Contains(col, ".") {
+			continue
+		}
+		if t.Err != nil {
+			return errAt(r.Pos(), "fix the table first", "table %s has an error", t.Name)
+		}
+		c := t.Column(col)
+		if c == nil {
+			return errAt(r.Pos(), "its columns are "+t.columnNames(), "table %s has no column %s", t.Name, col)
+		}
+		r.Column = c
+		return nil
+	}
+	return nil
 }
 
 func (s *Sheet) unknownName(r *Ref) *diag.Diagnostic {
@@ -235,6 +304,20 @@ func (s *Sheet) check(st *Statement) {
 			return
 		}
 	}
+	if st.solve != nil {
+		if err := s.checkSolveBounds(st); err != nil {
+			s.fail(st, err)
+			return
+		}
+		if st.Display != nil {
+			if msg, hint := displayProblem(st.Name, st.Formula, st.Type, *st.Display); msg != "" {
+				s.fail(st, errAt(st.DisplayPos, hint, "%s", msg))
+				return
+			}
+		}
+		st.compiled = true
+		return
+	}
 	if err := infer(st.Expr); err != nil {
 		s.fail(st, err)
 		return
@@ -291,6 +374,10 @@ func (s *Sheet) Evaluate() {
 		}
 		if st.Kind == Check {
 			s.evalCheck(st)
+			continue
+		}
+		if st.solve != nil {
+			s.evalSolve(st)
 			continue
 		}
 		v := st.fn(s.values)
@@ -431,12 +518,29 @@ func checkUnit(st *Statement) units.Unit {
 // diagnose finds the operation that first produced a non-finite value and
 // says what went wrong there.
 func diagnose(e Expr, v []float64) *diag.Diagnostic {
-	for _, c := range e.children() {
+	children := e.children()
+	if c, ok := e.(*Call); ok && c.Func.table != "" {
+		children = c.Args[2:3] // the columns are data
+	}
+	for _, c := range children {
 		if !finite(fnOf(c)(v)) {
 			return diagnose(c, v)
 		}
 	}
 	result := fnOf(e)(v)
+	if c, ok := e.(*Call); ok && c.Func.table != "" && math.IsNaN(result) {
+		x := fnOf(c.Args[2])(v)
+		shown := units.FormatNumber(c.x.Unit.FromSI(x), 4)
+		if c.x.Unit.Symbol != "1" {
+			shown += " " + c.x.Unit.Symbol
+		}
+		if c.Func.table == "exact" {
+			return errAt(c.Args[2].Pos(), "add the row, or read between rows with interp",
+				"no row of table %s has %s = %s", c.x.Table.Name, c.x.Name, shown)
+		}
+		return errAt(c.Args[2].Pos(), "extend the table, or write "+c.Name+"(..., extrapolate) to extend its end segments",
+			"%s = %s lies outside table %s (%s from %s)", c.x.Name, shown, c.x.Table.Name, c.x.Name, rangeText(c.x))
+	}
 	switch n := e.(type) {
 	case *Binary:
 		switch {

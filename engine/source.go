@@ -26,6 +26,7 @@ type SheetSource struct {
 	Path        string
 	Blocks      []Block
 	Assumptions []AssumptionSource // prose assumptions, in the order written
+	Tables      []TableSource      // named tables, in the order written
 }
 
 // MaxStatementLength bounds one statement, in characters. A formula longer

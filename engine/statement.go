@@ -125,7 +125,8 @@ type Statement struct {
 	// reason it was not evaluated.
 	Err *diag.Diagnostic
 
-	slot     int // index into the sheet's value slots
+	solve    *solveInfo // set for x = solve(...)
+	slot     int        // index into the sheet's value slots
 	compiled bool
 	fn       evalFn // a definition's value, or a check's left side
 	right    evalFn // a check's right side

@@ -154,9 +154,10 @@ type expander struct {
 	sheet   *Sheet
 	resolve Resolver
 	stack   []string // template keys being expanded, for cycles
-	// assumptions are the prose assumptions of the templates, under the
-	// instance's name: "coil_a.uniform-gap".
+	// assumptions and tables are those of the templates, under the
+	// instance's name: "coil_a.uniform-gap", "coil_a.BH".
 	assumptions []AssumptionSource
+	tables      []TableSource
 }
 
 // expand returns the statements of a sheet with every instance's
@@ -216,6 +217,12 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 		a.ID = use.Name + "." + a.ID
 		x.assumptions = append(x.assumptions, a)
 	}
+	tables := map[string]bool{}
+	for _, t := range src.Tables {
+		tables[t.Name] = true
+		t.Name = use.Name + "." + t.Name
+		x.tables = append(x.tables, t)
+	}
 
 	// Names the template defines, and the instances inside it.
 	local := map[string]*Statement{}
@@ -233,7 +240,7 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 	}
 	rename := func(name string) string {
 		head, _, _ := strings.Cut(name, ".")
-		if _, ok := local[name]; ok || inner[head] {
+		if _, ok := local[name]; ok || inner[head] || tables[head] {
 			return prefix + name
 		}
 		return name

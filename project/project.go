@@ -187,6 +187,20 @@ func sourceOf(doc *sheets.Sheet) engine.SheetSource {
 	for _, a := range doc.Assumptions {
 		src.Assumptions = append(src.Assumptions, engine.AssumptionSource{ID: a.ID, Text: a.Text, Pos: a.Pos})
 	}
+	for _, t := range doc.Tables {
+		ts := engine.TableSource{Name: t.Name, Caption: t.Caption, Pos: t.Pos}
+		for _, c := range t.Header {
+			ts.Header = append(ts.Header, engine.CellSource{Text: c.Text, Pos: c.Pos})
+		}
+		for _, row := range t.Rows {
+			var cells []engine.CellSource
+			for _, c := range row {
+				cells = append(cells, engine.CellSource{Text: c.Text, Pos: c.Pos})
+			}
+			ts.Rows = append(ts.Rows, cells)
+		}
+		src.Tables = append(src.Tables, ts)
+	}
 	for _, b := range doc.Blocks {
 		eb := engine.Block{Fence: b.Fence}
 		for _, l := range b.Lines {

@@ -13,6 +13,7 @@ import (
 	"github.com/yuin/goldmark"
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/extension"
+	east "github.com/yuin/goldmark/extension/ast"
 	"github.com/yuin/goldmark/parser"
 	"github.com/yuin/goldmark/text"
 	"go.abhg.dev/goldmark/frontmatter"
@@ -32,7 +33,10 @@ type Sheet struct {
 	Blocks []*Block // formula blocks in document order
 	// Assumptions are the paragraphs marked as assumptions, in order.
 	Assumptions []*Assumption
-	Diags       diag.List
+	// Tables are the pipe tables introduced by a caption paragraph
+	// "Table <name>: ...", in order.
+	Tables []*Table
+	Diags  diag.List
 
 	index lineIndex
 }
@@ -45,6 +49,28 @@ type Assumption struct {
 	Pos  diag.Pos
 	Node *ast.Paragraph
 }
+
+// Table is a named table of data: a caption paragraph "Table <name>:
+// caption" and the pipe table that follows it. Header cells are column
+// names with units in brackets: "H [A/m]".
+type Table struct {
+	Name        string
+	Caption     string
+	Pos         diag.Pos // of the caption
+	Header      []Cell
+	Rows        [][]Cell
+	CaptionNode *ast.Paragraph
+	Node        ast.Node
+}
+
+// Cell is the text of a table cell and where it starts.
+type Cell struct {
+	Text string
+	Pos  diag.Pos
+}
+
+// tableHead matches a table's caption paragraph.
+var tableHead = regexp.MustCompile(`^Table\s+([A-Za-z][A-Za-z0-9_]*)\s*:\s*`)
 
 // assumptionHead matches the start of an assumption paragraph.
 var assumptionHead = regexp.MustCompile(`^Assumption\s+([A-Za-z0-9][A-Za-z0-9_.-]*)\s*:\s*`)
@@ -171,6 +197,7 @@ func (s *Sheet) collectBlocks() {
 	_ = ast.Walk(s.Doc, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
 		if p, ok := n.(*ast.Paragraph); ok && entering {
 			s.collectAssumption(p)
+			s.collectTable(p)
 			return ast.WalkSkipChildren, nil
 		}
 		fc, ok := n.(*ast.FencedCodeBlock)
@@ -217,6 +244,97 @@ func (s *Sheet) collectAssumption(p *ast.Paragraph) {
 		return
 	}
 	s.Assumptions = append(s.Assumptions, &Assumption{ID: m[1], Text: text[len(m[0]):], Pos: s.Pos(lines.At(0).Start), Node: p})
+}
+
+// paragraphText returns a paragraph's lines joined by spaces.
+func (s *Sheet) paragraphText(p *ast.Paragraph) string {
+	lines := p.Lines()
+	var parts []string
+	for i := 0; i < lines.Len(); i++ {
+		seg := lines.At(i)
+		parts = append(parts, strings.TrimSpace(string(seg.Value(s.Source))))
+	}
+	return strings.Join(parts, " ")
+}
+
+// collectTable records a caption paragraph "Table <name>: ..." and the
+// pipe table right after it.
+func (s *Sheet) collectTable(p *ast.Paragraph) {
+	if p.Lines().Len() == 0 {
+		return
+	}
+	text := s.paragraphText(p)
+	m := tableHead.FindStringSubmatch(text)
+	if m == nil {
+		return
+	}
+	t := &Table{Name: m[1], Caption: text[len(m[0]):], Pos: s.Pos(p.Lines().At(0).Start), CaptionNode: p}
+	next, ok := p.NextSibling().(*east.Table)
+	if !ok {
+		s.Diags.Add(t.Pos, "put the pipe table right after the caption line, with no other paragraph between",
+			"table %s has no table after its caption", t.Name)
+		return
+	}
+	t.Node = next
+	for row := next.FirstChild(); row != nil; row = row.NextSibling() {
+		var cells []Cell
+		for c := row.FirstChild(); c != nil; c = c.NextSibling() {
+			cells = append(cells, s.cell(c))
+		}
+		if _, header := row.(*east.TableHeader); header {
+			t.Header = cells
+		} else {
+			t.Rows = append(t.Rows, cells)
+		}
+	}
+	s.Tables = append(s.Tables, t)
+}
+
+// cell returns the raw text of a table cell and where it starts.
+func (s *Sheet) cell(c ast.Node) Cell {
+	var b strings.Builder
+	start := -1
+	_ = ast.Walk(c, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
+		if t, ok := n.(*ast.Text); ok && entering {
+			if start < 0 {
+				start = t.Segment.Start
+			}
+			b.Write(t.Segment.Value(s.Source))
+			if t.SoftLineBreak() || t.HardLineBreak() {
+				b.WriteByte(' ')
+			}
+		}
+		return ast.WalkContinue, nil
+	})
+	cell := Cell{Text: strings.TrimSpace(b.String())}
+	if start >= 0 {
+		cell.Pos = s.Pos(start)
+	} else if c.Parent() != nil {
+		cell.Pos = s.Pos(tableLineStart(c))
+	}
+	return cell
+}
+
+// tableLineStart finds a byte offset on the line of an empty cell.
+func tableLineStart(c ast.Node) int {
+	for n := c; n != nil; n = n.PreviousSibling() {
+		for ch := n.FirstChild(); ch != nil; ch = ch.NextSibling() {
+			if t, ok := ch.(*ast.Text); ok {
+				return t.Segment.Start
+			}
+		}
+	}
+	return 0
+}
+
+// TableAt returns the table a caption paragraph introduces, or nil.
+func (s *Sheet) TableAt(p *ast.Paragraph) *Table {
+	for _, t := range s.Tables {
+		if t.CaptionNode == p {
+			return t
+		}
+	}
+	return nil
 }
 
 // AssumptionAt returns the assumption a paragraph declares, or nil.

@@ -1,0 +1,367 @@
+package engine
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"github.com/sheaf-calc/sheaf/diag"
+	"github.com/sheaf-calc/sheaf/units"
+)
+
+// A definition `x = solve(lhs == rhs, lo, hi)` makes x the unknown: sheaf
+// finds the x between lo and hi for which the relation holds, evaluating
+// the statements between x and the relation for every trial value. The
+// relation may use statements that use x; those are "inner" statements,
+// evaluated inside the search, and again afterwards with the answer.
+type solveInfo struct {
+	relation *Binary
+	lo, hi   Expr
+	refs     []*Statement // statements the relation names
+	needed   map[*Statement]bool
+	inner    []*Statement // statements to evaluate for a trial x, in evaluation order
+}
+
+// SolveTolerance is the relative width, against the bounds, to which the
+// unknown is found.
+const SolveTolerance = 1e-12
+
+// MaxSolveIterations bounds the search.
+const MaxSolveIterations = 200
+
+// isSolve reports whether a statement's formula is a solve(...).
+func isSolve(st *Statement) (*Call, bool) {
+	c, ok := st.Expr.(*Call)
+	return c, ok && st.Kind == Definition && c.Name == "solve"
+}
+
+// prepareSolve checks the shape of a solve statement before names are
+// resolved: the relation is an equality and the bounds are the other two
+// arguments.
+func prepareSolve(st *Statement) *diag.Diagnostic {
+	c, _ := isSolve(st)
+	rel, ok := c.Args[0].(*Binary)
+	if !ok || rel.Op != "==" {
+		return errAt(c.Args[0].Pos(), "write solve(left == right, lowest, highest)", "the first argument of solve is the relation to meet, written with ==")
+	}
+	st.solve = &solveInfo{relation: rel, lo: c.Args[1], hi: c.Args[2]}
+	return nil
+}
+
+// solveOutside reports a solve(...) that is not a whole right side.
+func solveOutside(st *Statement) *diag.Diagnostic {
+	var bad Expr
+	Walk(st.Expr, func(e Expr) {
+		if c, ok := e.(*Call); ok && c.Name == "solve" && e != st.Expr && bad == nil {
+			bad = e
+		}
+	})
+	if c, ok := st.Expr.(*Call); ok && c.Name == "solve" && st.Kind != Definition && bad == nil {
+		bad = c
+	}
+	if bad != nil {
+		return errAt(bad.Pos(), "write the unknown as its own statement: x = solve(left == right, lowest, highest)", "solve must be the whole right side of a definition")
+	}
+	return nil
+}
+
+// linkSolves adds, for every solve statement, the statements its relation
+// uses that do not depend on the unknown as ordinary dependencies, and
+// notes the inner statements to evaluate for a trial value.
+//
+// A solve may sit inside another's search: Phi = solve(N*I == F(Phi), ...)
+// inside I = solve(Phi == Phi_want, ...). A relation depends on its own
+// unknown either through ordinary formulas or through the relation of a
+// solve inside it, so solves are linked innermost first: those whose
+// relation reaches their unknown through ordinary formulas, then, with
+// their links in place, the ones around them, until none is left.
+func (s *Sheet) linkSolves() {
+	var pending []*Statement
+	for _, st := range s.Statements {
+		if st.solve != nil && st.Status != Failed {
+			pending = append(pending, st)
+		}
+	}
+	for len(pending) > 0 {
+		var rest []*Statement
+		for _, st := range pending {
+			inner := s.innerOf(st)
+			if !s.relationReaches(st, inner) {
+				rest = append(rest, st)
+				continue
+			}
+			for _, r := range st.solve.refs {
+				if r != st && !inner[r] && !containsStmt(st.Deps, r) {
+					st.Deps = append(st.Deps, r)
+					r.Users = append(r.Users, st)
+				}
+			}
+		}
+		if len(rest) == len(pending) {
+			for _, st := range rest {
+				s.fail(st, errAt(st.solve.relation.Pos(), "the relation must use "+st.Name+", directly or through the statements that use it",
+					"the relation does not depend on %s", st.Name))
+			}
+			break
+		}
+		pending = rest
+	}
+	for _, st := range s.Statements {
+		if st.solve == nil || st.Status == Failed {
+			continue
+		}
+		inner := s.innerOf(st)
+		st.solve.needed = map[*Statement]bool{}
+		for _, n := range closure(st.solve.refs, func(x *Statement) []*Statement { return x.Deps }) {
+			if inner[n] {
+				st.solve.needed[n] = true
+			}
+		}
+	}
+}
+
+// innerOf is the set of statements that depend on a solve's unknown.
+func (s *Sheet) innerOf(st *Statement) map[*Statement]bool {
+	inner := map[*Statement]bool{}
+	for _, u := range closure(st.Users, func(x *Statement) []*Statement { return x.Users }) {
+		inner[u] = true
+	}
+	return inner
+}
+
+// relationReaches reports whether a solve's relation names its unknown or
+// a statement that depends on it.
+func (s *Sheet) relationReaches(st *Statement, inner map[*Statement]bool) bool {
+	for _, r := range st.solve.refs {
+		if r == st || inner[r] {
+			return true
+		}
+	}
+	return false
+}
+
+func containsStmt(list []*Statement, st *Statement) bool {
+	for _, x := range list {
+		if x == st {
+			return true
+		}
+	}
+	return false
+}
+
+// checkSolveBounds infers the unknown's dimension from its bounds.
+func (s *Sheet) checkSolveBounds(st *Statement) *diag.Diagnostic {
+	sv := st.solve
+	for _, b := range []Expr{sv.lo, sv.hi} {
+		if err := infer(b); err != nil {
+			return err
+		}
+	}
+	lo, hi := sv.lo.Type(), sv.hi.Type()
+	if lo.Dim != hi.Dim {
+		return errAt(sv.hi.Pos(), "give both bounds in units of one kind", "the bounds of solve are %s and %s", units.Describe(lo.Dim), units.Describe(hi.Dim))
+	}
+	st.Type = Type{Dim: lo.Dim, Kind: lo.Kind}
+	*st.Expr.Type() = st.Type
+	compile(sv.lo)
+	compile(sv.hi)
+	return nil
+}
+
+// checkSolveRelations checks and compiles every relation once the
+// statements it uses are checked.
+func (s *Sheet) checkSolveRelations() {
+	for _, st := range s.Statements {
+		if st.solve == nil || !st.compiled {
+			continue
+		}
+		for _, r := range st.solve.refs {
+			if r != st && !r.compiled {
+				st.compiled = false
+				st.Status = Blocked
+				st.Err = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: its relation uses %s, which has an error", r.Name)}
+				break
+			}
+		}
+		if !st.compiled {
+			continue
+		}
+		if err := infer(st.solve.relation); err != nil {
+			st.compiled = false
+			s.fail(st, err)
+			continue
+		}
+		compile(st.solve.relation.X)
+		compile(st.solve.relation.Y)
+		for _, o := range s.Order {
+			if st.solve.needed[o] {
+				st.solve.inner = append(st.solve.inner, o)
+			}
+		}
+	}
+}
+
+// errNoBracket is returned when f has the same sign at both bounds.
+var errNoBracket = errors.New("no sign change")
+
+// brent finds a zero of f between a and b, where f(a) and f(b) differ in
+// sign, by Brent's method (R. P. Brent, Algorithms for Minimization
+// without Derivatives, 1973, chapter 4): bisection made safe, inverse
+// quadratic interpolation made fast.
+func brent(f func(float64) float64, a, b, tol float64, maxIter int) (float64, error) {
+	fa, fb := f(a), f(b)
+	if math.IsNaN(fa) || math.IsNaN(fb) {
+		return math.NaN(), errors.New("not a number")
+	}
+	if fa == 0 {
+		return a, nil
+	}
+	if fb == 0 {
+		return b, nil
+	}
+	if (fa > 0) == (fb > 0) {
+		return math.NaN(), errNoBracket
+	}
+	c, fc := a, fa
+	d := b - a
+	e := d
+	for i := 0; i < maxIter; i++ {
+		if (fb > 0) == (fc > 0) {
+			c, fc = a, fa
+			d = b - a
+			e = d
+		}
+		if math.Abs(fc) < math.Abs(fb) {
+			a, b, c = b, c, b
+			fa, fb, fc = fb, fc, fb
+		}
+		tol1 := 2*2.220446049250313e-16*math.Abs(b) + 0.5*tol
+		xm := 0.5 * (c - b)
+		if math.Abs(xm) <= tol1 || fb == 0 {
+			return b, nil
+		}
+		if math.Abs(e) >= tol1 && math.Abs(fa) > math.Abs(fb) {
+			s := fb / fa
+			var p, q float64
+			if a == c {
+				p = 2 * xm * s
+				q = 1 - s
+			} else {
+				q = fa / fc
+				r := fb / fc
+				p = s * (2*xm*q*(q-r) - (b-a)*(r-1))
+				q = (q - 1) * (r - 1) * (s - 1)
+			}
+			if p > 0 {
+				q = -q
+			}
+			p = math.Abs(p)
+			if 2*p < math.Min(3*xm*q-math.Abs(tol1*q), math.Abs(e*q)) {
+				e = d
+				d = p / q
+			} else {
+				d = xm
+				e = d
+			}
+		} else {
+			d = xm
+			e = d
+		}
+		a, fa = b, fb
+		if math.Abs(d) > tol1 {
+			b += d
+		} else {
+			b += math.Copysign(tol1, xm)
+		}
+		fb = f(b)
+		if math.IsNaN(fb) {
+			return b, errors.New("not a number")
+		}
+	}
+	return b, errors.New("did not converge")
+}
+
+// evalSolve finds the unknown of a solve statement.
+func (s *Sheet) evalSolve(st *Statement) {
+	root, unit, d := s.findRoot(st)
+	if d != nil {
+		s.fail(st, d)
+		return
+	}
+	s.values[st.slot] = root
+	st.Value = root
+	st.Status = OK
+	st.Shown = unit
+}
+
+// findRoot searches for the unknown of a solve statement and leaves the
+// statements inside the search at their values for the answer. A solve
+// inside another's search runs its own search for every trial value.
+func (s *Sheet) findRoot(st *Statement) (float64, units.Unit, *diag.Diagnostic) {
+	sv := st.solve
+	lo, hi := fnOf(sv.lo)(s.values), fnOf(sv.hi)(s.values)
+	unit := units.AutoUnit(math.Max(math.Abs(lo), math.Abs(hi)), st.Type.Dim, st.Type.Kind)
+	if st.Display != nil {
+		unit = *st.Display
+	}
+	at := func(x float64) string {
+		return st.Name + " = " + units.FormatNumber(unit.FromSI(x), 4) + " " + unit.Symbol
+	}
+	if !finite(lo) || !finite(hi) || lo >= hi {
+		return 0, unit, errAt(sv.lo.Pos(), "give the lowest value first and the highest second", "the bounds of solve are not an interval: %s to %s",
+			units.FormatNumber(unit.FromSI(lo), 4), units.FormatNumber(unit.FromSI(hi), 4))
+	}
+	var failed *Statement
+	var failedAt float64
+	var failure *diag.Diagnostic
+	residual := func(x float64) float64 {
+		s.values[st.slot] = x
+		for _, in := range sv.inner {
+			var v float64
+			if in.solve != nil {
+				r, _, d := s.findRoot(in)
+				if d != nil {
+					if failed == nil {
+						failed, failedAt, failure = in, x, d
+					}
+					return math.NaN()
+				}
+				v = r
+			} else {
+				v = in.fn(s.values)
+			}
+			if !finite(v) {
+				if failed == nil {
+					failed, failedAt, failure = in, x, diagnose(in.Expr, s.values)
+				}
+				return math.NaN()
+			}
+			s.values[in.slot] = v
+		}
+		return fnOf(sv.relation.X)(s.values) - fnOf(sv.relation.Y)(s.values)
+	}
+	tol := SolveTolerance * math.Max(math.Abs(lo), math.Abs(hi))
+	root, err := brent(residual, lo, hi, tol, MaxSolveIterations)
+	switch {
+	case failed != nil:
+		return 0, unit, errAt(st.Expr.Pos(), "narrow the bounds to where "+failed.Name+" can be evaluated",
+			"while solving for %s, at %s, %s could not be evaluated: %s", st.Name, at(failedAt), failed.Name, failure.Message)
+	case errors.Is(err, errNoBracket):
+		rl := s.residualText(sv, residual(lo))
+		rh := s.residualText(sv, residual(hi))
+		return 0, unit, errAt(st.Expr.Pos(), "widen the bounds so that the two sides cross between them, or check the relation",
+			"the bounds do not bracket a solution: the left side minus the right side is %s at %s and %s at %s, of the same sign",
+			rl, at(lo), rh, at(hi))
+	case err != nil:
+		return 0, unit, errAt(st.Expr.Pos(), "check the relation between the bounds", "solve found no solution for %s: %v", st.Name, err)
+	}
+	residual(root)
+	return root, unit, nil
+}
+
+// residualText writes a residual in a unit for the relation's sides.
+func (s *Sheet) residualText(sv *solveInfo, r float64) string {
+	t := sv.relation.X.Type()
+	u := units.AutoUnit(math.Abs(r), t.Dim, t.Kind)
+	return units.FormatNumber(u.FromSI(r), 4) + " " + u.Symbol
+}
