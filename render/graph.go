@@ -29,7 +29,22 @@ func graphDOT(s *project.Sheet, digits int) string {
 	b.WriteString("digraph sheet {\n rankdir=LR;\n bgcolor=\"transparent\";\n")
 	b.WriteString(" node [shape=box, style=\"rounded,filled\", fillcolor=\"#ffffff\", color=\"#5d6870\", fontname=\"sans-serif\", fontsize=10, height=0.3];\n")
 	b.WriteString(" edge [color=\"#8a969e\", arrowsize=0.6];\n")
+	// The statements of each template instance sit in a box of their own.
+	var cluster string
 	for _, st := range s.Calc.Statements {
+		if st.Kind == engine.Use {
+			continue
+		}
+		if st.Instance != cluster {
+			if cluster != "" {
+				b.WriteString(" }\n")
+			}
+			cluster = st.Instance
+			if cluster != "" {
+				fmt.Fprintf(&b, " subgraph %s {\n  label=%s; style=\"rounded,dashed\"; color=\"#8a969e\"; fontname=\"sans-serif\"; fontsize=10;\n",
+					strconv.Quote("cluster_"+cluster), dotQuote(cluster+" (template)"))
+			}
+		}
 		id := anchor(st)
 		attrs := []string{
 			"id=" + strconv.Quote("g-"+id),
@@ -47,11 +62,16 @@ func graphDOT(s *project.Sheet, digits int) string {
 		case st.IsInput():
 			attrs = append(attrs, `fillcolor="#eef3f5"`, `color="#24505f"`)
 		}
-		fmt.Fprintf(&b, " %s [%s];\n", id, strings.Join(attrs, ", "))
+		fmt.Fprintf(&b, " %s [%s];\n", strconv.Quote(id), strings.Join(attrs, ", "))
+	}
+	if cluster != "" {
+		b.WriteString(" }\n")
 	}
 	for _, st := range s.Calc.Statements {
 		for _, d := range st.Deps {
-			fmt.Fprintf(&b, " %s -> %s;\n", anchor(d), anchor(st))
+			if d.Kind != engine.Use && st.Kind != engine.Use {
+				fmt.Fprintf(&b, " %s -> %s;\n", strconv.Quote(anchor(d)), strconv.Quote(anchor(st)))
+			}
 		}
 	}
 	b.WriteString("}\n")

@@ -51,6 +51,10 @@ type JSONInput struct {
 	SI          JSONValue `json:"si"`
 	Description string    `json:"description,omitempty"`
 	Source      string    `json:"source,omitempty"`
+	// Instance names the template instance the input belongs to;
+	// Overridden is set when the using sheet gave its value.
+	Instance   string `json:"instance,omitempty"`
+	Overridden bool   `json:"overridden,omitempty"`
 }
 
 // JSONAssumption is a row of the assumptions register.
@@ -99,7 +103,31 @@ type JSONSheet struct {
 	Page       string          `json:"page"`
 	Title      string          `json:"title"`
 	Meta       sheets.Meta     `json:"meta"`
+	Tables     []JSONTable     `json:"tables"`
 	Statements []JSONStatement `json:"statements"`
+}
+
+// JSONTable is a named table of the sheet, or of one of its instances.
+type JSONTable struct {
+	Name    string       `json:"name"`
+	Caption string       `json:"caption"`
+	Pos     diag.Pos     `json:"pos"`
+	Columns []JSONColumn `json:"columns"`
+	Error   *JSONDiag    `json:"error,omitempty"`
+}
+
+// JSONColumn is a column of a table: its values as written and in SI.
+type JSONColumn struct {
+	Name   string    `json:"name"`
+	Unit   string    `json:"unit"`
+	Values []string  `json:"values"`
+	SI     []float64 `json:"si"`
+}
+
+// JSONSet is one input a use statement sets.
+type JSONSet struct {
+	Name    string `json:"name"`
+	Formula string `json:"formula"`
 }
 
 // JSONStatement is one definition or check with its value.
@@ -123,6 +151,14 @@ type JSONStatement struct {
 	UsedBy       []string   `json:"used_by"`
 	RestsOn      *JSONTrace `json:"rests_on,omitempty"`
 	Error        *JSONDiag  `json:"error,omitempty"`
+	// Template reuse: on a use statement, the template and the inputs it
+	// sets; on a statement from a template, its instance, and whether the
+	// using sheet set its value (Default is then the template's own).
+	Template   string    `json:"template,omitempty"`
+	Sets       []JSONSet `json:"sets,omitempty"`
+	Instance   string    `json:"instance,omitempty"`
+	Overridden bool      `json:"overridden,omitempty"`
+	Default    string    `json:"default,omitempty"`
 }
 
 // JSONTrace lists the inputs and assumptions a result ultimately rests on.
@@ -273,7 +309,8 @@ func registers(pkg *project.Package) JSONRegisters {
 			}
 			v, u := InputText(st)
 			r.Inputs = append(r.Inputs, JSONInput{Sheet: s.Path(), Name: st.Name, Pos: st.Pos, Value: v, Unit: u,
-				SI: JSONValue{Value: st.Value, Unit: st.Type.Dim.SIUnits()}, Description: st.Description, Source: st.Source})
+				SI: JSONValue{Value: st.Value, Unit: st.Type.Dim.SIUnits()}, Description: st.Description, Source: st.Source,
+				Instance: st.Instance, Overridden: st.Overridden})
 		}
 		for _, a := range s.Calc.Assumptions {
 			ja := JSONAssumption{Sheet: s.Path(), ID: a.ID, Text: a.Text, Pos: a.Pos, Dependents: []JSONRef{}}
@@ -299,7 +336,19 @@ func ref(st *engine.Statement) JSONRef {
 
 func jsonSheet(s *project.Sheet, opt Options) JSONSheet {
 	digits := s.Digits(opt.Digits)
-	js := JSONSheet{Path: s.Path(), Page: s.Page, Title: s.Title(), Meta: s.Doc.Meta, Statements: []JSONStatement{}}
+	js := JSONSheet{Path: s.Path(), Page: s.Page, Title: s.Title(), Meta: s.Doc.Meta, Tables: []JSONTable{}, Statements: []JSONStatement{}}
+	for _, t := range s.Calc.Tables {
+		jt := JSONTable{Name: t.Name, Caption: t.Caption, Pos: t.Pos, Columns: []JSONColumn{}}
+		if t.Err != nil {
+			d := jsonDiag(*t.Err)
+			jt.Error = &d
+		} else {
+			for _, c := range t.Columns {
+				jt.Columns = append(jt.Columns, JSONColumn{Name: c.Name, Unit: c.Unit.Symbol, Values: c.Texts, SI: c.Values})
+			}
+		}
+		js.Tables = append(js.Tables, jt)
+	}
 	for _, st := range s.Calc.Statements {
 		js.Statements = append(js.Statements, jsonStatement(s.Calc, st, digits))
 	}
@@ -343,12 +392,32 @@ func jsonStatement(calc *engine.Sheet, st *engine.Statement, digits int) JSONSta
 		}
 		j.RestsOn = t
 	}
-	if st.Kind == engine.Check {
+	switch st.Kind {
+	case engine.Check:
 		j.Kind = "check"
+	case engine.Use:
+		j.Kind = "use"
+		j.Template = st.Template
+		for _, o := range st.Overrides {
+			j.Sets = append(j.Sets, JSONSet{Name: o.Name, Formula: o.Formula})
+		}
+		j.RestsOn = nil
+	case engine.Param:
+		j.Kind = "param"
+	}
+	j.Instance = st.Instance
+	if st.Overridden {
+		j.Overridden = true
+		if st.Default != nil {
+			j.Default = exprText(st.Default)
+		}
 	}
 	if st.Err != nil {
 		d := jsonDiag(*st.Err)
 		j.Error = &d
+	}
+	if st.Kind == engine.Use {
+		return j // an instance has no value of its own
 	}
 	if st.Status == engine.OK || st.Status == engine.Pass || st.Status == engine.Fail {
 		j.Dimension = st.Type.Dim.ASCII()

@@ -143,15 +143,15 @@ func worse(a, b *engine.Statement) bool {
 func inputsPage(pkg *project.Package, opt Options) []byte {
 	p := packagePage(pkg, opt, "Inputs register")
 	p.f("<p>Every input of the package: a definition whose value is written directly, with the unit, description and source the author gave.</p>\n")
-	p.f("<table>\n<thead><tr><th>Sheet</th><th>Line</th><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th></tr></thead>\n<tbody>\n")
+	p.f("<table>\n<thead><tr><th>Sheet</th><th>Line</th><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th><th>Set by</th></tr></thead>\n<tbody>\n")
 	for _, s := range pkg.Sheets {
 		for _, st := range s.Calc.Statements {
 			if !st.IsInput() || st.Status != engine.OK {
 				continue
 			}
 			value, unit := InputText(st)
-			p.f("<tr><td><a href=\"%s\">%s</a></td><td><a class=\"loc\" href=\"%s#%s\">%d</a></td><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td></tr>\n",
-				esc(s.Page), esc(s.Path()), esc(s.Page), anchor(st), st.Pos.Line, symbolHTML(st.Name), esc(value), esc(unit), esc(st.Description), esc(st.Source))
+			p.f("<tr><td><a href=\"%s\">%s</a></td><td><a class=\"loc\" href=\"%s#%s\">%d</a></td><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td>%s</td></tr>\n",
+				esc(s.Page), esc(s.Path()), esc(s.Page), anchor(st), st.Pos.Line, symbolHTML(st.Name), esc(value), esc(unit), esc(st.Description), esc(st.Source), esc(SetBy(st)))
 		}
 	}
 	p.f("</tbody>\n</table>\n")

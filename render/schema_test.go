@@ -189,7 +189,7 @@ func TestSchemaEnumsMatchTheCode(t *testing.T) {
 		want      []string
 	}{
 		{"statement", "status", statuses},
-		{"statement", "kind", []string{"definition", "check"}},
+		{"statement", "kind", []string{"definition", "check", "use", "param"}},
 		{"ref", "kind", []string{"definition", "check"}},
 		{"statement", "quantity_kind", kinds},
 		{"diagnostic", "severity", []string{diag.Error.String(), diag.Warning.String()}},
@@ -290,6 +290,29 @@ func TestRealOutputValidates(t *testing.T) {
 		}, func(doc map[string]any) string {
 			if _, ok := doc["audit"]; ok {
 				return "a document written without an audit should have none"
+			}
+			return ""
+		}},
+		{"package with templates, tables and solve", func(t *testing.T) []byte {
+			return withAudit(t, project.FromFiles("tpl", templatedSheets))
+		}, func(doc map[string]any) string {
+			kinds := map[string]bool{}
+			for _, sh := range doc["sheets"].([]any) {
+				for _, st := range sh.(map[string]any)["statements"].([]any) {
+					m := st.(map[string]any)
+					kinds[m["kind"].(string)] = true
+					if m["overridden"] == true {
+						kinds["overridden"] = true
+					}
+				}
+				if len(sh.(map[string]any)["tables"].([]any)) > 0 {
+					kinds["table"] = true
+				}
+			}
+			for _, k := range []string{"use", "param", "overridden", "table"} {
+				if !kinds[k] {
+					return "the templated package should show " + k
+				}
 			}
 			return ""
 		}},
@@ -524,4 +547,15 @@ func reachesLocation(e *jsonschema.ValidationError, at string) bool {
 		}
 	}
 	return false
+}
+
+// templatedSheets use a template three ways, read a table and solve for an
+// unknown; one sheet is a template built on its own, so its parameter has
+// no value.
+var templatedSheets = map[string][]byte{
+	"_t/coil.md": []byte("---\ntitle: coil\ntemplate: true\n---\nAssumption same: every turn links the same flux.\n\n```sheaf\nparam N [1] ; turns\nPhi = 1 mWb ; flux ; source: s\nlambda [Wb] = N * Phi ; linkage ; assumes: same\ncheck lambda <= 1 Wb ; limit ; accept check-literal: a demo\n```\n"),
+	"standalone.md": []byte("```sheaf\nparam N [1] ; turns\nx = 2 * N\n```\n"),
+	"job.md": []byte("---\ntitle: job\nrevision: A\nchecked by: C\n---\nTable BH: a curve\n\n| H [A/m] | B [T] |\n|---|---|\n| 0 | 0 |\n| 100 | 1 |\n| 1000 | 1.5 |\n\n```sheaf\n" +
+		"N_f = 120 ; turns ; source: drawing\nuse c1 = _t/coil with N = N_f, Phi = 2 mWb\nuse c2 = _t/coil with N = 80\n" +
+		"B_c = interp(BH.B, BH.H, 500 A/m) ; read\nx = solve(x^2 == 2, 0, 2) ; root two\nuse bad = _t/coil\n```\n"),
 }

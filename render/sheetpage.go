@@ -122,7 +122,7 @@ func checksTable(p *page, checks []*engine.Statement, where func(*engine.Stateme
 			p.f("<td>%s</td>", esc(sheet))
 		}
 		p.f("<td><a href=\"%s#%s\"><code>%s</code></a></td><td class=\"num\">%s</td><td>%s</td><td class=\"num\">%s</td><td class=\"num\">%s</td><td>%s</td></tr>\n",
-			esc(pg), anchor(st), esc(st.Formula), esc(ValueText(st.Left, st.Shown, digits)), esc(relations[st.Compare().Op]),
+			esc(pg), anchor(st), esc(instancePrefix(st)+st.Formula), esc(ValueText(st.Left, st.Shown, digits)), esc(relations[st.Compare().Op]),
 			esc(ValueText(st.Right, st.Shown, digits)), esc(UtilisationText(st.Utilisation)), esc(st.Description))
 	}
 	p.f("</tbody>\n</table>\n")
@@ -142,11 +142,23 @@ func inputsRegister(p *page, s *project.Sheet) {
 		p.f("<p>This sheet has no inputs of its own.</p>\n</section>\n")
 		return
 	}
-	p.f("<table>\n<thead><tr><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th><th>Line</th></tr></thead>\n<tbody>\n")
+	p.f("<table>\n<thead><tr><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th><th>Set by</th><th>Line</th></tr></thead>\n<tbody>\n")
 	for _, st := range rows {
 		value, unit := InputText(st)
-		p.f("<tr><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td><a class=\"loc\" href=\"#%s\">%d</a></td></tr>\n",
-			symbolHTML(st.Name), esc(value), esc(unit), esc(st.Description), esc(st.Source), anchor(st), st.Pos.Line)
+		p.f("<tr><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td>%s</td><td><a class=\"loc\" href=\"#%s\">%d</a></td></tr>\n",
+			symbolHTML(st.Name), esc(value), esc(unit), esc(st.Description), esc(st.Source), esc(SetBy(st)), anchor(st), st.Pos.Line)
 	}
 	p.f("</tbody>\n</table>\n</section>\n")
+}
+
+// SetBy says who gave an input its value: the sheet, the sheet through a
+// use statement, or the template's default.
+func SetBy(st *engine.Statement) string {
+	switch {
+	case st.Instance == "":
+		return "this sheet"
+	case st.Overridden && st.Use != nil:
+		return "this sheet, in use " + st.Use.Name
+	}
+	return "template default (" + st.Instance + ")"
 }

@@ -33,6 +33,14 @@ func (r *blockRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 // assumption that lists what rests on it.
 func (r *blockRenderer) paragraph(w util.BufWriter, source []byte, n ast.Node, entering bool) (ast.WalkStatus, error) {
 	p := n.(*ast.Paragraph)
+	if t := r.sheet.Doc.TableAt(p); t != nil {
+		if entering {
+			w.WriteString(`<p class="caption" id="T-` + esc(t.Name) + `">`)
+		} else {
+			w.WriteString("</p>\n")
+		}
+		return ast.WalkContinue, nil
+	}
 	a := r.sheet.Doc.AssumptionAt(p)
 	if a == nil {
 		if entering {
@@ -94,7 +102,7 @@ func (r *blockRenderer) block(w sink, bi int) {
 	b := r.sheet.Doc.Blocks[bi]
 	byLine := map[int]*engine.Statement{}
 	for _, st := range r.sheet.Calc.Statements {
-		if st.Block == bi {
+		if st.Block == bi && st.Instance == "" {
 			byLine[st.Pos.Line] = st
 		}
 	}
@@ -119,11 +127,23 @@ func (r *blockRenderer) block(w sink, bi int) {
 	w.WriteString("</div>\n")
 }
 
-func anchor(st *engine.Statement) string { return "L" + strconv.Itoa(st.Pos.Line) }
+// anchor is a statement's id on its page: L<line> for the sheet's own
+// statements, I-<instance>-L<line> for those from a template, whose lines
+// are the template's.
+func anchor(st *engine.Statement) string {
+	if st.Instance != "" {
+		return "I-" + st.Instance + "-L" + strconv.Itoa(st.Pos.Line)
+	}
+	return "L" + strconv.Itoa(st.Pos.Line)
+}
 
 // writeStatement draws one statement as the checker reads it: the formula
 // with symbols, the same with values, and the result.
 func writeStatement(w sink, calc *engine.Sheet, st *engine.Statement, digits int) {
+	if st.Kind == engine.Use && st.Status == engine.OK {
+		writeUse(w, calc, st, digits)
+		return
+	}
 	switch st.Status {
 	case engine.Failed, engine.Blocked, engine.Pending:
 		writeProblem(w, st)
@@ -136,6 +156,9 @@ func writeStatement(w sink, calc *engine.Sheet, st *engine.Statement, digits int
 	if st.IsInput() {
 		class = "row input"
 	}
+	if st.Overridden {
+		class += " set"
+	}
 	w.WriteString(`<div class="` + class + `" id="` + anchor(st) + "\">\n<div class=\"eq\"><math class=\"f\"><mrow>")
 	w.WriteString(symbolMathML(st.Name))
 	w.WriteString("<mo>=</mo>")
@@ -145,12 +168,58 @@ func writeStatement(w sink, calc *engine.Sheet, st *engine.Statement, digits int
 			w.WriteString("<mo>=</mo>")
 			writeFormula(w, st.Expr, substituted, digits)
 		}
-		w.WriteString("<mo>=</mo>")
-		w.WriteString(valueMathML(st.Value, st.Shown, digits))
+		// A name that only repeats an input already shows its value.
+		if r, ok := st.Expr.(*engine.Ref); !ok || r.Target == nil || !r.Target.IsInput() {
+			w.WriteString("<mo>=</mo>")
+			w.WriteString(valueMathML(st.Value, st.Shown, digits))
+		}
 	}
 	w.WriteString("</mrow></math></div>\n")
 	writeNote(w, calc, st)
 	w.WriteString("</div>\n")
+}
+
+// writeUse draws a use statement and, under it, the statements of its
+// instance, each with its value.
+func writeUse(w sink, calc *engine.Sheet, use *engine.Statement, digits int) {
+	w.WriteString(`<div class="row use" id="` + anchor(use) + `">` + "\n" + `<p class="usehead"><span class="kw">use</span> `)
+	w.WriteString(`<strong>` + esc(use.Name) + `</strong> = template <code>` + esc(use.Template) + `</code>`)
+	if len(use.Overrides) > 0 {
+		w.WriteString(" with ")
+		for i, o := range use.Overrides {
+			if i > 0 {
+				w.WriteString(", ")
+			}
+			w.WriteString(symbolHTML(o.Name) + " = <code>" + esc(o.Formula) + "</code>")
+		}
+	}
+	w.WriteString("</p>\n")
+	writeNote(w, calc, use)
+	w.WriteString("<div class=\"instance\">\n")
+	for _, st := range calc.Statements {
+		if st.Use == use {
+			writeStatement(w, calc, st, digits)
+		}
+	}
+	w.WriteString("</div>\n</div>\n")
+}
+
+// exprText writes a literal as the author wrote it: "2.5 mWb", "-3".
+func exprText(e engine.Expr) string {
+	sign := ""
+	if u, ok := e.(*engine.Unary); ok {
+		e = u.X
+		if u.Op == "-" {
+			sign = "-"
+		}
+	}
+	switch n := e.(type) {
+	case *engine.Quantity:
+		return sign + n.Text + " " + n.Unit.Symbol
+	case *engine.Number:
+		return sign + n.Text
+	}
+	return "a formula"
 }
 
 // writeNote writes what a checker wants beside a result: its description,
@@ -176,6 +245,20 @@ func writeNote(w sink, calc *engine.Sheet, st *engine.Statement) {
 			w.WriteString(`<a href="#A-` + esc(id) + `">` + esc(id) + "</a>")
 		}
 		w.WriteString("</span>")
+	}
+	if st.Overridden {
+		w.WriteString("<span class=\"setby\">set by ")
+		if st.Use != nil {
+			w.WriteString(`<a href="#` + anchor(st.Use) + `">use ` + esc(st.Use.Name) + "</a>")
+		}
+		if st.Default != nil {
+			w.WriteString("; the template's own value is <code>" + esc(exprText(st.Default)) + "</code>")
+		} else {
+			w.WriteString("; the template requires it")
+		}
+		w.WriteString("</span>")
+	} else if st.Instance != "" && st.IsInput() {
+		w.WriteString("<span class=\"setby\">template default</span>")
 	}
 	w.WriteString(`<a class="loc" href="#` + anchor(st) + `">` + esc(st.Pos.String()) + "</a>")
 	writeLinks(w, "uses", st.Deps)

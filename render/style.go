@@ -68,6 +68,12 @@ table.diff ins{background:var(--ok-bg);text-decoration:none}
 table.diff .kind{font-size:.78rem;font-weight:700;white-space:nowrap}
 table.diff tr.check-flipped .kind,table.diff tr.status-changed .kind{color:var(--bad)}
 table.diff tr.input-changed .kind,table.diff tr.formula-changed .kind{color:var(--warn)}
+.use .usehead{margin:.1rem 0}
+.use .kw{font-weight:700;color:var(--accent)}
+.instance{border-left:3px solid var(--rule);margin:.3rem 0 .2rem .4rem;padding-left:.8rem}
+.setby{color:var(--accent);font-weight:600}
+.row.set .eq math{color:var(--accent)}
+p.caption{font-weight:600;margin-bottom:.2rem}
 .comment{color:var(--muted);font-style:italic;margin:.3rem 0}
 .util{font-variant-numeric:tabular-nums}
 .caution{border:1px solid var(--warn);background:var(--warn-bg);padding:.6rem .9rem;margin:1.5rem 0;font-size:.85rem}

@@ -30,8 +30,12 @@ func splitName(name string) (string, []string) {
 }
 
 // SymbolText writes a name as plain text with the Greek letters set and the
-// subscript after an underscore, for places that are not MathML.
+// subscript after an underscore, for places that are not MathML. A name in
+// a template instance keeps the instance before a dot: c1.λ.
 func SymbolText(name string) string {
+	if i := strings.LastIndexByte(name, '.'); i >= 0 {
+		return name[:i+1] + SymbolText(name[i+1:])
+	}
 	base, subs := splitName(name)
 	if len(subs) == 0 {
 		return base
@@ -39,8 +43,12 @@ func SymbolText(name string) string {
 	return base + "_" + strings.Join(subs, ",")
 }
 
-// symbolMathML writes a name as MathML: a letter with its subscript.
+// symbolMathML writes a name as MathML: a letter with its subscript, after
+// the instance it belongs to, if any.
 func symbolMathML(name string) string {
+	if i := strings.LastIndexByte(name, '.'); i >= 0 {
+		return `<mrow><mi mathvariant="normal">` + html.EscapeString(name[:i]) + "</mi><mo>.</mo>" + symbolMathML(name[i+1:]) + "</mrow>"
+	}
 	base, subs := splitName(name)
 	b := mi(base)
 	if len(subs) == 0 {
@@ -53,6 +61,9 @@ func mi(s string) string { return "<mi>" + html.EscapeString(s) + "</mi>" }
 
 // symbolHTML writes a name as HTML text with a <sub> subscript, for tables.
 func symbolHTML(name string) string {
+	if i := strings.LastIndexByte(name, '.'); i >= 0 {
+		return html.EscapeString(name[:i+1]) + symbolHTML(name[i+1:])
+	}
 	base, subs := splitName(name)
 	out := "<var>" + html.EscapeString(base) + "</var>"
 	if len(subs) > 0 {
