@@ -178,8 +178,9 @@ func unitError(err error, at diag.Pos, what string) *diag.Diagnostic {
 }
 
 // parseNotes reads the annotations after the first ';'. An annotation is
-// `key: value` for a key sheaf knows (source, assume, assumes, and
-// accept <code>); any other text is the statement's description.
+// `key: value` for a key sheaf knows (source, assume, assumes, accept
+// <code>, and example, a value that starter sheets give a template
+// parameter); any other text is the statement's description.
 func parseNotes(st *Statement, t *text, from int) *diag.Diagnostic {
 	r := t.runes
 	for i := from; i < len(r); {
@@ -223,7 +224,7 @@ func joinNote(a, b string) string {
 }
 
 // noteKeys are the annotation keys sheaf understands.
-var noteKeys = map[string]bool{"source": true, "assume": true, "assumes": true, "accept": true}
+var noteKeys = map[string]bool{"source": true, "assume": true, "assumes": true, "accept": true, "example": true}
 
 // noteOf reads "key: value" or "accept code: reason"; ok is false for text
 // that is not an annotation sheaf knows.

@@ -62,29 +62,40 @@ func (t *text) String() string { return string(t.runes) }
 
 // splitStatements turns a block's lines into statements. Blank lines and
 // lines starting with # are comments. A statement continues on the next
-// line while it has an open parenthesis and the next line is indented.
+// line when that line is indented and the statement so far has an open
+// parenthesis or ends with a comma (as a long use ... with list does).
 func splitStatements(b Block) []*text {
 	var out []*text
 	var cur *text
-	depth := 0
+	depth, comma := 0, false
 	for _, l := range b.Lines {
 		trimmed := strings.TrimSpace(l.Text)
 		indented := len(l.Text) > 0 && unicode.IsSpace(rune(l.Text[0]))
-		if cur != nil && depth > 0 && indented && trimmed != "" && !strings.HasPrefix(trimmed, "#") {
+		if cur != nil && (depth > 0 || comma) && indented && trimmed != "" && !strings.HasPrefix(trimmed, "#") {
 			cur.starts = append(cur.starts, lineStart{off: len(cur.runes) + 1, pos: l.Pos})
 			cur.runes = append(cur.runes, '\n')
 			cur.runes = append(cur.runes, []rune(l.Text)...)
 			depth += parenDepth(l.Text)
+			comma = endsWithComma(l.Text)
 			continue
 		}
 		if trimmed == "" || strings.HasPrefix(trimmed, "#") {
 			continue
 		}
 		cur = &text{runes: []rune(l.Text), starts: []lineStart{{0, l.Pos}}}
-		depth = parenDepth(l.Text)
+		depth, comma = parenDepth(l.Text), endsWithComma(l.Text)
 		out = append(out, cur)
 	}
 	return out
+}
+
+// endsWithComma reports whether a line's formula part (it has no ;
+// annotation) ends with a comma.
+func endsWithComma(s string) bool {
+	if strings.ContainsAny(s, ";#") {
+		return false
+	}
+	return strings.HasSuffix(strings.TrimSpace(s), ",")
 }
 
 // parenDepth counts open parentheses in the formula part of a line (before

@@ -61,6 +61,6 @@ func newRoot(stdout, stderr io.Writer) *cobra.Command {
 	root.SetErr(stderr)
 	root.CompletionOptions.DisableDefaultCmd = true
 	root.AddCommand(buildCmd(stdout, stderr), checkCmd(stdout, stderr), auditCmd(stdout, stderr),
-		diffCmd(stdout, stderr), verifyCmd(stdout, stderr), unitsCmd(stdout))
+		diffCmd(stdout, stderr), verifyCmd(stdout, stderr), templatesCmd(stdout), unitsCmd(stdout))
 	return root
 }
