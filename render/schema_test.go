@@ -553,7 +553,7 @@ func reachesLocation(e *jsonschema.ValidationError, at string) bool {
 // unknown; one sheet is a template built on its own, so its parameter has
 // no value.
 var templatedSheets = map[string][]byte{
-	"_t/coil.md": []byte("---\ntitle: coil\ntemplate: true\n---\nAssumption same: every turn links the same flux.\n\n```sheaf\nparam N [1] ; turns\nPhi = 1 mWb ; flux ; source: s\nlambda [Wb] = N * Phi ; linkage ; assumes: same\ncheck lambda <= 1 Wb ; limit ; accept check-literal: a demo\n```\n"),
+	"_t/coil.md":    []byte("---\ntitle: coil\ntemplate: true\n---\nAssumption same: every turn links the same flux.\n\n```sheaf\nparam N [1] ; turns\nPhi = 1 mWb ; flux ; source: s\nlambda [Wb] = N * Phi ; linkage ; assumes: same\ncheck lambda <= 1 Wb ; limit ; accept check-literal: a demo\n```\n"),
 	"standalone.md": []byte("```sheaf\nparam N [1] ; turns\nx = 2 * N\n```\n"),
 	"job.md": []byte("---\ntitle: job\nrevision: A\nchecked by: C\n---\nTable BH: a curve\n\n| H [A/m] | B [T] |\n|---|---|\n| 0 | 0 |\n| 100 | 1 |\n| 1000 | 1.5 |\n\n```sheaf\n" +
 		"N_f = 120 ; turns ; source: drawing\nuse c1 = _t/coil with N = N_f, Phi = 2 mWb\nuse c2 = _t/coil with N = 80\n" +
