@@ -214,12 +214,12 @@ func (s *Sheet) collectBlocks() {
 		lines := fc.Lines()
 		for i := 0; i < lines.Len(); i++ {
 			seg := lines.At(i)
+			// Value includes, as spaces, what is left of a tab that the
+			// block's indentation cut into; those spaces stand before the
+			// segment's first character, so the line starts that much earlier.
 			txt := strings.TrimRight(string(seg.Value(s.Source)), "\n")
 			pos := s.Pos(seg.Start)
-			if seg.Padding > 0 {
-				txt = strings.Repeat(" ", seg.Padding) + txt
-				pos.Col -= seg.Padding
-			}
+			pos.Col -= seg.Padding
 			b.Lines = append(b.Lines, Line{Text: txt, Pos: pos})
 		}
 		s.Blocks = append(s.Blocks, b)
