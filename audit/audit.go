@@ -375,9 +375,11 @@ func applyAcceptances(pkg *project.Package, r *Report) {
 		line int
 		code string
 	}
+	lines := statementLines(pkg)
 	byStatement := map[key][]int{}
 	for i, f := range r.Findings {
-		byStatement[key{f.Pos.File, statementLine(pkg, f), f.Code}] = append(byStatement[key{f.Pos.File, statementLine(pkg, f), f.Code}], i)
+		k := key{f.Pos.File, statementLine(lines, f), f.Code}
+		byStatement[k] = append(byStatement[k], i)
 	}
 	accept := func(k key, reason string, pos diag.Pos, subject string) {
 		if strings.TrimSpace(reason) == "" {
@@ -405,31 +407,44 @@ func applyAcceptances(pkg *project.Package, r *Report) {
 		for _, st := range s.Calc.Statements {
 			for _, n := range st.Notes {
 				if n.Key == "accept" {
-					accept(key{s.Path(), st.Pos.Line, n.Arg}, n.Value, n.Pos, st.Name)
+					// A template's statements keep the template's file, where
+					// both their findings and their acceptances lie.
+					accept(key{st.Pos.File, st.Pos.Line, n.Arg}, n.Value, n.Pos, st.Name)
 				}
 			}
 		}
 	}
 }
 
+// statementLines lists, for every file, the lines on which statements
+// start: the sheets' own, and those of the templates their instances come
+// from, which keep the template's file.
+func statementLines(pkg *project.Package) map[string][]int {
+	lines := map[string][]int{}
+	for _, s := range pkg.Sheets {
+		for _, st := range s.Calc.Statements {
+			lines[st.Pos.File] = append(lines[st.Pos.File], st.Pos.Line)
+		}
+	}
+	return lines
+}
+
 // statementLine is the line of the statement a finding belongs to: its own
 // line for most, the statement's first line for a finding inside a formula
 // that spans lines, 1 for the sheet as a whole.
-func statementLine(pkg *project.Package, f Finding) int {
-	for _, s := range pkg.Sheets {
-		if s.Path() != f.Pos.File {
-			continue
-		}
-		best := 1
-		for _, st := range s.Calc.Statements {
-			if st.Pos.Line <= f.Pos.Line && st.Pos.Line > best {
-				best = st.Pos.Line
-			}
-		}
-		if f.Pos.Line == 1 {
-			return 1
-		}
-		return best
+func statementLine(lines map[string][]int, f Finding) int {
+	if f.Pos.Line == 1 {
+		return 1
 	}
-	return f.Pos.Line
+	starts, ok := lines[f.Pos.File]
+	if !ok {
+		return f.Pos.Line
+	}
+	best := 1
+	for _, l := range starts {
+		if l <= f.Pos.Line && l > best {
+			best = l
+		}
+	}
+	return best
 }

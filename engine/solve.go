@@ -90,8 +90,12 @@ func (s *Sheet) linkSolves() {
 				rest = append(rest, st)
 				continue
 			}
-			for _, r := range st.solve.refs {
-				if r != st && !inner[r] && !containsStmt(st.Deps, r) {
+			// Everything the relation needs that does not move with the
+			// unknown must have its value before the search starts: the
+			// statements the relation names, and those its inner
+			// statements use, wherever they are written.
+			for _, r := range s.givens(st, inner) {
+				if !containsStmt(st.Deps, r) {
 					st.Deps = append(st.Deps, r)
 					r.Users = append(r.Users, st)
 				}
@@ -118,6 +122,32 @@ func (s *Sheet) linkSolves() {
 			}
 		}
 	}
+}
+
+// givens lists the statements a solve's search takes as given: those its
+// relation names, and those its inner statements use, that do not depend
+// on the unknown.
+func (s *Sheet) givens(st *Statement, inner map[*Statement]bool) []*Statement {
+	var out []*Statement
+	seen := map[*Statement]bool{st: true}
+	var walk func(x *Statement)
+	walk = func(x *Statement) {
+		if seen[x] {
+			return
+		}
+		seen[x] = true
+		if !inner[x] {
+			out = append(out, x)
+			return
+		}
+		for _, d := range x.Deps {
+			walk(d)
+		}
+	}
+	for _, r := range st.solve.refs {
+		walk(r)
+	}
+	return out
 }
 
 // innerOf is the set of statements that depend on a solve's unknown.
