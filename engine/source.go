@@ -23,10 +23,13 @@ type Block struct {
 
 // SheetSource is everything the engine needs from one sheet.
 type SheetSource struct {
-	Path        string
-	Blocks      []Block
-	Assumptions []AssumptionSource // prose assumptions, in the order written
-	Tables      []TableSource      // named tables, in the order written
+	Path string
+	// Title and Caution come from the front matter; when the sheet is used
+	// as a template they go to the use statement, for the page to show.
+	Title, Caution string
+	Blocks         []Block
+	Assumptions    []AssumptionSource // prose assumptions, in the order written
+	Tables         []TableSource      // named tables, in the order written
 }
 
 // MaxStatementLength bounds one statement, in characters. A formula longer

@@ -98,13 +98,15 @@ type Statement struct {
 	// the user set its value, Overridden and Default (the template's own
 	// value). Declared is the unit a template input must measure: a
 	// parameter's unit, or the unit of its default.
-	Template   string
-	Overrides  []Override
-	Instance   string
-	Use        *Statement
-	Overridden bool
-	Default    Expr
-	Declared   *units.Unit
+	Template  string
+	Overrides []Override
+	// TemplateTitle and TemplateCaution are the template's, on a use.
+	TemplateTitle, TemplateCaution string
+	Instance                       string
+	Use                            *Statement
+	Overridden                     bool
+	Default                        Expr
+	Declared                       *units.Unit
 
 	// Deps are the statements this one uses directly, in order of first
 	// use; Users are those that use it.

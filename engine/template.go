@@ -200,6 +200,7 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 	}
 	x.stack = append(x.stack, key)
 	defer func() { x.stack = x.stack[:len(x.stack)-1] }()
+	use.TemplateTitle, use.TemplateCaution = src.Title, src.Caution
 
 	// Parse the template afresh: every instance has statements of its own.
 	var body []*Statement

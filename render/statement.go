@@ -193,8 +193,14 @@ func writeUse(w sink, calc *engine.Sheet, use *engine.Statement, digits int) {
 			w.WriteString(symbolHTML(o.Name) + " = <code>" + esc(o.Formula) + "</code>")
 		}
 	}
+	if use.TemplateTitle != "" {
+		w.WriteString(` <span class="tmpltitle">(` + esc(use.TemplateTitle) + `)</span>`)
+	}
 	w.WriteString("</p>\n")
 	writeNote(w, calc, use)
+	if use.TemplateCaution != "" {
+		w.WriteString(`<aside class="caution"><strong>Caution from the template.</strong> ` + esc(use.TemplateCaution) + "</aside>\n")
+	}
 	w.WriteString("<div class=\"instance\">\n")
 	for _, st := range calc.Statements {
 		if st.Use == use {

@@ -38,6 +38,9 @@ type Meta struct {
 	// Template marks a sheet that other sheets use and that is not a page
 	// of the package itself.
 	Template bool `json:"template,omitempty"`
+	// Caution is a warning that goes wherever the sheet is used as a
+	// template, beside the instance's results.
+	Caution string `json:"caution,omitempty"`
 }
 
 // Revision is one row of a sheet's revision history.
@@ -91,6 +94,7 @@ var metaFields = map[string]func(*Meta) *string{
 	"checked_on":  func(m *Meta) *string { return &m.CheckedOn },
 	"approved_by": func(m *Meta) *string { return &m.ApprovedBy },
 	"approved_on": func(m *Meta) *string { return &m.ApprovedOn },
+	"caution":     func(m *Meta) *string { return &m.Caution },
 }
 
 // dateFields are the fields that hold a date.
