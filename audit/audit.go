@@ -100,6 +100,16 @@ func Run(pkg *project.Package) Report {
 		}
 		return a.Code < b.Code
 	})
+	// A finding inside a template is one finding, however many sheets or
+	// instances use the template.
+	kept := r.Findings[:0]
+	for i, f := range r.Findings {
+		if i > 0 && f.Code == r.Findings[i-1].Code && f.Pos == r.Findings[i-1].Pos {
+			continue
+		}
+		kept = append(kept, f)
+	}
+	r.Findings = kept
 	return r
 }
 
@@ -138,6 +148,12 @@ func statementFindings(st *engine.Statement) []Finding {
 	if st.Status == engine.Failed || st.Status == engine.Blocked || st.Status == engine.Pending {
 		return nil // errors are reported as errors
 	}
+	if st.IsInput() && st.Overridden {
+		// A value written straight into a use statement has nowhere to name
+		// its source: it belongs in the sheet as an input of its own.
+		return []Finding{finding("no-source", st.Expr.Pos(), name,
+			"the value given for %s in use %s has no source; name it as an input of the sheet, with its source", name, st.Instance)}
+	}
 	if st.IsInput() {
 		switch {
 		case st.Source == "":
@@ -148,12 +164,13 @@ func statementFindings(st *engine.Statement) []Finding {
 		if st.Description == "" {
 			out = append(out, finding("no-description", st.Pos, name, "input %s has no description", name))
 		}
-		if len(st.Users) == 0 {
+		// A template offers values that a using sheet need not all use.
+		if len(st.Users) == 0 && st.Instance == "" {
 			out = append(out, finding("unused-input", st.Pos, name, "nothing uses input %s", name))
 		}
 		return out
 	}
-	if st.Kind == engine.Definition && len(st.Users) == 0 && st.Description == "" {
+	if st.Kind == engine.Definition && len(st.Users) == 0 && st.Description == "" && st.Instance == "" {
 		out = append(out, finding("unused-result", st.Pos, name, "nothing uses %s and it has no description", name))
 	}
 	out = append(out, buried(st, name)...)

@@ -19,6 +19,7 @@ var diffLabels = map[revdiff.Kind]string{
 	revdiff.FormulaChanged: "formula changed", revdiff.ResultAdded: "result added", revdiff.ResultRemoved: "result removed",
 	revdiff.ResultMoved: "result moved", revdiff.CheckFlipped: "check flipped", revdiff.CheckAdded: "check added",
 	revdiff.CheckRemoved: "check removed", revdiff.StatusChanged: "now fails to evaluate",
+	revdiff.InstanceAdded: "instance added", revdiff.InstanceRemoved: "instance removed", revdiff.TemplateChanged: "template changed",
 }
 
 // DiffLabel names a kind of change.
@@ -29,6 +30,9 @@ func DiffLabel(k revdiff.Kind) string { return diffLabels[k] }
 func outcomeText(st *engine.Statement, digits int) string {
 	if st == nil {
 		return "—"
+	}
+	if st.Kind == engine.Use {
+		return "use of " + st.Template
 	}
 	switch st.Status {
 	case engine.OK:

@@ -32,11 +32,17 @@ const (
 	CheckAdded     Kind = "check-added"
 	CheckRemoved   Kind = "check-removed"
 	StatusChanged  Kind = "status-changed"
+	// An instance of a template added or removed is one change; the
+	// statements it brings are not listed one by one.
+	InstanceAdded   Kind = "instance-added"
+	InstanceRemoved Kind = "instance-removed"
+	// TemplateChanged is a use statement that names another template.
+	TemplateChanged Kind = "template-changed"
 )
 
 var kindOrder = map[Kind]int{SheetAdded: 0, SheetRemoved: 1, InputChanged: 2, InputAdded: 3, InputRemoved: 4,
 	FormulaChanged: 5, ResultAdded: 6, ResultRemoved: 7, ResultMoved: 8, CheckFlipped: 9, CheckAdded: 10,
-	CheckRemoved: 11, StatusChanged: 12}
+	CheckRemoved: 11, StatusChanged: 12, InstanceAdded: 13, InstanceRemoved: 14, TemplateChanged: 15}
 
 // Change is one difference between the revisions. Old and New are the
 // statements on either side (nil where there is none).
@@ -125,6 +131,39 @@ func compareSheet(o, n *project.Sheet, threshold float64) []Change {
 	add := func(k Kind, name string, a, b *engine.Statement, rel float64) {
 		out = append(out, Change{Kind: k, Sheet: path, Name: name, Old: a, New: b, Rel: rel})
 	}
+	// Instances, by name: one added or removed is reported once, and the
+	// statements inside it are left out below.
+	oldUses, newUses := uses(o), uses(n)
+	skip := map[string]bool{} // instances present on one side only
+	for name, b := range newUses {
+		a, ok := oldUses[name]
+		switch {
+		case !ok:
+			add(InstanceAdded, name, nil, b, 0)
+			skip[name] = true
+		case a.Template != b.Template:
+			add(TemplateChanged, name, a, b, 0)
+		}
+	}
+	for name, a := range oldUses {
+		if _, ok := newUses[name]; !ok {
+			add(InstanceRemoved, name, a, nil, 0)
+			skip[name] = true
+		}
+	}
+	inSkipped := func(st *engine.Statement) bool {
+		for inst := st.Instance; inst != ""; {
+			if skip[inst] {
+				return true
+			}
+			i := strings.LastIndexByte(inst, '.')
+			if i < 0 {
+				break
+			}
+			inst = inst[:i]
+		}
+		return false
+	}
 	// Definitions, by name.
 	oldDefs := map[string]*engine.Statement{}
 	for _, st := range o.Calc.Statements {
@@ -134,7 +173,7 @@ func compareSheet(o, n *project.Sheet, threshold float64) []Change {
 	}
 	seen := map[string]bool{}
 	for _, b := range n.Calc.Statements {
-		if b.Kind != engine.Definition || b.Name == "" || seen[b.Name] {
+		if b.Kind != engine.Definition || b.Name == "" || seen[b.Name] || inSkipped(b) {
 			continue
 		}
 		seen[b.Name] = true
@@ -162,7 +201,7 @@ func compareSheet(o, n *project.Sheet, threshold float64) []Change {
 		}
 	}
 	for _, a := range o.Calc.Statements {
-		if a.Kind != engine.Definition || a.Name == "" || seen[a.Name] {
+		if a.Kind != engine.Definition || a.Name == "" || seen[a.Name] || inSkipped(a) {
 			continue
 		}
 		seen[a.Name] = true
@@ -173,9 +212,9 @@ func compareSheet(o, n *project.Sheet, threshold float64) []Change {
 		}
 	}
 	// Checks, by formula, then by description.
-	oldChecks := checks(o)
+	oldChecks := checks(o, inSkipped)
 	used := map[*engine.Statement]bool{}
-	for _, b := range checks(n) {
+	for _, b := range checks(n, inSkipped) {
 		a := match(oldChecks, b, used)
 		if a == nil {
 			add(CheckAdded, b.Formula, nil, b, 0)
@@ -197,11 +236,27 @@ func compareSheet(o, n *project.Sheet, threshold float64) []Change {
 	return out
 }
 
-func checks(s *project.Sheet) []*engine.Statement {
+func checks(s *project.Sheet, skip func(*engine.Statement) bool) []*engine.Statement {
 	var out []*engine.Statement
 	for _, st := range s.Calc.Statements {
-		if st.Kind == engine.Check {
+		if st.Kind == engine.Check && !skip(st) {
 			out = append(out, st)
+		}
+	}
+	return out
+}
+
+// uses maps a sheet's instances, nested ones included, to their use
+// statements.
+func uses(s *project.Sheet) map[string]*engine.Statement {
+	out := map[string]*engine.Statement{}
+	for _, st := range s.Calc.Statements {
+		if st.Kind == engine.Use {
+			name := st.Name
+			if st.Instance != "" {
+				name = st.Instance + "." + name
+			}
+			out[name] = st
 		}
 	}
 	return out

@@ -181,20 +181,16 @@ func TestUnitsListsTheTable(t *testing.T) {
 	}
 }
 
-// copyDir copies the Markdown sheets of a folder.
+// copyDir copies a folder of sheets, with its sub-folders.
 func copyDir(t *testing.T, from string) string {
 	t.Helper()
 	to := t.TempDir()
-	entries, err := os.ReadDir(from)
-	if err != nil {
-		t.Fatal(err)
-	}
-	for _, e := range entries {
-		data, err := os.ReadFile(filepath.Join(from, e.Name()))
-		if err != nil {
+	for rel, data := range readTree(t, from) {
+		p := filepath.Join(to, rel)
+		if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
 			t.Fatal(err)
 		}
-		if err := os.WriteFile(filepath.Join(to, e.Name()), data, 0o644); err != nil {
+		if err := os.WriteFile(p, data, 0o644); err != nil {
 			t.Fatal(err)
 		}
 	}
@@ -215,7 +211,7 @@ func TestVerify(t *testing.T) {
 	// One character of one source changes: verify fails and names the file.
 	sheet := filepath.Join(src, "03-speed-voltage.md")
 	data, _ := os.ReadFile(sheet)
-	changed := strings.Replace(string(data), "D = 0.900 m", "D = 0.901 m", 1)
+	changed := strings.Replace(string(data), "B_1 = 0.92 T", "B_1 = 0.93 T", 1)
 	if changed == string(data) {
 		t.Fatal("the demo sheet no longer has the line this test edits")
 	}
@@ -294,7 +290,7 @@ func TestEveryPageCarriesTheStampAndTheSourceDate(t *testing.T) {
 
 func TestAuditAndDiffCommandsOnTheDemo(t *testing.T) {
 	code, stdout, _ := runCLI("audit", demo)
-	if code != exitOK || !strings.Contains(stdout, "0 findings open, 4 accepted") {
+	if code != exitOK || !strings.Contains(stdout, "0 findings open, 5 accepted") {
 		t.Errorf("audit of the demo: exit %d:\n%s", code, stdout)
 	}
 	code, stdout, _ = runCLI("audit", "../../examples/tarnwick-weir-rev-A")
@@ -303,7 +299,7 @@ func TestAuditAndDiffCommandsOnTheDemo(t *testing.T) {
 	}
 	html := filepath.Join(t.TempDir(), "changes.html")
 	code, stdout, _ = runCLI("diff", "../../examples/tarnwick-weir-rev-A", demo, "--html", html)
-	if code != exitOK || !strings.Contains(stdout, "check flipped    check k_m * U_tt_s <= U_w_tt: FAIL (118 %) → PASS (27.5 %)") {
+	if code != exitOK || !strings.Contains(stdout, "check flipped    check k_m * ins.U_tt_s <= U_w_tt: FAIL (118 %) → PASS (27.5 %)") {
 		t.Errorf("diff of the demo's revisions: exit %d:\n%s", code, stdout)
 	}
 	page, err := os.ReadFile(html)
