@@ -8,6 +8,8 @@
 package engine
 
 import (
+	"sync"
+
 	"github.com/sheaf-calc/sheaf/diag"
 	"github.com/sheaf-calc/sheaf/units"
 )
@@ -32,15 +34,30 @@ type Type struct {
 }
 
 type node struct {
-	P diag.Pos
-	T Type
+	// The position, held compactly: a sheet has hundreds of thousands of
+	// nodes, and they share a handful of file names.
+	file      *string
+	line, col int32
+	T         Type
 	// fn evaluates the node over the sheet's slot values; set by compile.
 	fn evalFn
 }
 
-func (n *node) Pos() diag.Pos { return n.P }
-func (n *node) Type() *Type   { return &n.T }
-func (n *node) base() *node   { return n }
+// Pos returns where the node starts.
+func (n *node) Pos() diag.Pos {
+	if n.file == nil {
+		return diag.Pos{Line: int(n.line), Col: int(n.col)}
+	}
+	return diag.Pos{File: *n.file, Line: int(n.line), Col: int(n.col)}
+}
+
+// setPos records where the node starts.
+func (n *node) setPos(p diag.Pos) {
+	n.file = intern(p.File)
+	n.line, n.col = int32(p.Line), int32(p.Col)
+}
+func (n *node) Type() *Type { return &n.T }
+func (n *node) base() *node { return n }
 
 // Number is a plain number with no unit: 2, 0.5, 1e-3.
 type Number struct {
@@ -140,4 +157,15 @@ func Precedence(e Expr) int {
 		return 3
 	}
 	return 5
+}
+
+var interned sync.Map // file name -> *string
+
+// intern returns one shared copy of a file name.
+func intern(s string) *string {
+	if p, ok := interned.Load(s); ok {
+		return p.(*string)
+	}
+	p, _ := interned.LoadOrStore(s, &s)
+	return p.(*string)
 }

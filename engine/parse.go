@@ -524,7 +524,7 @@ func scanLiteral(t *text, i, to int) (*Quantity, int, *diag.Diagnostic) {
 			"a power after a space is ambiguous after a quantity")
 	}
 	q := &Quantity{Text: numText, UnitText: unitText, Value: val, Unit: u, SI: u.ToSI(val)}
-	q.P = t.pos(start)
+	q.setPos(t.pos(start))
 	return q, end, nil
 }
 
@@ -652,18 +652,18 @@ func (c *converter) convert(n ast.Node) Expr {
 	switch n := n.(type) {
 	case *ast.IntegerNode:
 		e := &Number{Text: c.source(n), Value: float64(n.Value)}
-		e.P = pos
+		e.setPos(pos)
 		return e
 	case *ast.FloatNode:
 		e := &Number{Text: c.source(n), Value: n.Value}
-		e.P = pos
+		e.setPos(pos)
 		return e
 	case *ast.IdentifierNode:
 		if q, ok := c.s.literals[n.Value]; ok {
 			return q
 		}
 		e := &Ref{Name: n.Value}
-		e.P = pos
+		e.setPos(pos)
 		return e
 	case *ast.UnaryNode:
 		if n.Operator != "-" && n.Operator != "+" {
@@ -671,7 +671,7 @@ func (c *converter) convert(n ast.Node) Expr {
 		}
 		x := c.convert(n.Node)
 		e := &Unary{Op: n.Operator, X: x}
-		e.P = pos
+		e.setPos(pos)
 		return e
 	case *ast.BinaryNode:
 		op := n.Operator
@@ -698,7 +698,7 @@ func (c *converter) convert(n ast.Node) Expr {
 			}
 		}
 		e := &Binary{Op: op, X: x, Y: y}
-		e.P = pos
+		e.setPos(pos)
 		return e
 	case *ast.CallNode:
 		id, ok := n.Callee.(*ast.IdentifierNode)
@@ -711,7 +711,7 @@ func (c *converter) convert(n ast.Node) Expr {
 	case *ast.MemberNode:
 		if name, ok := qualifiedName(n); ok {
 			e := &Ref{Name: name}
-			e.P = c.s.at(c.t, qualifiedStart(n))
+			e.setPos(c.s.at(c.t, qualifiedStart(n)))
 			return e
 		}
 		return c.fail(n, "names use _ for subscripts; a dot reaches into a template instance or a table, as in coil_a.lambda", "unexpected .")
@@ -739,11 +739,11 @@ func (c *converter) call(n ast.Node, name string, args []ast.Node, pos diag.Pos)
 		return c.fail(n, hint, "unknown function %s", name)
 	}
 	e := &Call{Name: name, Func: f}
-	e.P = pos
+	e.setPos(pos)
 	for _, a := range args {
 		if id, ok := a.(*ast.IdentifierNode); ok && id.Value == "extrapolate" {
 			k := &Keyword{Word: id.Value}
-			k.P = c.s.at(c.t, a.Location().From)
+			k.setPos(c.s.at(c.t, a.Location().From))
 			e.Args = append(e.Args, k)
 			continue
 		}

@@ -397,6 +397,24 @@ func (s *Sheet) Evaluate() {
 	s.Diags.Sort()
 }
 
+// Release drops the compiled closures once every statement has its value.
+// A package keeps its sheets for rendering, where the closures would only
+// hold memory; after Release the sheet cannot be evaluated again.
+func (s *Sheet) Release() {
+	for _, st := range s.Statements {
+		st.fn, st.right = nil, nil
+		if st.Expr != nil {
+			Walk(st.Expr, func(e Expr) { e.base().fn = nil })
+		}
+		if st.solve != nil {
+			for _, e := range []Expr{st.solve.lo, st.solve.hi, st.solve.relation} {
+				Walk(e, func(e Expr) { e.base().fn = nil })
+			}
+			st.solve.inner = nil
+		}
+	}
+}
+
 // unshowable reports a finite SI value that overflows in the unit it is to
 // be shown in, such as 1e306 m in nm.
 func unshowable(st *Statement, v float64) *diag.Diagnostic {

@@ -147,6 +147,7 @@ func FromFiles(root string, files map[string][]byte) *Package {
 		doc := pages[i]
 		calc := engine.CompileWith(sourceOf(doc), engine.Options{Resolve: r.resolve})
 		calc.Evaluate()
+		calc.Release()
 		pkg.Sheets[i] = &Sheet{Doc: doc, Calc: calc, Page: "sheets/" + strings.TrimSuffix(doc.Path, path.Ext(doc.Path)) + ".html"}
 	})
 

@@ -36,6 +36,8 @@ type Options struct {
 	BuildDate string
 	// Audit, when set, adds the audit page and the findings to the JSON.
 	Audit *audit.Report
+
+	stamp string // the package stamp, worked out once per render
 }
 
 // File is one output file of a built package.
@@ -65,6 +67,7 @@ func HTML(pkg *project.Package, opt Options) ([]File, error) {
 // rendered in parallel but emitted in a fixed order, and only a few are
 // held in memory at once.
 func WriteHTML(pkg *project.Package, opt Options, emit func(File) error) error {
+	opt.stamp = project.StampOf(pkg.Files, opt.Version)
 	for _, f := range packagePages(pkg, opt) {
 		if err := emit(f); err != nil {
 			return err
@@ -102,6 +105,7 @@ func WriteHTML(pkg *project.Package, opt Options, emit func(File) error) error {
 	for w := 0; w < workers; w++ {
 		go func() {
 			var g *grapher
+			pr := newProse()
 			defer func() { g.close() }()
 			for i := range next {
 				s := pkg.Sheets[i]
@@ -111,7 +115,7 @@ func WriteHTML(pkg *project.Package, opt Options, emit func(File) error) error {
 					g, err = newGrapher(opt.GraphCache)
 				}
 				if err == nil {
-					data, err = sheetPage(pkg, s, opt, g)
+					data, err = sheetPage(pkg, s, opt, g, pr)
 				}
 				if err != nil {
 					err = fmt.Errorf("%s: %w", s.Path(), err)
@@ -217,7 +221,11 @@ func (p *page) close(version, what string) {
 
 // packageFrame is the frame every page of a package shares.
 func packageFrame(pkg *project.Package, opt Options) frame {
-	fr := frame{stamp: project.StampOf(pkg.Files, opt.Version), date: opt.BuildDate}
+	stamp := opt.stamp
+	if stamp == "" {
+		stamp = project.StampOf(pkg.Files, opt.Version)
+	}
+	fr := frame{stamp: stamp, date: opt.BuildDate}
 	fr.pages = []navItem{{"index.html", "Package index"}, {"inputs.html", "Inputs register"}, {"assumptions.html", "Assumptions register"}}
 	if opt.Audit != nil {
 		fr.pages = append(fr.pages, navItem{"audit.html", "Audit"})

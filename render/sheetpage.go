@@ -14,11 +14,33 @@ import (
 // sheetPage renders one sheet: its title block and revision history, the
 // tally of its results, checks and errors, the prose with every formula
 // block drawn in place, the dependency graph and the inputs register.
-func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, g *grapher) ([]byte, error) {
+// prose renders the Markdown of one sheet after another. Building a
+// goldmark instance costs more than rendering a page, so each rendering
+// goroutine keeps one and points its block renderer at the current sheet.
+type prose struct {
+	md     goldmark.Markdown
+	blocks *blockRenderer
+}
+
+func newProse() *prose {
+	blocks := &blockRenderer{}
+	md := goldmark.New(
+		goldmark.WithExtensions(sheets.Extensions()...),
+		goldmark.WithRendererOptions(renderer.WithNodeRenderers(util.Prioritized(blocks, 100))),
+	)
+	return &prose{md: md, blocks: blocks}
+}
+
+func (pr *prose) render(p *page, s *project.Sheet, digits int) error {
+	*pr.blocks = blockRenderer{sheet: s, digits: digits}
+	return pr.md.Renderer().Render(&p.Buffer, s.Doc.Source, s.Doc.Doc)
+}
+
+func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, g *grapher, pr *prose) ([]byte, error) {
 	digits := s.Digits(opt.Digits)
 	p := &page{}
-	// Pages run to about ten times their source; growing once saves copies.
-	p.Grow(16<<10 + 10*len(s.Doc.Source))
+	// Pages run to about twenty times their source; growing once saves copies.
+	p.Grow(16<<10 + 24*len(s.Doc.Source))
 	fr := packageFrame(pkg, opt)
 	fr.title = s.Title()
 	fr.root = rel(s.Page)
@@ -28,13 +50,8 @@ func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, g *grapher) 
 	history(p, m)
 	statusSection(p, s, digits)
 
-	blocks := &blockRenderer{sheet: s, digits: digits}
-	md := goldmark.New(
-		goldmark.WithExtensions(sheets.Extensions()...),
-		goldmark.WithRendererOptions(renderer.WithNodeRenderers(util.Prioritized(blocks, 100))),
-	)
 	p.f("<article class=\"prose\">\n")
-	if err := md.Renderer().Render(&p.Buffer, s.Doc.Source, s.Doc.Doc); err != nil {
+	if err := pr.render(p, s, digits); err != nil {
 		return nil, err
 	}
 	p.f("</article>\n")
