@@ -184,8 +184,18 @@ func unitError(err error, at diag.Pos, what string) *diag.Diagnostic {
 func parseNotes(st *Statement, t *text, from int) *diag.Diagnostic {
 	r := t.runes
 	for i := from; i < len(r); {
-		j := i + 1
-		for j < len(r) && r[j] != ';' {
+		// A ; inside parentheses belongs to the note: "(from memory; check
+		// the current edition)".
+		j, depth := i+1, 0
+		for j < len(r) && (r[j] != ';' || depth > 0) {
+			switch r[j] {
+			case '(':
+				depth++
+			case ')':
+				if depth > 0 {
+					depth--
+				}
+			}
 			j++
 		}
 		raw := string(r[i+1 : j])

@@ -261,6 +261,9 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 		target.Expr = o.Expr
 		target.Overridden = true
 		target.Formula = o.Formula
+		// The value now comes from the using sheet, not from the source
+		// the template gave for its default.
+		target.Source = ""
 	}
 	var missing []string
 	for _, st := range body {

@@ -61,11 +61,30 @@ func (s *Sheet) linkAssumptions(prose []AssumptionSource) {
 				continue
 			}
 			a.Direct = append(a.Direct, st)
+			if st.Kind == Use {
+				// Everything an instance computes rests on what its use assumes.
+				a.Direct = append(a.Direct, s.instanceStatements(st)...)
+			}
 		}
 	}
 	for _, a := range s.Assumptions {
 		a.Dependents = closure(a.Direct, func(st *Statement) []*Statement { return st.Users })
 	}
+}
+
+// instanceStatements lists the statements of a use's instance, nested
+// instances included.
+func (s *Sheet) instanceStatements(use *Statement) []*Statement {
+	var out []*Statement
+	for _, st := range s.Statements {
+		for u := st.Use; u != nil; u = u.Use {
+			if u == use {
+				out = append(out, st)
+				break
+			}
+		}
+	}
+	return out
 }
 
 func (s *Sheet) assumptionHint(byID map[string]*Assumption) string {

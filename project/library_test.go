@@ -644,6 +644,17 @@ func TestLibraryListing(t *testing.T) {
 // package, that every default input of every template has a description
 // and a source, and every result a description.
 func TestLibraryInputsHaveSources(t *testing.T) {
+	for _, name := range sheets.LibraryNames() {
+		doc, err := sheets.LibraryTemplate(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, in := range project.TemplateInputs(doc) {
+			if !in.Required && in.Source == "" {
+				t.Errorf("lib/%s: default input %s has no source", name, in.Name)
+			}
+		}
+	}
 	_, byPath := loadLibrary(t)
 	seen := map[string]bool{}
 	for _, s := range byPath {
@@ -656,7 +667,9 @@ func TestLibraryInputsHaveSources(t *testing.T) {
 				continue
 			}
 			seen[key] = true
-			isDefault := st.Default != nil || (st.IsInput() && !st.Overridden)
+			// A default the sheet overrode carries the sheet's value, not the
+			// template's source; TemplateInputs below checks those sources.
+			isDefault := st.IsInput() && !st.Overridden
 			if st.Kind == engine.Definition && st.Description == "" {
 				t.Errorf("%v: %s has no description", st.Pos, st.Name)
 			}

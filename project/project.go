@@ -67,16 +67,38 @@ func Load(root string) (*Package, error) {
 	if err != nil {
 		return nil, fmt.Errorf("cannot read %s: %w", root, err)
 	}
-	files := map[string][]byte{}
 	if !info.IsDir() {
-		data, err := os.ReadFile(root)
+		// One sheet, with the templates of the folder it lies in.
+		dir := filepath.Dir(root)
+		files, err := readFolder(dir)
 		if err != nil {
 			return nil, err
 		}
-		files[filepath.Base(root)] = data
-		return FromFiles(filepath.Dir(root), files), nil
+		one := filepath.ToSlash(filepath.Base(root))
+		if _, ok := files[one]; !ok {
+			data, err := os.ReadFile(root)
+			if err != nil {
+				return nil, err
+			}
+			files[one] = data
+		}
+		return fromFiles(dir, files, func(p string) bool { return p == one }), nil
 	}
-	err = filepath.WalkDir(root, func(p string, d fs.DirEntry, err error) error {
+	files, err := readFolder(root)
+	if err != nil {
+		return nil, err
+	}
+	if len(files) == 0 {
+		return nil, fmt.Errorf("%s holds no Markdown sheets (*.md)", root)
+	}
+	return FromFiles(root, files), nil
+}
+
+// readFolder reads every .md file below a folder, skipping folders whose
+// names start with ".".
+func readFolder(root string) (map[string][]byte, error) {
+	files := map[string][]byte{}
+	err := filepath.WalkDir(root, func(p string, d fs.DirEntry, err error) error {
 		if err != nil {
 			return err
 		}
@@ -98,13 +120,7 @@ func Load(root string) (*Package, error) {
 		files[filepath.ToSlash(rel)] = data
 		return nil
 	})
-	if err != nil {
-		return nil, err
-	}
-	if len(files) == 0 {
-		return nil, fmt.Errorf("%s holds no Markdown sheets (*.md)", root)
-	}
-	return FromFiles(root, files), nil
+	return files, err
 }
 
 // isTemplatePath reports whether a file lies in a folder whose name starts
@@ -123,6 +139,12 @@ func isTemplatePath(p string) bool {
 // the package. Files are parsed and sheets compiled in parallel; the result
 // does not depend on the order in which they finish.
 func FromFiles(root string, files map[string][]byte) *Package {
+	return fromFiles(root, files, nil)
+}
+
+// fromFiles builds a package whose pages are the sheets page accepts (all
+// but templates when page is nil); every file is available as a template.
+func fromFiles(root string, files map[string][]byte, page func(string) bool) *Package {
 	paths := make([]string, 0, len(files))
 	for p := range files {
 		paths = append(paths, p)
@@ -136,11 +158,15 @@ func FromFiles(root string, files map[string][]byte) *Package {
 	var pages []*sheets.Sheet
 	for _, d := range docs {
 		r.docs[d.Path] = d
-		if d.Meta.Template || isTemplatePath(d.Path) {
+		switch {
+		case page != nil && page(d.Path):
+			pages = append(pages, d)
+		case page != nil:
+		case d.Meta.Template || isTemplatePath(d.Path):
 			pkg.Templates = append(pkg.Templates, d)
-			continue
+		default:
+			pages = append(pages, d)
 		}
-		pages = append(pages, d)
 	}
 	pkg.Sheets = make([]*Sheet, len(pages))
 	parallel(len(pages), func(i int) {

@@ -13,6 +13,7 @@ type TemplateInput struct {
 	Description string
 	Required    bool   // a param: the using sheet must set it
 	Default     string // the template's own value, for an input with one
+	Source      string // where the template's own value comes from
 	Example     string // from `; example: ...`, a value for a starter sheet
 }
 
@@ -24,7 +25,7 @@ func TemplateInputs(doc *sheets.Sheet) []TemplateInput {
 		if st.Kind != engine.Param && !st.IsInput() {
 			continue
 		}
-		in := TemplateInput{Name: st.Name, Description: st.Description, Required: st.Kind == engine.Param}
+		in := TemplateInput{Name: st.Name, Description: st.Description, Required: st.Kind == engine.Param, Source: st.Source}
 		for _, n := range st.Notes {
 			if n.Key == "example" {
 				in.Example = n.Value

@@ -313,6 +313,9 @@ func writeLinks(w sink, label string, sts []*engine.Statement) {
 		name := symbolHTML(d.Name)
 		if d.Kind == engine.Check {
 			name = "check at line " + strconv.Itoa(d.Pos.Line)
+			if d.Instance != "" {
+				name = "check of " + esc(d.Instance) + " at " + esc(d.Pos.File) + ":" + strconv.Itoa(d.Pos.Line)
+			}
 		}
 		w.WriteString(`<a href="#` + anchor(d) + `">` + name + "</a>")
 	}

@@ -3,6 +3,7 @@ package render
 import (
 	"fmt"
 	"io"
+	"strings"
 
 	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
@@ -59,10 +60,18 @@ func Count(n int, noun string) string {
 // TerminalLine writes one statement's outcome as a line of text.
 func TerminalLine(st *engine.Statement, digits int) string {
 	if st.Kind == engine.Use && st.Status == engine.OK {
-		return fmt.Sprintf("use %s = %s", st.Name, st.Formula)
+		return fmt.Sprintf("use %s = %s", st.Name, strings.Join(strings.Fields(st.Formula), " "))
 	}
 	switch st.Status {
 	case engine.OK:
+		if r, ok := st.Expr.(*engine.Ref); ok && r.Target != nil && r.Target.IsInput() && sameUnit(st.Display, r.Target) {
+			// A name that only passes an input on reads as that input.
+			v, u := InputText(r.Target)
+			if units.SpaceBefore(u) && u != "" {
+				v += " "
+			}
+			return fmt.Sprintf("%s = %s%s", SymbolText(st.Name), v, u)
+		}
 		if st.IsInput() {
 			v, u := InputText(st)
 			if units.SpaceBefore(u) && u != "" {
@@ -117,4 +126,14 @@ func instancePrefix(st *engine.Statement) string {
 		return ""
 	}
 	return st.Instance + ": "
+}
+
+// sameUnit reports whether a display unit (nil for none) shows an input the
+// way it was written.
+func sameUnit(display *units.Unit, input *engine.Statement) bool {
+	if display == nil {
+		return true
+	}
+	_, u := InputText(input)
+	return display.Symbol == u || (display.Symbol == "1" && u == "")
 }
