@@ -137,7 +137,7 @@ func sheetFindings(s *project.Sheet) []Finding {
 	return out
 }
 
-var openMarkers = []string{"tbc", "tbd", "tba", "to be confirmed", "to be decided", "preliminary", "?"}
+var openMarkers = []string{"tbc", "tbd", "tba", "to be confirmed", "to be decided", "preliminary", "example value", "?"}
 
 func statementFindings(st *engine.Statement) []Finding {
 	var out []Finding

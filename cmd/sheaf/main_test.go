@@ -307,3 +307,31 @@ func TestAuditAndDiffCommandsOnTheDemo(t *testing.T) {
 		t.Errorf("diff page: %v", err)
 	}
 }
+
+// A job starts from a library template in two commands, and builds.
+func TestStartAJobFromATemplate(t *testing.T) {
+	job := filepath.Join(t.TempDir(), "J-101")
+	code, stdout, stderr := runCLI("templates", "copy", "magnetic-circuit", job)
+	if code != exitOK || !strings.Contains(stdout, "_templates") {
+		t.Fatalf("copy: exit %d: %s %s", code, stdout, stderr)
+	}
+	out := filepath.Join(t.TempDir(), "out")
+	if code, stdout, stderr := runCLI("build", job, "-o", out, "--no-graphs"); code != exitOK || !strings.Contains(stdout, "1 sheet,") {
+		t.Fatalf("build of the starter job: exit %d: %s %s", code, stdout, stderr)
+	}
+	// The starter's example values are open until the job's replace them.
+	code, stdout, _ = runCLI("audit", job)
+	if code != exitCheckFailed || !strings.Contains(stdout, "[open-source]") {
+		t.Errorf("audit of the starter job: exit %d:\n%s", code, stdout)
+	}
+	// Copying over an existing job is refused.
+	if code, _, stderr := runCLI("templates", "copy", "magnetic-circuit", job); code != exitErrors || !strings.Contains(stderr, "already exists") {
+		t.Errorf("second copy: exit %d: %s", code, stderr)
+	}
+	code, stdout, _ = runCLI("templates")
+	for _, name := range []string{"lib/flux-linkage", "lib/magnetic-circuit-saturating", "lib/insulation-margin"} {
+		if code != exitOK || !strings.Contains(stdout, name) {
+			t.Errorf("templates lacks %s", name)
+		}
+	}
+}
