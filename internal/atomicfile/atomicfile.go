@@ -1,6 +1,8 @@
 // Package atomicfile writes files so that a reader sees either the old
 // content or the new, never half of either: write a temporary file beside
-// the target, flush it, then rename it over the target.
+// the target, then rename it over the target. It does not wait for the
+// disk (fsync): what sheaf writes is rebuilt from the sources, and a
+// thousand-page package would spend most of its build waiting.
 package atomicfile
 
 import (
@@ -36,9 +38,6 @@ func WriteFunc(path string, perm os.FileMode, fill func(io.Writer) error) error 
 		}
 	}()
 	if err := fill(tmp); err != nil {
-		return err
-	}
-	if err := tmp.Sync(); err != nil {
 		return err
 	}
 	if err := tmp.Close(); err != nil {
