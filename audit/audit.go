@@ -274,20 +274,8 @@ func literal(e engine.Expr) bool {
 }
 
 func literalText(e engine.Expr) string {
-	sign := ""
-	if u, ok := e.(*engine.Unary); ok {
-		e = u.X
-		if u.Op == "-" {
-			sign = "-"
-		}
-	}
-	switch n := e.(type) {
-	case *engine.Quantity:
-		return sign + n.Text + " " + n.Unit.Symbol
-	case *engine.Number:
-		return sign + n.Text
-	}
-	return ""
+	text, _ := engine.LiteralString(e)
+	return text
 }
 
 // plainFactor tells the numbers a formula may hold without comment: small
@@ -367,20 +355,7 @@ func same(a, b float64) bool {
 	return a == b || math.Abs(a-b) <= 1e-12*math.Max(math.Abs(a), math.Abs(b))
 }
 
-func inputText(st *engine.Statement) string {
-	e := st.Expr
-	sign := ""
-	if u, ok := e.(*engine.Unary); ok && u.Op == "-" {
-		e, sign = u.X, "-"
-	}
-	switch n := e.(type) {
-	case *engine.Quantity:
-		return sign + n.Text + " " + n.Unit.Symbol
-	case *engine.Number:
-		return sign + n.Text
-	}
-	return ""
-}
+func inputText(st *engine.Statement) string { return literalText(st.Expr) }
 
 // applyAcceptances marks findings that a sheet accepts: `; accept code:
 // reason` on the statement for findings at that statement, and the

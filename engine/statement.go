@@ -148,19 +148,41 @@ func (s *Statement) IsInput() bool {
 	if s.Kind != Definition || s.Expr == nil {
 		return false
 	}
-	e := s.Expr
-	if u, ok := e.(*Unary); ok {
-		e = u.X
-	}
-	switch e.(type) {
-	case *Quantity, *Number:
-		return true
-	}
-	return false
+	_, _, ok := LiteralText(s.Expr)
+	return ok
 }
 
 // Compare returns the comparison of a check.
 func (s *Statement) Compare() *Binary {
 	b, _ := s.Expr.(*Binary)
 	return b
+}
+
+// LiteralText returns a literal as its author wrote it: the number (with
+// its sign) and the unit symbol, "" for a pure number. ok is false when e
+// is not a literal.
+func LiteralText(e Expr) (value, unit string, ok bool) {
+	sign := ""
+	if u, isUnary := e.(*Unary); isUnary {
+		e = u.X
+		if u.Op == "-" {
+			sign = "-"
+		}
+	}
+	switch n := e.(type) {
+	case *Quantity:
+		return sign + n.Text, n.Unit.Symbol, true
+	case *Number:
+		return sign + n.Text, "", true
+	}
+	return "", "", false
+}
+
+// LiteralString joins LiteralText's number and unit: "2.5 mWb", "-3".
+func LiteralString(e Expr) (string, bool) {
+	v, u, ok := LiteralText(e)
+	if u != "" {
+		v += " " + u
+	}
+	return v, ok
 }

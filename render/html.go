@@ -266,21 +266,8 @@ func messageText(d diag.Diagnostic) string {
 
 // InputText returns an input's value and unit as the author wrote them.
 func InputText(st *engine.Statement) (value, unit string) {
-	e := st.Expr
-	sign := ""
-	if u, ok := e.(*engine.Unary); ok {
-		e = u.X
-		if u.Op == "-" {
-			sign = "-"
-		}
-	}
-	switch n := e.(type) {
-	case *engine.Quantity:
-		return sign + n.Text, n.Unit.Symbol
-	case *engine.Number:
-		return sign + n.Text, ""
-	}
-	return "", ""
+	value, unit, _ = engine.LiteralText(st.Expr)
+	return value, unit
 }
 
 func pageOf(pkg *project.Package, file string) string {

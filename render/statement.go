@@ -212,18 +212,8 @@ func writeUse(w sink, calc *engine.Sheet, use *engine.Statement, digits int) {
 
 // exprText writes a literal as the author wrote it: "2.5 mWb", "-3".
 func exprText(e engine.Expr) string {
-	sign := ""
-	if u, ok := e.(*engine.Unary); ok {
-		e = u.X
-		if u.Op == "-" {
-			sign = "-"
-		}
-	}
-	switch n := e.(type) {
-	case *engine.Quantity:
-		return sign + n.Text + " " + n.Unit.Symbol
-	case *engine.Number:
-		return sign + n.Text
+	if s, ok := engine.LiteralString(e); ok {
+		return s
 	}
 	return "a formula"
 }
