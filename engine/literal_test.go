@@ -29,3 +29,16 @@ func TestQuantityLiteralPowers(t *testing.T) {
 		t.Errorf("D: %v %+v", d.Status, d.Err)
 	}
 }
+
+func TestReservedWordsAsNames(t *testing.T) {
+	s := compileLines("check = 2", "use = 3", "param = 4", "x = 1")
+	for i, word := range []string{"check", "use", "param"} {
+		st := s.Statements[i]
+		if st.Status != engine.Failed || st.Err.Message != word+" is a reserved word" || st.Err.Pos.Col != 1 {
+			t.Errorf("%s = ...: %v %+v", word, st.Status, st.Err)
+		}
+	}
+	if x := s.Lookup("x"); x == nil || x.Status != engine.OK {
+		t.Error("x must still evaluate")
+	}
+}

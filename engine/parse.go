@@ -57,6 +57,8 @@ func parseStatement(t *text) (*Statement, *diag.Diagnostic) {
 
 	i := skipSpace(r, 0)
 	switch w, j := word(r, i); {
+	case (w == "param" || w == "use") && j < end && unicode.IsSpace(r[j]) && skipSpace(r, j) < end && r[skipSpace(r, j)] == '=':
+		return st, errAt(t.pos(i), "choose another name", "%s is a reserved word", w)
 	case w == "param" && j < end && unicode.IsSpace(r[j]):
 		return st, parseParam(st, t, skipSpace(r, j), end)
 	case w == "use" && j < end && unicode.IsSpace(r[j]):
@@ -65,6 +67,9 @@ func parseStatement(t *text) (*Statement, *diag.Diagnostic) {
 	if w, j := word(r, i); w == "check" && (j == end || r[j] == ' ' || r[j] == '\t' || r[j] == '[') {
 		st.Kind = Check
 		i = skipSpace(r, j)
+		if i < end && r[i] == '=' && (i+1 >= end || r[i+1] != '=') {
+			return st, errAt(t.pos(skipSpace(r, 0)), "choose another name", "check is a reserved word")
+		}
 		var err *diag.Diagnostic
 		if i, err = parseDisplay(st, t, i, end); err != nil {
 			return st, err
