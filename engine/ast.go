@@ -114,7 +114,7 @@ type Call struct {
 	Func *Function
 	Args []Expr
 	// table is the fitted interpolator of interp and spline, or the
-	// columns of lookup, set when the call is checked.
+	// columns of pick, set when the call is checked.
 	table *interpolator
 	y, x  *Column
 }

@@ -41,7 +41,7 @@ type Function struct {
 	result  resultRule
 	// domain explains a non-finite result from finite arguments.
 	domain string
-	// table marks interp, spline and lookup, which read table columns.
+	// table marks interp, spline and pick, which read table columns.
 	table string
 	f1    func(float64) float64
 	f2    func(float64, float64) float64
@@ -100,7 +100,7 @@ func init() {
 			Doc: "y read from table T at x along a monotone cubic (Fritsch–Butland) through the rows; refuses an x outside the table unless told to extrapolate"},
 		{Name: "solve", MinArgs: 3, MaxArgs: 3, Usage: "x = solve(left == right, lowest, highest)",
 			Doc: "the x between lowest and highest for which the relation holds (Brent's method); the relation may use statements that use x"},
-		{Name: "lookup", MinArgs: 3, MaxArgs: 3, Usage: "lookup(T.y, T.x, x)", table: "exact",
+		{Name: "pick", MinArgs: 3, MaxArgs: 3, Usage: "pick(T.y, T.x, x)", table: "exact",
 			Doc: "y from the row of table T whose x equals the given x"},
 	} {
 		functions[f.Name] = f

@@ -30,7 +30,7 @@ func infer(e Expr) *diag.Diagnostic {
 		*t = Type{Dim: n.Unit.Dim, Kind: n.Unit.Kind, Const: true, Val: n.SI}
 	case *Ref:
 		if n.Column != nil {
-			return errAt(n.Pos(), "read it with interp("+n.Name+", ...), spline(...) or lookup(...)",
+			return errAt(n.Pos(), "read it with interp("+n.Name+", ...), spline(...) or pick(...)",
 				"%s is a column of table %s, not a single value", n.Name, n.Column.Table.Name)
 		}
 		if n.Constant != nil {
@@ -56,7 +56,7 @@ func infer(e Expr) *diag.Diagnostic {
 	return nil
 }
 
-// inferTableCall checks interp, spline and lookup: two columns of one
+// inferTableCall checks interp, spline and pick: two columns of one
 // table, and an x of the x column's dimension. The result has the y
 // column's unit.
 func inferTableCall(n *Call) *diag.Diagnostic {

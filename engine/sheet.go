@@ -190,7 +190,7 @@ func (s *Sheet) resolve() {
 func (s *Sheet) resolveColumn(r *Ref) *diag.Diagnostic {
 	for _, t := range s.Tables {
 		if r.Name == t.Name {
-			return errAt(r.Pos(), "read a table with interp(T.y, T.x, x), spline(...) or lookup(...)", "%s is a table, not a value", t.Name)
+			return errAt(r.Pos(), "read a table with interp(T.y, T.x, x), spline(...) or pick(...)", "%s is a table, not a value", t.Name)
 		}
 		col, ok := strings.CutPrefix(r.Name, t.Name+".")
 		if !ok || strings.Contains(col, ".") {

@@ -29,7 +29,7 @@ type TableSource struct {
 	Rows    [][]CellSource
 }
 
-// Table is named data that formulas read through interp, spline and lookup.
+// Table is named data that formulas read through interp, spline and pick.
 type Table struct {
 	Name    string
 	Caption string
