@@ -37,13 +37,6 @@ func writeFormula(w sink, e engine.Expr, mode mathMode, digits int) {
 	mw.expr(e, 0)
 }
 
-// formulaMathML returns an expression as MathML.
-func formulaMathML(e engine.Expr, mode mathMode, digits int) string {
-	var b strings.Builder
-	writeFormula(&b, e, mode, digits)
-	return b.String()
-}
-
 // substitutes reports whether the substituted form of e differs from its
 // symbolic form: whether it names any statement.
 func substitutes(e engine.Expr) bool {
