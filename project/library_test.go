@@ -2,7 +2,6 @@ package project_test
 
 import (
 	"math"
-	"os"
 	"path/filepath"
 	"slices"
 	"strings"
@@ -342,15 +341,7 @@ func TestLibraryEverySheetCompared(t *testing.T) {
 	for _, f := range independentSheets {
 		covered[f] = true
 	}
-	files, err := os.ReadDir(filepath.Join("testdata", "library"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	for _, f := range files {
-		if strings.HasSuffix(f.Name(), ".md") && !covered[f.Name()] {
-			t.Errorf("%s is compared with nothing", f.Name())
-		}
-	}
+	requireCovered(t, filepath.Join("testdata", "library"), covered, "is compared with nothing")
 }
 
 // TestLibraryIndependent compares the parts of the templates that have no

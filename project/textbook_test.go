@@ -282,13 +282,19 @@ func TestTextbookExamples(t *testing.T) {
 	}
 
 	// A sheet without a comparison here would be a test that asserts nothing.
+	requireCovered(t, dir, covered, "has no comparison with its book in textbookExamples")
+}
+
+// requireCovered fails for every sheet of dir that covered does not name.
+func requireCovered(t *testing.T, dir string, covered map[string]bool, complaint string) {
+	t.Helper()
 	files, err := os.ReadDir(dir)
 	if err != nil {
 		t.Fatal(err)
 	}
 	for _, f := range files {
 		if strings.HasSuffix(f.Name(), ".md") && !covered[f.Name()] {
-			t.Errorf("%s has no comparison with its book in textbookExamples", f.Name())
+			t.Errorf("%s %s", f.Name(), complaint)
 		}
 	}
 }
