@@ -216,7 +216,14 @@ var independentSheets = []string{"flux-linkage-groups.md", "saturating-core.md",
 // loadLibrary loads testdata/library and fails on any diagnostic.
 func loadLibrary(t *testing.T) (*project.Package, map[string]*project.Sheet) {
 	t.Helper()
-	pkg, err := project.Load(filepath.Join("testdata", "library"))
+	return loadTestPackage(t, filepath.Join("testdata", "library"))
+}
+
+// loadTestPackage loads a folder of test sheets, fails on any diagnostic,
+// and maps the sheets by path.
+func loadTestPackage(t *testing.T, dir string) (*project.Package, map[string]*project.Sheet) {
+	t.Helper()
+	pkg, err := project.Load(dir)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -224,18 +224,7 @@ var textbookExamples = []textbookExample{
 // the named results with the books' printed answers.
 func TestTextbookExamples(t *testing.T) {
 	dir := filepath.Join("testdata", "textbook")
-	pkg, err := project.Load(dir)
-	if err != nil {
-		t.Fatal(err)
-	}
-	for _, d := range pkg.Diags {
-		t.Errorf("diagnostic: %v", d)
-	}
-
-	byPath := map[string]*project.Sheet{}
-	for _, s := range pkg.Sheets {
-		byPath[s.Path()] = s
-	}
+	_, byPath := loadTestPackage(t, dir)
 	covered := map[string]bool{}
 
 	for _, ex := range textbookExamples {
