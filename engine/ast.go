@@ -31,6 +31,10 @@ type Type struct {
 	// built-in constants and arithmetic over them); Val holds it in SI.
 	Const bool
 	Val   float64
+	// Count is set for a whole-number count (turns, conductors, slots):
+	// whole numbers, sums and products of counts, and round, floor and
+	// ceil. A count whose value is whole shows without decimals.
+	Count bool
 }
 
 type node struct {

@@ -15,7 +15,8 @@ type argRule uint8
 const (
 	anyDim        argRule = iota // sqrt, abs
 	sameDim                      // min, max, hypot, atan2: all arguments alike
-	dimensionless                // exp, ln, sin, round: pure numbers (angles are)
+	dimensionless                // exp, ln, round: pure numbers (angles are)
+	angleArg                     // sin, cos, tan: an angle in radians or a pure number, never cycles
 )
 
 // resultRule says what dimension and kind the result has.
@@ -43,6 +44,8 @@ type Function struct {
 	domain string
 	// table marks interp, spline and pick, which read table columns.
 	table string
+	// whole marks round, floor and ceil, whose results are whole numbers.
+	whole bool
 	f1    func(float64) float64
 	f2    func(float64, float64) float64
 }
@@ -61,6 +64,12 @@ func (f *Function) arity() string {
 
 func one(name, doc string, args argRule, result resultRule, domain string, f func(float64) float64) *Function {
 	return &Function{Name: name, MinArgs: 1, MaxArgs: 1, Usage: name + "(x)", Doc: doc, args: args, result: result, domain: domain, f1: f}
+}
+
+// whole marks a function whose results are whole numbers.
+func whole(f *Function) *Function {
+	f.whole = true
+	return f
 }
 
 func two(name, doc string, args argRule, result resultRule, f func(float64, float64) float64) *Function {
@@ -83,17 +92,17 @@ func init() {
 		one("exp", "e to the power x; x a pure number", dimensionless, plainOne, "", math.Exp),
 		one("ln", "natural logarithm; x a pure number", dimensionless, plainOne, "logarithm of zero or a negative number", math.Log),
 		one("log10", "common logarithm; x a pure number", dimensionless, plainOne, "logarithm of zero or a negative number", math.Log10),
-		one("sin", "sine of an angle (rad, or deg converted)", dimensionless, plainOne, "", math.Sin),
-		one("cos", "cosine of an angle", dimensionless, plainOne, "", math.Cos),
-		one("tan", "tangent of an angle", dimensionless, plainOne, "tangent of an odd multiple of 90°", math.Tan),
+		one("sin", "sine of an angle (rad, or deg converted); cycles need a 2π first", angleArg, plainOne, "", math.Sin),
+		one("cos", "cosine of an angle; cycles need a 2π first", angleArg, plainOne, "", math.Cos),
+		one("tan", "tangent of an angle; cycles need a 2π first", angleArg, plainOne, "tangent of an odd multiple of 90°", math.Tan),
 		one("asin", "inverse sine; returns an angle", dimensionless, angle, "asin of a number outside -1 to 1", math.Asin),
 		one("acos", "inverse cosine; returns an angle", dimensionless, angle, "acos of a number outside -1 to 1", math.Acos),
 		one("atan", "inverse tangent; returns an angle", dimensionless, angle, "", math.Atan),
 		two("atan2", "angle of the point (x, y) from atan2(y, x); y and x of one dimension", sameDim, angle, math.Atan2),
 		two("hypot", "sqrt(x² + y²) without overflow; x and y of one dimension", sameDim, likeArg, math.Hypot),
-		one("floor", "largest whole number not above x; x a pure number", dimensionless, plainOne, "", math.Floor),
-		one("ceil", "smallest whole number not below x; x a pure number", dimensionless, plainOne, "", math.Ceil),
-		one("round", "nearest whole number, halves away from zero; x a pure number", dimensionless, plainOne, "", math.Round),
+		whole(one("floor", "largest whole number not above x; x a pure number", dimensionless, plainOne, "", math.Floor)),
+		whole(one("ceil", "smallest whole number not below x; x a pure number", dimensionless, plainOne, "", math.Ceil)),
+		whole(one("round", "nearest whole number, halves away from zero; x a pure number", dimensionless, plainOne, "", math.Round)),
 		{Name: "interp", MinArgs: 3, MaxArgs: 4, Usage: "interp(T.y, T.x, x) or interp(T.y, T.x, x, extrapolate)", table: "linear",
 			Doc: "y read from table T at x, straight lines between rows; refuses an x outside the table unless told to extrapolate"},
 		{Name: "spline", MinArgs: 3, MaxArgs: 4, Usage: "spline(T.y, T.x, x) or spline(T.y, T.x, x, extrapolate)", table: "cubic",

@@ -1,7 +1,6 @@
 package engine
 
 import (
-	"fmt"
 	"math"
 
 	"github.com/sheaf-calc/sheaf/diag"
@@ -13,19 +12,25 @@ var dimTemperature = units.DimOf(units.Temperature)
 // infer works out the dimension and kind of every node of e, bottom up,
 // before anything is evaluated. Names must already be resolved and the
 // statements they name already inferred.
-func infer(e Expr) *diag.Diagnostic {
+func infer(e Expr) *diag.Diagnostic { return inferNode(e, false) }
+
+// inferNode infers one node; inChain is set for a product or quotient
+// whose parent is a product or quotient too: the kind of a chain such as
+// k_e*2*pi*n is worked out once, at its top, over all its factors.
+func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 	if c, ok := e.(*Call); ok && c.Func.table != "" {
 		return inferTableCall(c)
 	}
+	product := isProduct(e)
 	for _, c := range e.children() {
-		if err := infer(c); err != nil {
+		if err := inferNode(c, product); err != nil {
 			return err
 		}
 	}
 	t := e.Type()
 	switch n := e.(type) {
 	case *Number:
-		*t = Type{Const: true, Val: n.Value}
+		*t = Type{Const: true, Val: n.Value, Count: isWholeText(n.Text)}
 	case *Quantity:
 		*t = Type{Dim: n.Unit.Dim, Kind: n.Unit.Kind, Const: true, Val: n.SI}
 	case *Ref:
@@ -36,24 +41,49 @@ func infer(e Expr) *diag.Diagnostic {
 		if n.Constant != nil {
 			*t = Type{Dim: n.Constant.Dim, Const: true, Val: n.Constant.Value}
 		} else {
-			*t = Type{Dim: n.Target.Type.Dim, Kind: n.Target.Type.Kind}
+			*t = Type{Dim: n.Target.Type.Dim, Kind: n.Target.Type.Kind, Count: n.Target.Type.Count}
 		}
 	case *Unary:
 		*t = *n.X.Type()
 		if n.Op == "-" {
 			t.Val = -t.Val
-			if t.Kind == units.AbsTemp {
+			if t.Kind.IsAbsTemp() {
 				return errAt(n.Pos(), "negate a temperature difference in K instead", "cannot negate an absolute temperature")
 			}
 		}
 	case *Binary:
-		return inferBinary(n)
+		if err := inferBinary(n); err != nil {
+			return err
+		}
+		if product && !inChain {
+			return chainKind(n)
+		}
 	case *Call:
 		return inferCall(n)
 	case *Keyword:
 		return errAt(n.Pos(), "write it as the last argument of interp or spline", "%s has a meaning only inside interp( ) and spline( )", n.Word)
 	}
 	return nil
+}
+
+// isProduct reports whether e is a product or a quotient.
+func isProduct(e Expr) bool {
+	b, ok := e.(*Binary)
+	return ok && (b.Op == "*" || b.Op == "/")
+}
+
+// isWholeText reports whether a number was written as a whole number: 120,
+// 3_000, not 2.0 or 1e3.
+func isWholeText(s string) bool {
+	if s == "" {
+		return false
+	}
+	for _, c := range s {
+		if (c < '0' || c > '9') && c != '_' {
+			return false
+		}
+	}
+	return true
 }
 
 // inferTableCall checks interp, spline and pick: two columns of one
@@ -121,6 +151,7 @@ func inferBinary(n *Binary) *diag.Diagnostic {
 			return err
 		}
 		t.Dim, t.Kind = x.Dim, k
+		t.Count = x.Count && y.Count && (n.Op == "+" || n.Op == "-")
 		if t.Const {
 			switch n.Op {
 			case "+":
@@ -131,7 +162,7 @@ func inferBinary(n *Binary) *diag.Diagnostic {
 		}
 	case "*", "/":
 		for _, side := range []*Type{x, y} {
-			if side.Kind == units.AbsTemp {
+			if side.Kind.IsAbsTemp() {
 				return errAt(n.Pos(), "subtract a reference temperature to get a difference in K, or write the temperature in K",
 					"cannot multiply or divide an absolute temperature (°C or °F): the result would depend on where the scale starts")
 			}
@@ -140,7 +171,7 @@ func inferBinary(n *Binary) *diag.Diagnostic {
 		if n.Op == "/" {
 			sign = -1
 		}
-		if !mulFits(x.Dim, y.Dim, sign) {
+		if !mulFits(x.Dim, y.Dim, sign) || !units.KindFits(x.Kind, y.Kind, sign) {
 			return errAt(n.Pos(), "name a quantity with a smaller power of its unit, or check the formula",
 				"the dimension of this result has an exponent beyond ±127, which sheaf cannot hold")
 		}
@@ -155,7 +186,13 @@ func inferBinary(n *Binary) *diag.Diagnostic {
 				t.Const = false
 			}
 		}
-		t.Kind = productKind(n)
+		// The kind of the whole chain is worked out at its top (chainKind).
+		if n.Op == "*" {
+			t.Kind = x.Kind.Mul(y.Kind)
+		} else {
+			t.Kind = x.Kind.Div(y.Kind)
+		}
+		t.Count = x.Count && y.Count
 	case "^":
 		return inferPower(n)
 	}
@@ -174,101 +211,21 @@ func mulFits(a, b units.Dim, sign int) bool {
 	return true
 }
 
-// addKinds decides the kind of a sum, difference or comparison, and
-// refuses mixtures that would hide a 2π or a temperature offset.
-func addKinds(op string, a, b units.Kind) (units.Kind, *diag.Diagnostic) {
-	if a == b {
-		if a == units.AbsTemp {
-			switch op {
-			case "-":
-				return units.Plain, nil // the difference of two temperatures is a difference
-			case "+":
-				return 0, errAt(diag.Pos{}, "add a temperature difference in K to a temperature in °C",
-					"cannot add two absolute temperatures")
-			}
-		}
-		return a, nil
-	}
-	if a == units.AbsTemp || b == units.AbsTemp {
-		switch op {
-		case "+":
-			return units.AbsTemp, nil
-		case "-":
-			if a == units.AbsTemp {
-				return units.AbsTemp, nil
-			}
-			return 0, errAt(diag.Pos{}, "subtract the temperatures the other way round, or write both in °C",
-				"cannot subtract an absolute temperature from a temperature difference")
-		}
-		return 0, errAt(diag.Pos{}, "compare absolute temperatures with absolute temperatures, and differences (K) with differences",
-			"cannot compare an absolute temperature (°C or °F) with a temperature difference (K)")
-	}
-	if a == units.Plain {
-		return b, nil
-	}
-	if b == units.Plain {
-		return a, nil
-	}
-	return 0, errAt(diag.Pos{}, "an angular velocity (rad/s) is 2π times a rotational frequency (rpm, Hz): multiply the frequency by 2*pi first",
-		"cannot %s an angle-based quantity (rad) and a cycle-based one (Hz, rpm)", map[bool]string{true: "compare", false: "add"}[isComparison(op)])
-}
-
-// productKind decides the kind of a product or quotient. A rotational
-// frequency (rpm, Hz) times pure numbers stays one (f = p*n); times 2π it
-// becomes an angular velocity (omega = 2*pi*n), and an angular velocity
-// divided by 2π a frequency again. Anything else is plain.
-func productKind(n *Binary) units.Kind {
-	c := 1.0
-	var rot []*Type
-	var others int
-	var walk func(e Expr, inverse bool)
-	walk = func(e Expr, inverse bool) {
-		if b, ok := e.(*Binary); ok && (b.Op == "*" || b.Op == "/") {
-			walk(b.X, inverse)
-			walk(b.Y, inverse != (b.Op == "/"))
-			return
-		}
-		t := e.Type()
-		switch {
-		case t.Const && t.Dim.IsDimensionless() && t.Kind == units.Plain:
-			if inverse {
-				c /= t.Val
-			} else {
-				c *= t.Val
-			}
-		case (t.Kind == units.Angle || t.Kind == units.Cycle) && !inverse:
-			rot = append(rot, t)
-		case t.Dim.IsDimensionless() && t.Kind == units.Plain:
-			// pure numbers such as pole pairs keep the kind
-		default:
-			others++
-		}
-	}
-	walk(n, false)
-	if len(rot) != 1 || others > 0 {
-		return units.Plain
-	}
-	k := rot[0].Kind
-	switch {
-	case near(math.Abs(c), 2*math.Pi) && k == units.Cycle:
-		return units.Angle
-	case near(math.Abs(c), 1/(2*math.Pi)) && k == units.Angle:
-		return units.Cycle
-	}
-	return k
-}
-
-func near(a, b float64) bool { return math.Abs(a-b) <= 1e-12*math.Abs(b) }
-
 func inferPower(n *Binary) *diag.Diagnostic {
 	x, y, t := n.X.Type(), n.Y.Type(), n.Type()
 	if !y.Dim.IsDimensionless() {
 		return errAt(n.Y.Pos(), "an exponent must be a pure number", "the exponent has a unit: it is %s", units.Describe(y.Dim))
 	}
-	if x.Kind == units.AbsTemp {
+	if x.Kind.IsAbsTemp() {
 		return errAt(n.Pos(), "write the temperature in K", "cannot raise an absolute temperature (°C or °F) to a power")
 	}
+	// ω² keeps its radians squared; a fractional power of an angle has
+	// no kind sheaf can hold, and is plain.
 	t.Kind = units.Plain
+	if p := y.Val; y.Const && p == math.Trunc(p) && math.Abs(p) <= 99 && units.KindPowFits(x.Kind, int(p)) {
+		t.Kind = x.Kind.Exponents().Pow(int(p))
+	}
+	t.Count = x.Count && y.Count && y.Const && y.Val >= 0
 	t.Const = x.Const && y.Const
 	if t.Const {
 		t.Val = math.Pow(x.Val, y.Val)
@@ -292,41 +249,28 @@ func inferPower(n *Binary) *diag.Diagnostic {
 func inferCall(n *Call) *diag.Diagnostic {
 	f, t := n.Func, n.Type()
 	first := n.Args[0].Type()
-	t.Const = true
+	t.Const, t.Count = true, true
+	kind := first.Kind
 	for _, a := range n.Args {
 		at := a.Type()
 		t.Const = t.Const && at.Const
-		switch f.args {
-		case dimensionless:
-			if !at.Dim.IsDimensionless() {
-				hint := "divide by a reference first, for example " + n.Name + "(x / (1 m))"
-				if n.Name == "sin" || n.Name == "cos" || n.Name == "tan" {
-					hint = "the argument must be an angle (rad or deg) or a pure number"
-				}
-				return errAt(a.Pos(), hint, "%s needs a pure number, but its argument is %s", n.Name, units.Describe(at.Dim))
-			}
-			if at.Kind == units.AbsTemp {
-				return errAt(a.Pos(), "", "%s of an absolute temperature is not defined", n.Name)
-			}
-		case sameDim:
-			if at.Dim != first.Dim {
-				return errAt(a.Pos(), "all arguments of "+n.Name+" must measure the same thing",
-					"%s mixes %s and %s", n.Name, units.Describe(first.Dim), units.Describe(at.Dim))
-			}
-			if _, err := addKinds("<", first.Kind, at.Kind); err != nil {
+		t.Count = t.Count && at.Count
+		if err := checkArg(n, a); err != nil {
+			return err
+		}
+		if f.args == sameDim {
+			k, err := addKinds("<", kind, at.Kind)
+			if err != nil {
 				err.Pos = a.Pos()
 				return err
 			}
-		case anyDim:
-			if at.Kind == units.AbsTemp && f.result == halfArg {
-				return errAt(a.Pos(), "write the temperature in K", "cannot take the square root of an absolute temperature")
-			}
+			kind = k
 		}
 	}
 	switch f.result {
 	case likeArg:
-		t.Dim, t.Kind = first.Dim, first.Kind
-		if n.Name != "abs" && first.Kind == units.AbsTemp && f.Name == "hypot" {
+		t.Dim, t.Kind = first.Dim, kind
+		if first.Kind.IsAbsTemp() && f.Name == "hypot" {
 			return errAt(n.Pos(), "", "hypot of absolute temperatures is not defined")
 		}
 	case halfArg:
@@ -335,16 +279,55 @@ func inferCall(n *Call) *diag.Diagnostic {
 			return errAt(n.Args[0].Pos(), "the dimension under a square root must have even exponents",
 				"the square root of %s has no unit that sheaf can hold", units.Describe(first.Dim))
 		}
-		t.Dim, t.Kind = d, units.Plain
+		k, _ := first.Kind.Exponents().Root(2) // sqrt(ω²) is ω; an odd power of an angle leaves none
+		t.Dim, t.Kind, t.Count = d, k, false
 	case plainOne:
 		t.Dim, t.Kind = units.Dimensionless, units.Plain
+		t.Count = f.whole
 	case angle:
-		t.Dim, t.Kind = units.Dimensionless, units.Angle
+		t.Dim, t.Kind, t.Count = units.Dimensionless, units.Angle, false
 	}
 	if t.Const {
 		t.Val = evalConstCall(n)
 		if math.IsNaN(t.Val) || math.IsInf(t.Val, 0) {
 			t.Const = false // leave it to evaluation, which reports it at its place
+		}
+	}
+	return nil
+}
+
+// checkArg checks one argument of a call against what the function asks
+// of its dimension and kind.
+func checkArg(n *Call, a Expr) *diag.Diagnostic {
+	f, at, first := n.Func, a.Type(), n.Args[0].Type()
+	switch f.args {
+	case dimensionless, angleArg:
+		if !at.Dim.IsDimensionless() {
+			hint := "divide by a reference first, for example " + n.Name + "(x / (1 m))"
+			if f.args == angleArg {
+				hint = "the argument must be an angle (rad or deg) or a pure number"
+			}
+			return errAt(a.Pos(), hint, "%s needs a pure number, but its argument is %s", n.Name, units.Describe(at.Dim))
+		}
+		if at.Kind.IsAbsTemp() {
+			return errAt(a.Pos(), "", "%s of an absolute temperature is not defined", n.Name)
+		}
+		if f.args == angleArg && at.Kind.Cyc != 0 {
+			return errAt(a.Pos(), "an angle is 2π times a number of cycles: write "+n.Name+"(2*pi*f*t) rather than "+n.Name+"(f*t)",
+				"the argument of %s counts cycles, not radians: a factor 2π is missing", n.Name)
+		}
+		if f.args == angleArg && at.Kind.Rad != 0 && at.Kind.Rad != 1 {
+			return errAt(a.Pos(), "check the powers of the angles in the argument",
+				"the argument of %s is %s, not an angle", n.Name, at.Kind)
+		}
+	case sameDim:
+		if at.Dim != first.Dim {
+			return errAt(a.Pos(), "all arguments of "+n.Name+" must measure the same thing",
+				"%s mixes %s and %s", n.Name, units.Describe(first.Dim), units.Describe(at.Dim))
+		}
+	case anyDim:
+		if at.Kind.IsAbsTemp() && f.result == halfArg {
+			return errAt(a.Pos(), "write the temperature in K", "cannot take the square root of an absolute temperature")
 		}
 	}
 	return nil
@@ -368,40 +351,4 @@ func applyFunction(f *Function, v []float64) float64 {
 		acc = f.f2(acc, x)
 	}
 	return acc
-}
-
-// displayProblem says why a value of type t cannot be shown in unit u, or
-// returns "" if it can. formula is a definition's right side as written,
-// for the hint; "" for a check.
-func displayProblem(name, formula string, t Type, u units.Unit) (msg, hint string) {
-	if t.Dim != u.Dim {
-		return fmt.Sprintf("display unit %s measures %s, but %s is %s", u.Symbol, units.Describe(u.Dim), name, units.Describe(t.Dim)),
-			"choose a unit of the same kind, or check the formula"
-	}
-	// The hint shows the corrected right side, not the defined name: the
-	// 2π belongs in the formula.
-	group := formula
-	if _, end := identifier([]rune(formula), 0); end != len([]rune(formula)) {
-		group = "(" + formula + ")"
-	}
-	switch {
-	case t.Kind == units.Cycle && u.Kind == units.Angle:
-		hint = "for an angular velocity multiply the frequency by 2*pi"
-		if formula != "" {
-			hint = "for an angular velocity write " + name + " [" + u.Symbol + "] = 2*pi*" + group
-		}
-		return fmt.Sprintf("%s is a rotational frequency (cycles), and showing it in %s would drop a factor 2π", name, u.Symbol),
-			hint + "; or show it in Hz or rpm"
-	case t.Kind == units.Angle && u.Kind == units.Cycle:
-		hint = "for a frequency divide the angular velocity by 2*pi"
-		if formula != "" {
-			hint = "for a frequency write " + name + " [" + u.Symbol + "] = " + group + "/(2*pi)"
-		}
-		return fmt.Sprintf("%s is an angular velocity (radians), and showing it in %s would add a factor 2π", name, u.Symbol),
-			hint + "; or show it in rad/s"
-	case u.Kind == units.AbsTemp && t.Kind != units.AbsTemp && t.Dim == dimTemperature:
-		return fmt.Sprintf("%s is a temperature difference and cannot be shown in %s", name, u.Symbol),
-			"show differences in K"
-	}
-	return "", ""
 }

@@ -78,6 +78,11 @@ func parseStatement(t *text) (*Statement, *diag.Diagnostic) {
 			return st, errAt(t.pos(i), "write for example: check B_g <= 1.6 T", "check has no comparison")
 		}
 		st.Formula = strings.TrimSpace(string(r[i:end]))
+		if at := loneEquals(r, i, end); at >= 0 {
+			return st, errAt(t.pos(at), "a check compares with ==, <=, >=, < or >: write check "+
+				strings.TrimSpace(string(r[i:at]))+" == "+strings.TrimSpace(string(r[at+1:end])),
+				"= defines a name; a check needs a comparison")
+		}
 		e, err := parseFormula(t, i, end)
 		if err != nil {
 			return st, err
@@ -127,6 +132,25 @@ func parseStatement(t *text) (*Statement, *diag.Diagnostic) {
 	}
 	st.Expr = e
 	return st, nil
+}
+
+// loneEquals returns the offset of the first = in r[from:to] that is not
+// part of ==, <=, >= or !=, or -1.
+func loneEquals(r []rune, from, to int) int {
+	for i := from; i < to; i++ {
+		if r[i] != '=' {
+			continue
+		}
+		if i+1 < to && r[i+1] == '=' {
+			i++
+			continue
+		}
+		if i > from && strings.ContainsRune("<>=!", r[i-1]) {
+			continue
+		}
+		return i
+	}
+	return -1
 }
 
 // tooDeep returns the offset of the first parenthesis nested more than
@@ -378,6 +402,9 @@ func prescan(t *text, from, to int) (*scanned, *diag.Diagnostic) {
 				for k := i; k < j; k++ {
 					emit(string(r[k]), k)
 				}
+				if j < to && r[j] == 'π' {
+					emit("*", j)
+				}
 			} else {
 				name := "_q" + strconv.Itoa(len(s.literals))
 				s.literals[name] = q
@@ -477,11 +504,18 @@ func scanLiteral(t *text, i, to int) (*Quantity, int, *diag.Diagnostic) {
 		return nil, i, errAt(t.pos(start), "write a number as 12, 0.5 or 1.5e-3", "malformed number %q", string(r[start:j]))
 	}
 	val, err := strconv.ParseFloat(strings.ReplaceAll(numText, "_", ""), 64)
+	if err == nil && val == 0 && strings.ContainsAny(mantissa(numText), "123456789") {
+		return nil, i, errAt(t.pos(start), "check the exponent: a number below about 1e-308 cannot be held; write 0 if zero is meant",
+			"number %s is too small to hold: it would be 0", numText)
+	}
 	if err != nil {
 		if ne, ok := err.(*strconv.NumError); ok && ne.Err == strconv.ErrRange {
 			return nil, i, errAt(t.pos(start), "use a unit with a larger prefix, or an exponent that fits a float64", "number %s is out of range", numText)
 		}
 		return nil, i, errAt(t.pos(start), "write a number as 12, 0.5 or 1.5e-3", "malformed number %q", numText)
+	}
+	if i < to && r[i] == 'π' {
+		return nil, i, nil // 2π: the number, then π, which prescan multiplies
 	}
 	j := i
 	for j < to && (r[j] == ' ' || r[j] == '\t') {
@@ -539,8 +573,20 @@ func scanLiteral(t *text, i, to int) (*Quantity, int, *diag.Diagnostic) {
 			"a power after a space is ambiguous after a quantity")
 	}
 	q := &Quantity{Text: numText, UnitText: unitText, Value: val, Unit: u, SI: u.ToSI(val)}
+	if q.SI == 0 && val != 0 {
+		return nil, i, errAt(t.pos(start), "check the number and its unit: a value below about 1e-308 in SI cannot be held; write 0 if zero is meant",
+			"%s %s is too small to hold in SI: it would be 0", numText, unitText)
+	}
 	q.setPos(t.pos(start))
 	return q, end, nil
+}
+
+// mantissa is a number as written without its exponent.
+func mantissa(num string) string {
+	if i := strings.IndexAny(num, "eE"); i >= 0 {
+		return num[:i]
+	}
+	return num
 }
 
 // skipBlanks skips spaces and tabs in r[i:to].
@@ -617,9 +663,82 @@ func (s *scanned) parseError(t *text, err error) *diag.Diagnostic {
 		if strings.HasPrefix(tok, "_q") {
 			return errAt(pos, "put an operator such as * between the two", "a quantity follows another term without an operator")
 		}
+		if d := s.typedSlip(t, fe.From, tok, pos); d != nil {
+			return d
+		}
 		return errAt(pos, "check for a missing operator or a stray symbol", "unexpected %s", tok)
 	}
 	return errAt(pos, "", "cannot read formula: %s", msg)
+}
+
+// typedSlip recognises what engineers type out of habit: a unit product
+// with a space (3 m s), a decimal comma (1,5 V), and a product without a
+// sign (2(a + b)). It returns nil for anything else.
+func (s *scanned) typedSlip(t *text, off int, tok string, pos diag.Pos) *diag.Diagnostic {
+	prev := s.tokenBefore(off)
+	q := s.literals[prev]
+	switch {
+	case q != nil && isIdentStart([]rune(tok)[0]):
+		if _, err := units.ParseCompact(q.UnitText + "*" + tok); err == nil {
+			return errAt(pos, fmt.Sprintf("write %s %s*%s (or %s %s·%s) for a product of units; to multiply by a name %s write %s %s * %s",
+				q.Text, q.UnitText, tok, q.Text, q.UnitText, tok, tok, q.Text, q.UnitText, tok),
+				"a unit symbol follows a quantity after a space")
+		}
+	case tok == ",":
+		o := s.origin[off]
+		if o > 0 && o+1 < len(t.runes) && unicode.IsDigit(t.runes[o-1]) && unicode.IsDigit(t.runes[o+1]) {
+			return errAt(pos, "sheaf writes decimals with a point: 1.5, not 1,5; a comma separates the arguments of a function",
+				"a comma inside a number")
+		}
+	case tok == "(" && (prev != "" && (unicode.IsDigit([]rune(prev)[0]) || q != nil || prev == ")")):
+		return errAt(pos, "write "+prev4(prev, q)+"*"+group(t.runes, s.origin[off])+": a product needs its * sign",
+			"a ( follows %s without an operator", prev4(prev, q))
+	}
+	return nil
+}
+
+// group returns the parenthesised text that opens at r[i], or "( ... )"
+// when it does not close.
+func group(r []rune, i int) string {
+	depth := 0
+	for j := i; j < len(r); j++ {
+		switch r[j] {
+		case '(':
+			depth++
+		case ')':
+			if depth--; depth == 0 {
+				return string(r[i : j+1])
+			}
+		case ';', '#':
+			j = len(r)
+		}
+	}
+	return "( ... )"
+}
+
+// prev4 names the token before a slip as the author wrote it.
+func prev4(tok string, q *Quantity) string {
+	if q != nil {
+		return q.Text + " " + q.UnitText
+	}
+	return tok
+}
+
+// tokenBefore returns the token that ends before off, skipping spaces.
+func (s *scanned) tokenBefore(off int) string {
+	r := []rune(s.text)
+	j := min(off, len(r))
+	for j > 0 && unicode.IsSpace(r[j-1]) {
+		j--
+	}
+	i := j
+	for i > 0 && (isIdentPart(r[i-1]) || r[i-1] == '.') {
+		i--
+	}
+	if i == j && j > 0 {
+		i = j - 1
+	}
+	return string(r[i:j])
 }
 
 // tokenAt returns the token of the scanned text that starts at off.
@@ -685,6 +804,13 @@ func (c *converter) convert(n ast.Node) Expr {
 			return c.fail(n, "formulas use + - * / ^", "operator %s is not supported", n.Operator)
 		}
 		x := c.convert(n.Node)
+		if q, ok := x.(*Quantity); ok && n.Operator == "-" && q.Unit.IsAffine() {
+			// -25 °C is a temperature below the scale's zero, not the
+			// negation of one: fold the sign into the literal.
+			q.Text, q.Value, q.SI = "-"+q.Text, -q.Value, q.Unit.ToSI(-q.Value)
+			q.setPos(pos)
+			return q
+		}
 		e := &Unary{Op: n.Operator, X: x}
 		e.setPos(pos)
 		return e

@@ -328,7 +328,7 @@ func (s *Sheet) check(st *Statement) {
 		formula = ""
 		cmp := st.Compare()
 		st.Type = *cmp.X.Type()
-		if st.Type.Kind == units.Plain {
+		if st.Type.Kind.IsPlain() {
 			st.Type.Kind = cmp.Y.Type().Kind
 		}
 		name = "the checked quantity"
@@ -342,6 +342,7 @@ func (s *Sheet) check(st *Statement) {
 			s.fail(st, errAt(st.DisplayPos, hint, "%s", msg))
 			return
 		}
+		st.Type.Kind = shownKind(st.Type.Kind, st.Display.Kind)
 	}
 	if st.Kind == Check {
 		cmp := st.Compare()
@@ -350,6 +351,17 @@ func (s *Sheet) check(st *Statement) {
 		st.fn = compile(st.Expr)
 	}
 	st.compiled = true
+}
+
+// shownKind is the kind a result takes from its display unit: the unit
+// says what the quantity is (X [Ω] = 2*pi*f*L is a reactance, T [N*m] =
+// F*r a torque, P [kW] = S*cos(phi) an active power), except that an
+// absolute temperature shown in K stays one.
+func shownKind(have, unit units.Kind) units.Kind {
+	if have.IsAbsTemp() && unit.IsPlain() {
+		return have
+	}
+	return unit
 }
 
 // Evaluate computes every compiled statement in dependency order. A

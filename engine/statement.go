@@ -1,6 +1,8 @@
 package engine
 
 import (
+	"math"
+
 	"github.com/sheaf-calc/sheaf/diag"
 	"github.com/sheaf-calc/sheaf/units"
 )
@@ -185,4 +187,20 @@ func LiteralString(e Expr) (string, bool) {
 		v += " " + u
 	}
 	return v, ok
+}
+
+// Digits returns the significant figures to show the statement's value
+// with, given the sheet's: a whole-number count (turns, conductors,
+// slots, a result of round, floor or ceil) shows every digit and no
+// decimals, 288 rather than 288.0.
+func (s *Statement) Digits(sheet int) int {
+	v := math.Abs(s.Value)
+	if !s.Type.Count || s.Kind != Definition || s.Shown.Symbol != "1" || v != math.Trunc(v) || v >= 1e4 {
+		return sheet
+	}
+	n := 1
+	for ; v >= 10; v /= 10 {
+		n++
+	}
+	return n
 }

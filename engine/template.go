@@ -368,7 +368,7 @@ func overrideProblem(st *Statement) *diag.Diagnostic {
 		return errAt(st.Expr.Pos(), "give "+st.Name+" "+want,
 			"%s must be %s, but the value set is %s", st.Name, units.Describe(st.Declared.Dim), units.Describe(st.Type.Dim))
 	}
-	if msg, hint := displayProblem(st.Name, "", st.Type, *st.Declared); msg != "" && st.Declared.Kind != units.Plain {
+	if msg, hint := displayProblem(st.Name, "", st.Type, *st.Declared); msg != "" && !st.Declared.Kind.IsPlain() {
 		return errAt(st.Expr.Pos(), hint, "%s", msg)
 	}
 	return nil

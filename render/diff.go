@@ -40,7 +40,7 @@ func outcomeText(st *engine.Statement, digits int) string {
 			v, u := InputText(st)
 			return strings.TrimSpace(v + " " + u)
 		}
-		return ValueText(st.Value, st.Shown, digits)
+		return ValueText(st.Value, st.Shown, st.Digits(digits))
 	case engine.Pass, engine.Fail:
 		s := strings.ToUpper(st.Status.String())
 		if u := UtilisationText(st.Utilisation); u != "" {

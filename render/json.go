@@ -429,7 +429,7 @@ func jsonStatement(calc *engine.Sheet, st *engine.Statement, digits int) JSONSta
 	case engine.OK:
 		j.SI = &JSONValue{Value: st.Value, Unit: st.Type.Dim.SIUnits()}
 		shown := st.Shown.FromSI(st.Value)
-		j.Display = &JSONValue{Value: shown, Unit: st.Shown.Symbol, Text: units.FormatNumber(shown, digits)}
+		j.Display = &JSONValue{Value: shown, Unit: st.Shown.Symbol, Text: units.FormatNumber(shown, st.Digits(digits))}
 	case engine.Pass, engine.Fail:
 		l, r := st.Shown.FromSI(st.Left), st.Shown.FromSI(st.Right)
 		c := &JSONCheck{

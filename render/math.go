@@ -119,7 +119,7 @@ func (w *mathWriter) expr(e engine.Expr, _ int) {
 			v, u := InputText(n.Target)
 			w.b.WriteString(numberMathML(v) + unitMathML(u))
 		case w.mode == substituted && n.Target != nil:
-			w.b.WriteString(valueMathML(n.Target.Value, n.Target.Shown, w.digits))
+			w.b.WriteString(valueMathML(n.Target.Value, n.Target.Shown, n.Target.Digits(w.digits)))
 		default:
 			w.b.WriteString(symbolMathML(n.Name))
 		}

@@ -6,6 +6,7 @@ import (
 	"errors"
 	"fmt"
 	"os"
+	"regexp"
 	"slices"
 	"strconv"
 	"strings"
@@ -167,7 +168,10 @@ func TestSchemaEnumsMatchTheCode(t *testing.T) {
 	var s struct {
 		Defs map[string]struct {
 			Properties map[string]struct {
-				Enum []string `json:"enum"`
+				Enum  []string `json:"enum"`
+				AnyOf []struct {
+					Enum []string `json:"enum"`
+				} `json:"anyOf"`
 			} `json:"properties"`
 		} `json:"$defs"`
 	}
@@ -178,7 +182,10 @@ func TestSchemaEnumsMatchTheCode(t *testing.T) {
 	for st := engine.Pending; st <= engine.Blocked; st++ {
 		statuses = append(statuses, st.String())
 	}
-	for k := units.Angle; k <= units.AbsTemp; k++ { // Plain is written as no quantity_kind
+	// Plain is written as no quantity_kind; other kinds without a name
+	// match the schema's pattern (TestSchemaKindPattern).
+	for _, k := range []units.Kind{units.Angle, units.Cycle, units.PerRadian, units.PerCycle,
+		units.AbsTemp, units.Active, units.Apparent, units.Reactive} {
 		kinds = append(kinds, k.String())
 	}
 	for _, r := range audit.Rules {
@@ -195,7 +202,11 @@ func TestSchemaEnumsMatchTheCode(t *testing.T) {
 		{"diagnostic", "severity", []string{diag.Error.String(), diag.Warning.String()}},
 		{"finding", "code", codes},
 	} {
-		got := slices.Clone(s.Defs[c.def].Properties[c.prop].Enum)
+		prop := s.Defs[c.def].Properties[c.prop]
+		got := slices.Clone(prop.Enum)
+		if len(prop.AnyOf) > 0 {
+			got = slices.Clone(prop.AnyOf[0].Enum)
+		}
 		want := slices.Clone(c.want)
 		slices.Sort(got)
 		slices.Sort(want)
@@ -558,4 +569,40 @@ var templatedSheets = map[string][]byte{
 	"job.md": []byte("---\ntitle: job\nrevision: A\nchecked by: C\n---\nTable BH: a curve\n\n| H [A/m] | B [T] |\n|---|---|\n| 0 | 0 |\n| 100 | 1 |\n| 1000 | 1.5 |\n\n```sheaf\n" +
 		"N_f = 120 ; turns ; source: drawing\nuse c1 = _t/coil with N = N_f, Phi = 2 mWb\nuse c2 = _t/coil with N = 80\n" +
 		"B_c = interp(BH.B, BH.H, 500 A/m) ; read\nx = solve(x^2 == 2, 0, 2) ; root two\nuse bad = _t/coil\n```\n"),
+}
+
+// Kinds without a name are written as their exponents, which the schema's
+// pattern must accept, and the pattern must refuse what sheaf never writes.
+func TestSchemaKindPattern(t *testing.T) {
+	data, err := os.ReadFile(schemaFile)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var s struct {
+		Defs map[string]struct {
+			Properties map[string]struct {
+				AnyOf []struct {
+					Pattern string `json:"pattern"`
+				} `json:"anyOf"`
+			} `json:"properties"`
+		} `json:"$defs"`
+	}
+	if err := json.Unmarshal(data, &s); err != nil {
+		t.Fatal(err)
+	}
+	alts := s.Defs["statement"].Properties["quantity_kind"].AnyOf
+	if len(alts) != 2 {
+		t.Fatalf("quantity_kind has %d alternatives, want an enum and a pattern", len(alts))
+	}
+	re := regexp.MustCompile(alts[1].Pattern)
+	for _, k := range []units.Kind{{Rad: 2}, {Rad: -2}, {Rad: 1, Cyc: 1}, {Cyc: -3}, {Rad: -1, Tag: units.TagActive}} {
+		if !re.MatchString(k.String()) {
+			t.Errorf("kind %+v writes %q, which the schema's pattern refuses", k, k.String())
+		}
+	}
+	for _, bad := range []string{"plain", "rad^0", "torque", "rad^-"} {
+		if re.MatchString(bad) {
+			t.Errorf("the schema's pattern accepts %q", bad)
+		}
+	}
 }

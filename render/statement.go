@@ -163,6 +163,11 @@ func writeStatement(w sink, calc *engine.Sheet, st *engine.Statement, digits int
 	w.WriteString(symbolMathML(st.Name))
 	w.WriteString("<mo>=</mo>")
 	writeFormula(w, st.Expr, symbolic, digits)
+	if shownConverted(st) {
+		// B [T] = 12 kG: the value as written, then in the unit asked for.
+		w.WriteString("<mo>=</mo>")
+		w.WriteString(valueMathML(st.Value, st.Shown, st.Digits(digits)))
+	}
 	if !st.IsInput() {
 		if substitutes(st.Expr) {
 			w.WriteString("<mo>=</mo>")
@@ -171,7 +176,7 @@ func writeStatement(w sink, calc *engine.Sheet, st *engine.Statement, digits int
 		// A name that only repeats an input already shows its value.
 		if r, ok := st.Expr.(*engine.Ref); !ok || r.Target == nil || !r.Target.IsInput() {
 			w.WriteString("<mo>=</mo>")
-			w.WriteString(valueMathML(st.Value, st.Shown, digits))
+			w.WriteString(valueMathML(st.Value, st.Shown, st.Digits(digits)))
 		}
 	}
 	w.WriteString("</mrow></math></div>\n")

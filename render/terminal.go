@@ -77,9 +77,12 @@ func TerminalLine(st *engine.Statement, digits int) string {
 			if units.SpaceBefore(u) && u != "" {
 				v += " "
 			}
+			if shownConverted(st) {
+				u += " = " + ValueText(st.Value, st.Shown, st.Digits(digits))
+			}
 			return fmt.Sprintf("%s = %s%s", SymbolText(st.Name), v, u)
 		}
-		return fmt.Sprintf("%s = %s", SymbolText(st.Name), ValueText(st.Value, st.Shown, digits))
+		return fmt.Sprintf("%s = %s", SymbolText(st.Name), ValueText(st.Value, st.Shown, st.Digits(digits)))
 	case engine.Pass, engine.Fail:
 		cmp := st.Compare()
 		verdict := "PASS"
@@ -126,6 +129,12 @@ func instancePrefix(st *engine.Statement) string {
 		return ""
 	}
 	return st.Instance + ": "
+}
+
+// shownConverted reports whether an input has a display unit other than
+// the one it was written in, so that it shows in both: B [T] = 12 kG.
+func shownConverted(st *engine.Statement) bool {
+	return st.IsInput() && !sameUnit(st.Display, st)
 }
 
 // sameUnit reports whether a display unit (nil for none) shows an input the

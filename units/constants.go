@@ -32,10 +32,11 @@ var Constants = []Constant{
 		Source: "SI defining constant (exact), via gonum unit/constant"},
 }
 
-// ConstantByName finds a built-in constant.
+// ConstantByName finds a built-in constant by its name, or by its symbol
+// where that is a name a formula can hold (π).
 func ConstantByName(name string) (Constant, bool) {
 	for _, c := range Constants {
-		if c.Name == name {
+		if c.Name == name || c.Symbol == name {
 			return c, true
 		}
 	}

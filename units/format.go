@@ -70,19 +70,10 @@ var preferredUnits = func() map[Dim]preferred {
 // kind k when the author gave none: the preferred unit for the dimension,
 // with the SI prefix that puts the number between 1 and 1000.
 func AutoUnit(v float64, d Dim, k Kind) Unit {
-	switch {
-	case k == AbsTemp && d == DimOf(Temperature):
-		u, _ := Lookup("°C")
+	if u, ok := kindUnit(v, d, k); ok {
 		return u
-	case k == Angle && d.IsDimensionless():
-		u, _ := Lookup("°")
-		return u
-	case k == Angle && d == (Dim{Time: -1}):
-		u, _ := Parse("rad/s")
-		return u
-	case k == Cycle && d == (Dim{Time: -1}):
-		return withPrefix(v, preferred{"Hz", "Hz", 1, engPrefix, 0})
-	case d.IsDimensionless():
+	}
+	if d.IsDimensionless() {
 		return One
 	}
 	p, ok := preferredUnits[d]
@@ -90,6 +81,46 @@ func AutoUnit(v float64, d Dim, k Kind) Unit {
 		return Unit{Symbol: d.SIUnits(), Dim: d, Scale: 1}
 	}
 	return withPrefix(v, p)
+}
+
+// kindKey picks a unit by dimension and kind.
+type kindKey struct {
+	dim  Dim
+	kind Kind
+}
+
+// kindUnits are the units that show a kind, for the dimensions where
+// engineers name it: an angle in degrees, a rotational frequency in Hz, a
+// torque in N·m, a back-EMF constant in V·s/rad or V/krpm, active,
+// apparent and reactive power in W, VA and var.
+var kindUnits = func() map[kindKey]preferred {
+	rows := []preferred{
+		{"°", "", 0, noPrefix, 0}, {"rev", "", 0, noPrefix, 0}, {"rad/s", "", 0, noPrefix, 0},
+		{"rad/s^2", "", 0, noPrefix, 0}, {"Hz", "Hz", 1, engPrefix, 0}, {"N*m", "N", 1, engPrefix, 0},
+		{"V*s/rad", "", 0, noPrefix, 0}, {"V/krpm", "", 0, noPrefix, 0}, {"N*m/rad", "N", 1, engPrefix, 0},
+		{"W", "W", 1, engPrefix, 0}, {"VA", "VA", 1, engPrefix, 0}, {"var", "var", 1, engPrefix, 0},
+		{"°C", "", 0, noPrefix, 0},
+	}
+	m := map[kindKey]preferred{}
+	for _, r := range rows {
+		u, err := Parse(r.symbol)
+		if err != nil {
+			panic("units: kind unit " + r.symbol + ": " + err.Error())
+		}
+		m[kindKey{u.Dim, u.Kind}] = r
+	}
+	return m
+}()
+
+func kindUnit(v float64, d Dim, k Kind) (Unit, bool) {
+	if k.IsPlain() {
+		return Unit{}, false
+	}
+	p, ok := kindUnits[kindKey{d, k}]
+	if !ok {
+		return Unit{}, false
+	}
+	return withPrefix(v, p), true
 }
 
 func withPrefix(v float64, p preferred) Unit {
@@ -130,7 +161,7 @@ func withPrefix(v float64, p preferred) Unit {
 }
 
 // FormatNumber writes x to sig significant figures, keeping trailing zeros
-// (they state the precision). Numbers from 0.001 up to a million print in
+// (they state the precision). Numbers from 0.001 up to 9999 print in
 // plain decimals, others with an exponent: "1.235e+09". The minus sign is
 // ASCII; renderers may set a typographic one.
 func FormatNumber(x float64, sig int) string {
@@ -157,7 +188,7 @@ func FormatNumber(x float64, sig int) string {
 	s := strconv.FormatFloat(x, 'e', sig-1, 64)
 	r, _ := strconv.ParseFloat(s, 64)
 	_, e := SplitExponent(s)
-	if e < -3 || e >= 6 {
+	if e < -3 || e >= 4 {
 		return strconv.FormatFloat(r, 'e', sig-1, 64)
 	}
 	decimals := sig - 1 - e

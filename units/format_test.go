@@ -26,7 +26,12 @@ func TestFormatNumber(t *testing.T) {
 		{0.0009999, 4, "9.999e-04"}, // just under it is not
 		{0.00099996, 4, "0.001000"}, // unless rounding lifts it to 0.001
 		{999999.4, 4, "1.000e+06"},  // rounding lifts it to a million
-		{999400, 4, "999400"},       // below a million: plain, no decimals
+		// No more than four digits before the decimal point: past 9999 a
+		// power of ten (issue: no result shows five digits unprefixed).
+		{999400, 4, "9.994e+05"},
+		{9999, 4, "9999"},
+		{9999.6, 4, "1.000e+04"}, // rounding lifts it to five digits
+		{12345, 4, "1.234e+04"},  // 12345 is held exactly: half rounds to even
 		{12.5, 4, "12.50"},
 		{100, 4, "100.0"},
 		{1000, 4, "1000"},
@@ -46,7 +51,8 @@ func TestFormatNumber(t *testing.T) {
 		{-0.00004, 1, "-4e-05"},
 		{0.1, 15, "0.100000000000000"},
 		{1.0 / 3, 15, "0.333333333333333"},
-		{123456.789, 15, "123456.789000000"},
+		{123456.789, 15, "1.23456789000000e+05"},
+		{1234.56789, 15, "1234.56789000000"},
 		{math.Pi * 1e8, 15, "3.14159265358979e+08"},
 		// Out-of-range figures are clamped to 1 and 17.
 		{0.92, 0, "0.9"},

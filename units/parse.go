@@ -187,7 +187,7 @@ func (p *parser) product(depth int) (factor, error) {
 		if div {
 			sign = -1
 		}
-		if !expFits(left.dim, right.dim, sign) {
+		if !expFits(left.dim, right.dim, sign) || !kindFits(left.kind, right.kind, sign) {
 			return factor{}, p.errf(right.col, "unit exponent too large",
 				fmt.Sprintf("a unit may raise each base quantity to at most the power %d", maxUnitExp))
 		}
@@ -223,7 +223,7 @@ func combine(a, b factor, op string, sign int) factor {
 		f.dim = a.dim.Div(b.dim)
 		f.scale /= b.scale
 	}
-	f.kind = combineKinds(a.kind, b.kind, f.dim)
+	f.kind = combineKinds(a, b, sign)
 	return f
 }
 
@@ -245,22 +245,25 @@ func topLevelSolidus(text string) bool {
 	return false
 }
 
-// combineKinds keeps a cycle kind only on a rate (Hz·1, rpm), and an angle
-// kind on anything measured per radian; mixed or unclear cases are plain.
-func combineKinds(a, b Kind, d Dim) Kind {
-	k := a
-	if k == Plain || k == AbsTemp {
-		k = b
-	} else if b != Plain && b != k {
-		return Plain
+// combineKinds works out the kind of a product (sign 1) or quotient (sign
+// -1) of two unit factors: the radian and cycle exponents add, as the
+// dimensions do. A force times a length (N·m, lbf·ft) is a torque, an
+// energy per radian; the joule names the energy. A power tag (W, VA, var)
+// stays only when the other factor is a pure number.
+func combineKinds(a, b factor, sign int) Kind {
+	k := a.kind.Mul(b.kind)
+	if sign < 0 {
+		k = a.kind.Div(b.kind)
 	}
-	switch k {
-	case Cycle:
-		if d != (Dim{Time: -1}) {
-			return Plain
-		}
-	case AbsTemp:
-		return Plain
+	switch {
+	case a.kind.IsPower() && b.dim.IsDimensionless() && !b.kind.Angular():
+		k.Tag = a.kind.Tag
+	case b.kind.IsPower() && a.dim.IsDimensionless() && !a.kind.Angular() && sign > 0:
+		k.Tag = b.kind.Tag
+	}
+	length := DimOf(Length)
+	if sign > 0 && (a.dim == dimForce && b.dim == length || a.dim == length && b.dim == dimForce) {
+		k.Rad--
 	}
 	return k
 }
@@ -303,9 +306,11 @@ func (p *parser) power(depth int) (factor, error) {
 	}
 	out := factor{text: text + superscript(n), dim: f.dim.Pow(n), scale: math.Pow(f.scale, float64(n)),
 		atoms: f.atoms, affine: f.affine, affCol: f.affCol, col: f.col, compose: false}
-	if f.kind == Angle && n == 1 {
-		out.kind = Angle
+	if !KindPowFits(f.kind, n) {
+		return factor{}, p.errf(f.col, "unit exponent too large",
+			fmt.Sprintf("a unit may raise each base quantity to at most the power %d", maxUnitExp))
 	}
+	out.kind = f.kind.Pow(n)
 	if f.affine {
 		out.offset = 0 // forces the "cannot be combined" error in finish
 	}
@@ -438,6 +443,12 @@ func (p *parser) unknown(col int, sym string) *Error {
 func Suggest(sym string) string { return reg.suggest(sym) }
 
 func (r *registry) suggest(sym string) string {
+	// The ordinal sign º and the ring ˚ are typed for the degree sign.
+	if fixed := strings.NewReplacer("º", "°", "˚", "°").Replace(sym); fixed != sym {
+		if _, err := r.parse(fixed, false); err == nil {
+			return fixed
+		}
+	}
 	// Case slips first: "kv" means kV far more often than anything else.
 	fold, foldD := "", 1<<30
 	for _, s := range r.allSpellings() {

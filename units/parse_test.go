@@ -23,9 +23,11 @@ func TestParseExpressions(t *testing.T) {
 		{"W/(m*K)", "W/(m·K)", d(-3, 1, 1, 0, -1, 0, 0), 1, Plain},
 		{"W/(m·K)", "W/(m·K)", d(-3, 1, 1, 0, -1, 0, 0), 1, Plain},
 		{"W/(m K)", "W/(m·K)", d(-3, 1, 1, 0, -1, 0, 0), 1, Plain},
-		{"N m", "N·m", d(-2, 2, 1, 0, 0, 0, 0), 1, Plain},
-		{" N  m ", "N·m", d(-2, 2, 1, 0, 0, 0, 0), 1, Plain},
-		{"N×m", "N·m", d(-2, 2, 1, 0, 0, 0, 0), 1, Plain},
+		// A force times a length is a torque, an energy per radian (SI
+		// Brochure, 9th ed., table 5 note: N·m for moment of force).
+		{"N m", "N·m", d(-2, 2, 1, 0, 0, 0, 0), 1, PerRadian},
+		{" N  m ", "N·m", d(-2, 2, 1, 0, 0, 0, 0), 1, PerRadian},
+		{"N×m", "N·m", d(-2, 2, 1, 0, 0, 0, 0), 1, PerRadian},
 		{"kV/mm", "kV/mm", d(-3, 1, 1, -1, 0, 0, 0), 1e6, Plain},
 		{"mm*mm", "mm·mm", d(0, 2, 0, 0, 0, 0, 0), 1e-6, Plain},
 		// A quotient followed by more keeps its parentheses in print; "A/m·s"
@@ -64,11 +66,29 @@ func TestParseExpressions(t *testing.T) {
 		{"Mohm", "MΩ", d(-3, 2, 1, -2, 0, 0, 0), 1e6, Plain},
 		{"uohm", "µΩ", d(-3, 2, 1, -2, 0, 0, 0), 1e-6, Plain},
 		{"kGs", "kG", d(-2, 0, 1, -1, 0, 0, 0), 0.1, Plain},
-		// Kinds: rates of angle stay angles, cycles stay cycles only as T⁻¹.
+		// Kinds follow the algebra: the exponents of rad and of the cycle add.
 		{"rad/s", "rad/s", d(-1, 0, 0, 0, 0, 0, 0), 1, Angle},
 		{"deg/s", "°/s", d(-1, 0, 0, 0, 0, 0, 0), 0.017453292519943295, Angle},
 		{"kHz", "kHz", d(-1, 0, 0, 0, 0, 0, 0), 1e3, Cycle},
-		{"Hz/s", "Hz/s", d(-2, 0, 0, 0, 0, 0, 0), 1, Plain},
+		{"Hz/s", "Hz/s", d(-2, 0, 0, 0, 0, 0, 0), 1, Cycle},
+		{"V*s/rad", "V·s/rad", d(-2, 2, 1, -1, 0, 0, 0), 1, PerRadian},
+		{"N*m/A", "N·m/A", d(-2, 2, 1, -1, 0, 0, 0), 1, PerRadian},
+		{"V/rpm", "V/rpm", d(-2, 2, 1, -1, 0, 0, 0), 60, PerCycle},
+		{"V/krpm", "V/krpm", d(-2, 2, 1, -1, 0, 0, 0), 0.06, PerCycle},
+		{"rad/s^2", "rad/s²", d(-2, 0, 0, 0, 0, 0, 0), 1, Angle},
+		{"rad^2", "rad²", Dimensionless, 1, Kind{Rad: 2}},
+		{"N*m/rad", "N·m/rad", d(-2, 2, 1, 0, 0, 0, 0), 1, Kind{Rad: -2}},
+		{"lbf*ft", "lbf·ft", d(-2, 2, 1, 0, 0, 0, 0), 1.3558179483314004, PerRadian},
+		{"rev", "rev", Dimensionless, 1, Cycle},
+		{"rev/min", "rev/min", d(-1, 0, 0, 0, 0, 0, 0), 1.0 / 60, Cycle},
+		{"krpm", "krpm", d(-1, 0, 0, 0, 0, 0, 0), 1000.0 / 60, Cycle},
+		{"J", "J", d(-2, 2, 1, 0, 0, 0, 0), 1, Plain},
+		{"kW", "kW", d(-3, 2, 1, 0, 0, 0, 0), 1e3, Active},
+		{"MVA", "MVA", d(-3, 2, 1, 0, 0, 0, 0), 1e6, Apparent},
+		{"kvar", "kvar", d(-3, 2, 1, 0, 0, 0, 0), 1e3, Reactive},
+		{"V*A", "V·A", d(-3, 2, 1, 0, 0, 0, 0), 1, Plain},
+		{"kW*h", "kW·h", d(-2, 2, 1, 0, 0, 0, 0), 3.6e6, Plain},
+		{"W/K", "W/K", d(-3, 2, 1, 0, -1, 0, 0), 1, Plain},
 		{"K/s", "K/s", d(-1, 0, 0, 0, 1, 0, 0), 1, Plain},
 	}
 	for _, c := range cases {
@@ -306,9 +326,10 @@ func TestPrefixCollisions(t *testing.T) {
 	//   cd   candela, not centi-day        (d takes no prefix)
 	//   cmil circular mil, not centi-mil   (mil takes no prefix)
 	//   ft   foot, not femto-tonne         (t takes no prefix)
+	//   krpm a row of its own: rpm takes no other prefix
 	//   min  minute, not milli-inch        (in takes no prefix)
 	//   yd   yard, not yocto-day           (d takes no prefix)
-	if got, want := strings.Join(fixed, " "), "cd cmil ft min yd"; got != want {
+	if got, want := strings.Join(fixed, " "), "cd cmil ft krpm min yd"; got != want {
 		t.Errorf("prefix + unprefixable unit spelling a table symbol: %q, want %q", got, want)
 	}
 	for _, sym := range []string{"cd", "cmil", "ft", "min", "yd"} {

@@ -24,7 +24,7 @@ var siTable4 = []struct {
 	{"newton", "N", d(-2, 1, 1, 0, 0, 0, 0), "", Plain},        // kg m s⁻²
 	{"pascal", "Pa", d(-2, -1, 1, 0, 0, 0, 0), "N/m^2", Plain}, // kg m⁻¹ s⁻²
 	{"joule", "J", d(-2, 2, 1, 0, 0, 0, 0), "N*m", Plain},      // kg m² s⁻²
-	{"watt", "W", d(-3, 2, 1, 0, 0, 0, 0), "J/s", Plain},       // kg m² s⁻³
+	{"watt", "W", d(-3, 2, 1, 0, 0, 0, 0), "J/s", Active},      // kg m² s⁻³; sheaf: active power (IEC 60050-131)
 	{"coulomb", "C", d(1, 0, 0, 1, 0, 0, 0), "", Plain},        // A s
 	{"volt", "V", d(-3, 2, 1, -1, 0, 0, 0), "W/A", Plain},      // kg m² s⁻³ A⁻¹
 	{"farad", "F", d(4, -2, -1, 2, 0, 0, 0), "C/V", Plain},     // kg⁻¹ m⁻² s⁴ A²

@@ -65,7 +65,8 @@ var Table = []Def{
 	{Symbol: "N", Name: "newton", Class: DerivedSI, Prefix: true, Scale: 1, Of: "kg*m*s^-2"},
 	{Symbol: "Pa", Name: "pascal", Class: DerivedSI, Prefix: true, Scale: 1, Of: "N/m^2"},
 	{Symbol: "J", Name: "joule", Class: DerivedSI, Prefix: true, Scale: 1, Of: "N*m"},
-	{Symbol: "W", Name: "watt", Class: DerivedSI, Prefix: true, Scale: 1, Of: "J/s"},
+	{Symbol: "W", Name: "watt", Class: DerivedSI, Prefix: true, Scale: 1, Of: "J/s", Kind: Active,
+		Note: "active power; VA and var name apparent and reactive power (IEC 60050-131)"},
 	{Symbol: "C", Name: "coulomb", Class: DerivedSI, Prefix: true, Scale: 1, Of: "A*s"},
 	{Symbol: "V", Name: "volt", Class: DerivedSI, Prefix: true, Scale: 1, Of: "W/A"},
 	{Symbol: "F", Name: "farad", Class: DerivedSI, Prefix: true, Scale: 1, Of: "C/V"},
@@ -99,10 +100,16 @@ var Table = []Def{
 	// Rotation. rpm and r/s count one revolution as 1, like the hertz: they
 	// are rotational frequencies (ISO 80000-3, item 3-17.2), not angular
 	// velocities. 2π rad/s is one r/s; sheaf asks for the 2π in the formula.
+	// The unit parser gives a force times a length (N·m) the kind of a
+	// torque, an energy per radian.
 	{Symbol: "rpm", Aliases: []string{"r/min"}, Name: "revolution per minute", Class: Other, Scale: 1.0 / 60, Of: "s^-1", Kind: Cycle,
 		Note: "rotational frequency; omega = 2*pi*n gives rad/s"},
 	{Symbol: "rps", Aliases: []string{"r/s"}, Name: "revolution per second", Class: Other, Scale: 1, Of: "s^-1", Kind: Cycle,
 		Note: "rotational frequency; omega = 2*pi*n gives rad/s"},
+	{Symbol: "krpm", Name: "thousand revolutions per minute", Class: Other, Scale: 1000, Of: "rpm", Kind: Cycle,
+		Note: "as motor data sheets print back-EMF constants: V/krpm"},
+	{Symbol: "rev", Name: "revolution", Class: Other, Scale: 1, Of: "1", Kind: Cycle,
+		Note: "one whole turn, counted as 1; 1 rev = 2*pi rad only through a written 2*pi"},
 
 	// Ratios.
 	{Symbol: "%", Name: "percent", Class: Other, Scale: 1e-2, Of: "1"},
@@ -143,8 +150,8 @@ var Table = []Def{
 	{Symbol: "Btu", Name: "British thermal unit (IT)", Class: Other, Scale: 1055.05585262, Of: "J"},
 	{Symbol: "Wh", Name: "watt hour", Class: Other, Prefix: true, Scale: 3600, Of: "J"},
 	{Symbol: "hp", Name: "horsepower (550 ft·lbf/s)", Class: Other, Scale: 550, Of: "ft*lbf/s"},
-	{Symbol: "VA", Name: "volt-ampere (apparent power)", Class: Other, Prefix: true, Scale: 1, Of: "V*A"},
-	{Symbol: "var", Name: "var (reactive power)", Class: Other, Prefix: true, Scale: 1, Of: "V*A"},
+	{Symbol: "VA", Name: "volt-ampere (apparent power)", Class: Other, Prefix: true, Scale: 1, Of: "V*A", Kind: Apparent},
+	{Symbol: "var", Name: "var (reactive power)", Class: Other, Prefix: true, Scale: 1, Of: "V*A", Kind: Reactive},
 
 	// CGS electromagnetic units (Gaussian system).
 	{Symbol: "G", Aliases: []string{"Gs"}, Name: "gauss", Class: Other, Prefix: true, Scale: 1e-4, Of: "T"},
