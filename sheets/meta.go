@@ -6,6 +6,7 @@ import (
 	"regexp"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"gopkg.in/yaml.v3"
 
@@ -117,6 +118,18 @@ func normaliseKey(k string) string {
 
 var yamlLine = regexp.MustCompile(`^yaml: line (\d+): (.*)$`)
 
+// tabAt returns the column of the first tab on a file line of the front
+// matter (text starts at file line 2).
+func tabAt(text []byte, line int) (int, bool) {
+	lines := bytes.Split(text, []byte("\n"))
+	if i := line - 2; i >= 0 && i < len(lines) {
+		if j := bytes.IndexByte(lines[i], '\t'); j >= 0 {
+			return utf8.RuneCount(lines[i][:j]) + 1, true
+		}
+	}
+	return 0, false
+}
+
 // yamlParserError tells yaml.v3's parser errors, whose "line N" counts from
 // 0, from its scanner errors, which count from 1 (yaml.v3 decode.go, fail).
 func yamlParserError(msg string) bool {
@@ -176,6 +189,13 @@ func decodeMeta(path string, text []byte, diags *diag.List) Meta {
 		}
 		if l := yamlErrorLine(text); l > 0 {
 			pos.Line = l
+		}
+		if col, ok := tabAt(text, pos.Line); ok {
+			// YAML refuses tabs for indentation, and says so in its own words.
+			pos.Col = col
+			diags.Add(pos, "indent front matter with spaces; YAML does not allow tabs there",
+				"front matter: a tab character at line %d, column %d", pos.Line, col)
+			return m
 		}
 		diags.Add(pos, "front matter is YAML: one `field: value` per line", "front matter: %s", strings.TrimPrefix(msg, "yaml: "))
 		return m
