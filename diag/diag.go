@@ -57,7 +57,11 @@ func (s Severity) String() string {
 // Diagnostic is one message tied to a source position. Message says what is
 // wrong in the user's words; Hint, when set, says how to fix it.
 type Diagnostic struct {
-	Pos      Pos      `json:"pos"`
+	Pos Pos `json:"pos"`
+	// End, when set, is where the text the diagnostic is about ends (the
+	// column after its last character, on the same line), for a caret
+	// snippet under the source line.
+	End      Pos      `json:"-"`
 	Severity Severity `json:"-"`
 	Message  string   `json:"message"`
 	Hint     string   `json:"hint,omitempty"`
@@ -104,4 +108,38 @@ func (l List) Errors() int {
 		}
 	}
 	return n
+}
+
+// Snippet returns the diagnostic's source line and, under it, carets
+// beneath the characters it is about, each line indented by four spaces;
+// "" when src (the file's text) does not hold the line.
+func (d Diagnostic) Snippet(src []byte) string {
+	if d.Pos.Line < 1 || d.Pos.Col < 1 {
+		return ""
+	}
+	lines := strings.Split(string(src), "\n")
+	if d.Pos.Line > len(lines) {
+		return ""
+	}
+	line := []rune(strings.TrimRight(lines[d.Pos.Line-1], "\r"))
+	from := d.Pos.Col - 1
+	if from > len(line) {
+		return ""
+	}
+	to := from + 1
+	if d.End.Line == d.Pos.Line && d.End.Col > d.Pos.Col {
+		to = min(d.End.Col-1, len(line))
+	}
+	to = max(to, from+1)
+	var b strings.Builder
+	b.WriteString("    " + string(line) + "\n    ")
+	for _, c := range line[:from] {
+		if c == '\t' {
+			b.WriteRune('\t') // tabs keep the columns an editor shows
+		} else {
+			b.WriteRune(' ')
+		}
+	}
+	b.WriteString(strings.Repeat("^", to-from) + "\n")
+	return b.String()
 }

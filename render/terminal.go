@@ -30,10 +30,24 @@ func Terminal(pkg *project.Package, opt Options, out, errs io.Writer) {
 		}
 		fmt.Fprintln(out)
 	}
+	WriteDiagnostics(pkg, errs)
+	fmt.Fprintln(out, Summary(pkg))
+}
+
+// WriteDiagnostics writes every diagnostic as file:line:col: message, with
+// the source line and carets under what it is about.
+func WriteDiagnostics(pkg *project.Package, errs io.Writer) {
+	sources := map[string][]byte{}
+	for _, s := range pkg.Sheets {
+		sources[s.Path()] = s.Doc.Source
+	}
+	for _, s := range pkg.Templates {
+		sources[s.Path] = s.Source
+	}
 	for _, d := range pkg.Diags {
 		fmt.Fprintln(errs, d.Error())
+		fmt.Fprint(errs, d.Snippet(sources[d.Pos.File]))
 	}
-	fmt.Fprintln(out, Summary(pkg))
 }
 
 // Summary states a package's outcome in one line: "5 sheets, 102 results,

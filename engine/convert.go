@@ -1,0 +1,118 @@
+package engine
+
+import (
+	"github.com/sheaf-calc/sheaf/diag"
+	"github.com/sheaf-calc/sheaf/engine/syntax"
+)
+
+// parseFormula reads the formula in t.runes[from:to] with sheaf's grammar
+// and turns its tree into the engine's nodes, which the checker annotates.
+func parseFormula(t *text, from, to int) (Expr, *diag.Diagnostic) {
+	n, err := syntax.Parse(t.runes, from, to)
+	if err != nil {
+		d := errAt(t.pos(err.Start), err.Hint, "%s", err.Msg)
+		d.End = t.pos(err.End)
+		return nil, d
+	}
+	c := converter{t: t}
+	e := c.convert(n)
+	if c.err != nil {
+		return nil, c.err
+	}
+	return e, nil
+}
+
+// converter turns a syntax tree into the engine's nodes.
+type converter struct {
+	t   *text
+	err *diag.Diagnostic
+}
+
+func (c *converter) fail(n syntax.Node, hint, format string, args ...any) Expr {
+	if c.err == nil {
+		c.err = errAt(c.t.pos(n.At()), hint, format, args...)
+		c.err.End = c.t.pos(n.Span().End)
+	}
+	return nil
+}
+
+func (c *converter) convert(n syntax.Node) Expr {
+	if c.err != nil {
+		return nil
+	}
+	pos := c.t.pos(n.At())
+	switch n := n.(type) {
+	case *syntax.Number:
+		e := &Number{Text: n.Text, Value: n.Value}
+		e.setPos(pos)
+		return e
+	case *syntax.Quantity:
+		e := &Quantity{Text: n.Text, UnitText: n.UnitText, Value: n.Value, Unit: n.Unit, SI: n.SI}
+		e.setPos(pos)
+		return e
+	case *syntax.Name:
+		return c.name(n, pos)
+	case *syntax.Unary:
+		x := c.convert(n.X)
+		if q, ok := x.(*Quantity); ok && n.Op == "-" && q.Unit.IsAffine() {
+			// -25 °C is a temperature below the scale's zero, not the
+			// negation of one: fold the sign into the literal.
+			q.Text, q.Value, q.SI = "-"+q.Text, -q.Value, q.Unit.ToSI(-q.Value)
+			q.setPos(pos)
+			return q
+		}
+		e := &Unary{Op: n.Op, X: x}
+		e.setPos(pos)
+		return e
+	case *syntax.Binary:
+		x, y := c.convert(n.X), c.convert(n.Y)
+		if isComparison(n.Op) {
+			for _, side := range []Expr{x, y} {
+				if b, ok := side.(*Binary); ok && isComparison(b.Op) {
+					return c.fail(n, "write each comparison as its own check", "a check holds one comparison")
+				}
+			}
+		}
+		e := &Binary{Op: n.Op, X: x, Y: y}
+		e.setPos(pos)
+		return e
+	case *syntax.Call:
+		return c.call(n, pos)
+	}
+	return c.fail(n, "formulas use names, numbers with units, + - * / ^ ( ) and functions", "this is not a formula sheaf understands")
+}
+
+// name converts a name: a reference, or the keyword of interp and spline.
+func (c *converter) name(n *syntax.Name, pos diag.Pos) Expr {
+	if n.Name == "extrapolate" {
+		k := &Keyword{Word: n.Name}
+		k.setPos(pos)
+		return k
+	}
+	if reserved[n.Name] {
+		return c.fail(n, "choose another name", "%s is a reserved word", n.Name)
+	}
+	e := &Ref{Name: n.Name}
+	e.setPos(pos)
+	return e
+}
+
+func (c *converter) call(n *syntax.Call, pos diag.Pos) Expr {
+	f, ok := functions[n.Name]
+	if !ok {
+		hint := "the functions are " + functionList()
+		if s := closest(n.Name, functionNames()); s != "" {
+			hint = "did you mean " + s + "? " + hint
+		}
+		return c.fail(n, hint, "unknown function %s", n.Name)
+	}
+	e := &Call{Name: n.Name, Func: f}
+	e.setPos(pos)
+	for _, a := range n.Args {
+		e.Args = append(e.Args, c.convert(a))
+	}
+	if len(e.Args) < f.MinArgs || (f.MaxArgs >= 0 && len(e.Args) > f.MaxArgs) {
+		return c.fail(n, "write "+f.Usage, "%s takes %s", n.Name, f.arity())
+	}
+	return e
+}

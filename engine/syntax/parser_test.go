@@ -1,0 +1,208 @@
+package syntax
+
+import (
+	"fmt"
+	"strings"
+	"testing"
+	"unicode/utf8"
+)
+
+// sexp writes a tree as nested parentheses, with each node's span, so that
+// a test states shape and positions at once.
+func sexp(n Node) string {
+	switch n := n.(type) {
+	case *Number:
+		return n.Text
+	case *Quantity:
+		return "[" + n.Text + " " + n.UnitText + "]"
+	case *Name:
+		return n.Name
+	case *Unary:
+		return "(" + n.Op + " " + sexp(n.X) + ")"
+	case *Binary:
+		return "(" + n.Op + " " + sexp(n.X) + " " + sexp(n.Y) + ")"
+	case *Call:
+		var args []string
+		for _, a := range n.Args {
+			args = append(args, sexp(a))
+		}
+		return n.Name + "(" + strings.Join(args, ", ") + ")"
+	}
+	return "?"
+}
+
+func parse(s string) (Node, *Error) {
+	r := []rune(s)
+	return Parse(r, 0, len(r))
+}
+
+func TestParseShapes(t *testing.T) {
+	for _, c := range []struct{ in, want string }{
+		{"1 + 2*3", "(+ 1 (* 2 3))"},
+		{"1 - 2 - 3", "(- (- 1 2) 3)"},
+		{"a / b / c", "(/ (/ a b) c)"},
+		{"2^3^2", "(^ 2 (^ 3 2))"},
+		{"-x^2", "(- (^ x 2))"},
+		{"-x*y", "(* (- x) y)"},
+		{"2^-1*3", "(* (^ 2 (- 1)) 3)"},
+		{"x ** 2", "(^ x 2)"},
+		{"0.92 T * 180 mm", "(* [0.92 T] [180 mm])"},
+		{"2 π*n", "?"}, // the space makes π a unit: refused below
+		{"2π*n", "(* (* 2 π) n)"},
+		{"a ≤ b", "(<= a b)"},
+		{"a·b × c − d", "(- (* (* a b) c) d)"},
+		{"sqrt(a^2 + b^2)", "sqrt((+ (^ a 2) (^ b 2)))"},
+		{"interp(BH.B, BH.H, H_c, extrapolate)", "interp(BH.B, BH.H, H_c, extrapolate)"},
+		{"solve(a*x == b, 0 m, 1 m)", "solve((== (* a x) b), [0 m], [1 m])"},
+		{"coil_a.lambda * 2", "(* coil_a.lambda 2)"},
+		{"((a))", "a"},
+		{"f()", "f()"},
+		{"1 V + 2 V < 3 V", "(< (+ [1 V] [2 V]) [3 V])"},
+		{"3_000 rpm", "[3_000 rpm]"},
+		{"60 cm^2", "[60 cm^2]"},
+		{"-25 degC + 10 K", "(+ (- [25 degC]) [10 K])"},
+	} {
+		n, err := parse(c.in)
+		if c.want == "?" {
+			if err == nil {
+				t.Errorf("%q parsed as %s, want an error", c.in, sexp(n))
+			}
+			continue
+		}
+		if err != nil {
+			t.Errorf("%q: %v", c.in, err)
+			continue
+		}
+		if got := sexp(n); got != c.want {
+			t.Errorf("%q parsed as %s, want %s", c.in, got, c.want)
+		}
+	}
+}
+
+// Spans cover the text of the node; binary nodes point at their operator.
+func TestParseSpans(t *testing.T) {
+	in := "a + sqrt(b*c) - 2 m"
+	n, err := parse(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := []rune(in)
+	text := func(s Span) string { return string(r[s.Start:s.End]) }
+	top := n.(*Binary)
+	if text(top.Span()) != in || top.At() != 14 {
+		t.Errorf("top spans %q and points at %d, want the whole formula and 14", text(top.Span()), top.At())
+	}
+	call := top.X.(*Binary).Y.(*Call)
+	if text(call.Span()) != "sqrt(b*c)" || text(call.Args[0].Span()) != "b*c" {
+		t.Errorf("call spans %q, argument %q", text(call.Span()), text(call.Args[0].Span()))
+	}
+	if q := top.Y.(*Quantity); text(q.Span()) != "2 m" || q.UnitAt != 18 {
+		t.Errorf("quantity spans %q with its unit at %d", text(q.Span()), q.UnitAt)
+	}
+}
+
+// Each error names what is wrong, where (the range of characters), and
+// what to do.
+func TestParseErrors(t *testing.T) {
+	for _, c := range []struct {
+		in, msg, hint string
+		start, end    int
+	}{
+		{"a +", "formula ends too early", "after +", 2, 3},
+		{"", "formula ends too early", "complete the formula", 0, 1},
+		{"(a + b", "this ( is never closed", "add the missing )", 0, 1},
+		{"a + b)", "this ) has no matching (", "remove it", 5, 6},
+		{"a b", "unexpected b", "missing operator", 2, 3},
+		{"a 2 V", "a quantity follows another term without an operator", "*", 2, 5},
+		{"3 m s", "a unit symbol follows a quantity after a space", "3 m*s", 4, 5},
+		{"1,5 V", "a comma inside a number", "1.5", 1, 2},
+		{"2(a + b)", "a ( follows 2 without an operator", "2*(a + b)", 1, 2},
+		{"a < b < c", "chains two", "its own check", 6, 7},
+		{"a < b and b < c", "'and' is not supported", "its own check", 6, 9},
+		{"a = b", "unexpected =", "", 2, 3},
+		{"[1, 2]", "reserved for lists", "( )", 0, 1},
+		{"1..3", "reserved for ranges", "", 1, 3},
+		{"5 V ± 1 V", "reserved for tolerances", "", 4, 5},
+		{"10 V ∠ 30 deg", "reserved for phasors", "", 5, 6},
+		{"1.2.3", `malformed number "1.2.3"`, "", 0, 5},
+		{"2x", `malformed number "2x"`, "2*x", 0, 2},
+		{"1e", `malformed number "1e"`, "an exponent needs digits", 0, 2},
+		{"2 kv", `unknown unit "kv"`, "did you mean 2 kV?", 2, 4},
+		{"1e-400", "too small to hold", "", 0, 6},
+		{"1e400", "out of range", "", 0, 5},
+		{"_q0 + 1", "name _q0 starts with _", "letter", 0, 3},
+		{`"abc"`, "text in quotes", "", 0, 1},
+		{"x %", "% must follow a number", "", 2, 3},
+		{"a & b", "& is not an operator sheaf knows", "", 2, 3},
+		{"60 cm ^ 2", "a power after a space is ambiguous", "60 cm^…", 6, 7},
+		{strings.Repeat("(", 101) + "1" + strings.Repeat(")", 101), "nested more than 100 deep", "", 100, 101},
+		{strings.Repeat("-", 401) + "1", "nested too deeply", "", 400, 401},
+	} {
+		_, err := parse(c.in)
+		if err == nil {
+			t.Errorf("%q: no error, want %q", c.in, c.msg)
+			continue
+		}
+		if !strings.Contains(err.Msg, c.msg) || !strings.Contains(err.Hint, c.hint) || err.Start != c.start || err.End != c.end {
+			t.Errorf("%q: %q (hint %q) at %d..%d; want %q (hint with %q) at %d..%d",
+				c.in, err.Msg, err.Hint, err.Start, err.End, c.msg, c.hint, c.start, c.end)
+		}
+	}
+}
+
+// A flat sum of many terms is not nesting: it parses without recursion.
+func TestFlatSumIsNotNesting(t *testing.T) {
+	in := "1" + strings.Repeat(" + 1", 2400)
+	n, err := parse(in)
+	if err != nil {
+		t.Fatalf("a flat sum of 2,401 terms: %v", err)
+	}
+	depth := 0
+	for b, ok := n.(*Binary); ok; b, ok = b.X.(*Binary) {
+		depth++
+	}
+	if depth != 2400 {
+		t.Errorf("%d additions, want 2400", depth)
+	}
+}
+
+// FuzzParse checks that any text parses or gives an error whose range lies
+// inside the formula, without panicking, and that a tree's spans nest.
+func FuzzParse(f *testing.F) {
+	for _, s := range []string{"1 + 2*3", "-x^2", "sqrt(a, b)", "2π*n", "60 cm^2", "a < b < c", "(", ")", "1,5 V",
+		"3 m s", "f(", "interp(T.y, T.x, 3 A, extrapolate)", "1..2", "±", "∠", "[", "\xff", "2(a)", "x ** -2"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		if !utf8.ValidString(s) || len(s) > 2000 {
+			return
+		}
+		r := []rune(s)
+		n, err := Parse(r, 0, len(r))
+		if err != nil {
+			if err.Start < 0 || err.End > len(r)+1 || err.Start > err.End || err.Msg == "" {
+				t.Fatalf("%q: error %q at %d..%d outside the formula", s, err.Msg, err.Start, err.End)
+			}
+			return
+		}
+		checkSpans(t, s, n, Span{0, len(r)})
+	})
+}
+
+func checkSpans(t *testing.T, s string, n Node, outer Span) {
+	sp := n.Span()
+	if sp.Start < outer.Start || sp.End > outer.End || sp.Start > sp.End || n.At() < sp.Start || n.At() > sp.End {
+		t.Fatalf("%q: %s spans %v, outside %v", s, fmt.Sprintf("%T", n), sp, outer)
+	}
+	switch n := n.(type) {
+	case *Unary:
+		checkSpans(t, s, n.X, sp)
+	case *Binary:
+		checkSpans(t, s, n.X, sp)
+		checkSpans(t, s, n.Y, sp)
+	case *Call:
+		for _, a := range n.Args {
+			checkSpans(t, s, a, sp)
+		}
+	}
+}

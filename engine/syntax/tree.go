@@ -1,0 +1,122 @@
+// Package syntax is sheaf's formula grammar: a lexer whose tokens include
+// the quantity (a number and its unit, "0.92 T"), a Pratt parser, and a
+// tree whose nodes know where they start and end. It knows nothing of
+// dimensions, names or evaluation; the engine checks what it builds.
+//
+// The grammar, as EBNF (README, "Formula grammar"):
+//
+//	formula    = sum [ relation sum ] .
+//	relation   = "<" | "<=" | ">" | ">=" | "==" | "≤" | "≥" .
+//	sum        = product { ( "+" | "-" ) product } .
+//	product    = unary { ( "*" | "/" ) unary } .
+//	unary      = [ "-" | "+" ] power .
+//	power      = primary [ ( "^" | "**" ) unary ] .
+//	primary    = quantity | number | name | call | "(" sum ")" .
+//	call       = name "(" [ sum { "," sum } ] ")" .
+//	quantity   = number unit .
+//	name       = letter { letter | digit | "_" } { "." letter { letter | digit | "_" } } .
+//
+// "·", "×" and "⋅" are written for "*", "−" for "-". A number directly
+// followed by π multiplies it (2π). Reserved for later versions, and
+// refused with a message today: "[" and "]" (lists and indexing), ".."
+// (ranges), "±" (tolerances) and "∠" (phasors in polar form).
+package syntax
+
+import "github.com/sheaf-calc/sheaf/units"
+
+// Span is where a node lies in the statement: rune offsets, End exclusive.
+type Span struct{ Start, End int }
+
+// Node is a node of a formula's tree.
+type Node interface {
+	// Span is the text the node covers.
+	Span() Span
+	// At is where messages about the node point: the operator of a unary
+	// or binary node, else its start.
+	At() int
+}
+
+// Number is a plain number: 2, 0.5, 1e-3.
+type Number struct {
+	Pos   Span
+	Text  string
+	Value float64
+}
+
+// Quantity is a number with a unit: 0.92 T, 180 mm.
+type Quantity struct {
+	Pos      Span
+	Text     string // the number as written
+	UnitText string // the unit as written
+	Value    float64
+	UnitAt   int // where the unit starts
+	Unit     units.Unit
+	SI       float64 // the value in coherent SI
+}
+
+// Name is a name, possibly qualified with dots: B_g, coil_a.lambda, BH.B.
+type Name struct {
+	Pos  Span
+	Name string
+}
+
+// Unary is -x or +x.
+type Unary struct {
+	Pos Span
+	Op  string
+	X   Node
+}
+
+// Binary is x op y for + - * / ^ and the relations.
+type Binary struct {
+	Pos  Span
+	OpAt int
+	Op   string
+	X, Y Node
+}
+
+// Call is a function applied to arguments: sqrt(x), interp(T.y, T.x, x).
+type Call struct {
+	Pos  Span
+	Name string
+	Args []Node
+}
+
+// Span implementations.
+func (n *Number) Span() Span   { return n.Pos }
+func (n *Quantity) Span() Span { return n.Pos }
+func (n *Name) Span() Span     { return n.Pos }
+func (n *Unary) Span() Span    { return n.Pos }
+func (n *Binary) Span() Span   { return n.Pos }
+func (n *Call) Span() Span     { return n.Pos }
+
+// At implementations.
+func (n *Number) At() int   { return n.Pos.Start }
+func (n *Quantity) At() int { return n.Pos.Start }
+func (n *Name) At() int     { return n.Pos.Start }
+func (n *Unary) At() int    { return n.Pos.Start }
+func (n *Binary) At() int   { return n.OpAt }
+func (n *Call) At() int     { return n.Pos.Start }
+
+// IsRelation reports whether op compares two sides.
+func IsRelation(op string) bool {
+	switch op {
+	case "<", "<=", ">", ">=", "==":
+		return true
+	}
+	return false
+}
+
+// Error is a problem in a formula's text, with the range it covers.
+type Error struct {
+	Span
+	Msg  string
+	Hint string
+}
+
+func (e *Error) Error() string {
+	if e.Hint != "" {
+		return e.Msg + "; " + e.Hint
+	}
+	return e.Msg
+}
