@@ -347,4 +347,3 @@ func isComparison(op string) bool {
 	}
 	return false
 }
-
