@@ -27,7 +27,7 @@ type Sheet struct {
 	Tables []*Table
 
 	byName map[string]*Statement
-	values []float64
+	prog   *Program
 }
 
 // Lookup finds the definition of a name.
@@ -81,7 +81,6 @@ func CompileWith(src SheetSource, opt Options) *Sheet {
 			}
 		}
 	}
-	s.values = make([]float64, len(s.Statements))
 	s.define()
 	s.resolve()
 	s.linkSolves()
@@ -364,55 +363,90 @@ func shownKind(have, unit units.Kind) units.Kind {
 	return unit
 }
 
-// Evaluate computes every compiled statement in dependency order. A
-// statement whose result is not a finite number fails with the reason at
-// the operation that produced it; statements that use it are blocked.
+// Evaluate computes every compiled statement in dependency order, as one
+// run of the sheet's Program, and records the results on the statements
+// for the renderers. A statement whose result is not a finite number fails
+// with the reason at the operation that produced it; statements that use
+// it are blocked.
 func (s *Sheet) Evaluate() {
-	for _, st := range s.Order {
-		if !st.compiled {
-			continue
-		}
-		blocked := false
-		for _, d := range st.Deps {
-			if d.Status != OK {
+	p := s.Program()
+	f := p.NewFrame()
+	p.Run(f, nil)
+	s.publish(p, f)
+}
+
+// Program returns the sheet's compiled program, built on first use.
+func (s *Sheet) Program() *Program {
+	if s.prog == nil {
+		s.prog = s.buildProgram()
+	}
+	return s.prog
+}
+
+// publish records a frame's results on the statements: values, statuses,
+// the units they are shown in, and the diagnostics of those that failed.
+// A value that cannot be shown in its unit (1e306 m in nm) fails here, and
+// what uses it is blocked.
+func (s *Sheet) publish(p *Program, f *Frame) {
+	for _, k := range p.steps {
+		st, slot := k.st, k.slot
+		st.Status, st.Err = f.Status[slot], f.Errs[slot]
+		if settled(st.Status) {
+			if d := failedDep(st); d != nil {
 				st.Status = Blocked
 				st.Err = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: it uses %s, which has an error", d.Name)}
-				blocked = true
-				break
+				continue
 			}
 		}
-		if blocked {
-			continue
+		switch st.Status {
+		case OK:
+			st.Value = f.Values[slot]
+			st.Shown = shownUnit(st)
+			if sv := st.solve; sv != nil {
+				st.Shown = solveUnit(st, fnOf(sv.lo)(f.Values), fnOf(sv.hi)(f.Values))
+			}
+			if !finite(st.Shown.FromSI(st.Value)) {
+				s.fail(st, unshowable(st, st.Value))
+			}
+		case Pass, Fail:
+			s.publishCheck(st, f.Left[slot], f.Right[slot])
+		case Failed:
+			s.Diags = append(s.Diags, *st.Err)
 		}
-		if st.Kind == Check {
-			s.evalCheck(st)
-			continue
-		}
-		if st.solve != nil {
-			s.evalSolve(st)
-			continue
-		}
-		v := st.fn(s.values)
-		if !finite(v) {
-			s.fail(st, diagnose(st.Expr, s.values))
-			continue
-		}
-		s.values[st.slot] = v
-		st.Value = v
-		st.Shown = shownUnit(st)
-		if !finite(st.Shown.FromSI(v)) {
-			s.fail(st, unshowable(st, v))
-			continue
-		}
-		st.Status = OK
 	}
 	s.Diags.Sort()
 }
 
-// Release drops the compiled closures once every statement has its value.
-// A package keeps its sheets for rendering, where the closures would only
-// hold memory; after Release the sheet cannot be evaluated again.
+// failedDep returns the first statement st uses that has no value.
+func failedDep(st *Statement) *Statement {
+	for _, d := range st.Deps {
+		if d.Status != OK {
+			return d
+		}
+	}
+	return nil
+}
+
+// publishCheck records a check's sides in the unit they are shown in, and
+// its utilisation there (a check on °C values uses the °C values).
+func (s *Sheet) publishCheck(st *Statement, l, r float64) {
+	st.Left, st.Right = l, r
+	st.Shown = checkUnit(st)
+	for _, side := range []float64{l, r} {
+		if !finite(st.Shown.FromSI(side)) {
+			s.fail(st, unshowable(st, side))
+			return
+		}
+	}
+	st.Utilisation = utilisation(st.Compare().Op, st.Shown.FromSI(l), st.Shown.FromSI(r))
+}
+
+// Release drops the compiled program and closures once every statement
+// has its value. A package keeps its sheets for rendering, where the
+// closures would only hold memory; after Release the sheet cannot be
+// evaluated again.
 func (s *Sheet) Release() {
+	s.prog = nil
 	for _, st := range s.Statements {
 		st.fn, st.right = nil, nil
 		if st.Expr != nil {
@@ -439,45 +473,6 @@ func unshowable(st *Statement, v float64) *diag.Diagnostic {
 }
 
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
-
-func (s *Sheet) evalCheck(st *Statement) {
-	cmp := st.Compare()
-	l, r := st.fn(s.values), st.right(s.values)
-	if !finite(l) {
-		s.fail(st, diagnose(cmp.X, s.values))
-		return
-	}
-	if !finite(r) {
-		s.fail(st, diagnose(cmp.Y, s.values))
-		return
-	}
-	st.Left, st.Right = l, r
-	st.Shown = checkUnit(st)
-	for _, side := range []float64{l, r} {
-		if !finite(st.Shown.FromSI(side)) {
-			s.fail(st, unshowable(st, side))
-			return
-		}
-	}
-	pass := false
-	switch cmp.Op {
-	case "<":
-		pass = l < r
-	case "<=":
-		pass = l <= r
-	case ">":
-		pass = l > r
-	case ">=":
-		pass = l >= r
-	case "==":
-		pass = l == r || math.Abs(l-r) <= EqualTolerance*math.Max(math.Abs(l), math.Abs(r))
-	}
-	st.Status = Fail
-	if pass {
-		st.Status = Pass
-	}
-	st.Utilisation = utilisation(cmp.Op, st.Shown.FromSI(l), st.Shown.FromSI(r))
-}
 
 // EqualTolerance is the relative difference within which a check with ==
 // passes: equal to about nine significant figures.

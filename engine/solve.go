@@ -311,86 +311,79 @@ func brent(f func(float64) float64, a, b, tol float64, maxIter int) (float64, er
 	return b, errors.New("did not converge")
 }
 
-// evalSolve finds the unknown of a solve statement.
-func (s *Sheet) evalSolve(st *Statement) {
-	root, unit, d := s.findRoot(st)
-	if d != nil {
-		s.fail(st, d)
-		return
+// solveUnit is the unit a solve's unknown and its messages are shown in:
+// its display unit, or one picked for the larger bound.
+func solveUnit(st *Statement, lo, hi float64) units.Unit {
+	if st.Display != nil {
+		return *st.Display
 	}
-	s.values[st.slot] = root
-	st.Value = root
-	st.Status = OK
-	st.Shown = unit
+	return units.AutoUnit(math.Max(math.Abs(lo), math.Abs(hi)), st.Type.Dim, st.Type.Kind)
 }
 
 // findRoot searches for the unknown of a solve statement and leaves the
 // statements inside the search at their values for the answer. A solve
 // inside another's search runs its own search for every trial value.
-func (s *Sheet) findRoot(st *Statement) (float64, units.Unit, *diag.Diagnostic) {
-	sv := st.solve
-	lo, hi := fnOf(sv.lo)(s.values), fnOf(sv.hi)(s.values)
-	unit := units.AutoUnit(math.Max(math.Abs(lo), math.Abs(hi)), st.Type.Dim, st.Type.Kind)
-	if st.Display != nil {
-		unit = *st.Display
-	}
+func (p *Program) findRoot(f *Frame, st *Statement) (float64, *diag.Diagnostic) {
+	sv, v := st.solve, f.Values
+	lo, hi := fnOf(sv.lo)(v), fnOf(sv.hi)(v)
+	unit := solveUnit(st, lo, hi)
 	at := func(x float64) string {
 		return st.Name + " = " + units.FormatNumber(unit.FromSI(x), 4) + " " + unit.Symbol
 	}
 	if !finite(lo) || !finite(hi) || lo >= hi {
-		return 0, unit, errAt(sv.lo.Pos(), "give the lowest value first and the highest second", "the bounds of solve are not an interval: %s to %s",
+		return 0, errAt(sv.lo.Pos(), "give the lowest value first and the highest second", "the bounds of solve are not an interval: %s to %s",
 			units.FormatNumber(unit.FromSI(lo), 4), units.FormatNumber(unit.FromSI(hi), 4))
 	}
 	var failed *Statement
 	var failedAt float64
 	var failure *diag.Diagnostic
 	residual := func(x float64) float64 {
-		s.values[st.slot] = x
+		v[st.slot] = x
 		for _, in := range sv.inner {
-			var v float64
+			var y float64
 			if in.solve != nil {
-				r, _, d := s.findRoot(in)
+				r, d := p.findRoot(f, in)
 				if d != nil {
 					if failed == nil {
 						failed, failedAt, failure = in, x, d
 					}
 					return math.NaN()
 				}
-				v = r
+				y = r
 			} else {
-				v = in.fn(s.values)
+				y = p.steps[p.stepOf[in.slot]].fn(v)
 			}
-			if !finite(v) {
+			if !finite(y) {
 				if failed == nil {
-					failed, failedAt, failure = in, x, diagnose(in.Expr, s.values)
+					failed, failedAt, failure = in, x, diagnose(in.Expr, v)
 				}
 				return math.NaN()
 			}
-			s.values[in.slot] = v
+			v[in.slot] = y
 		}
-		return fnOf(sv.relation.X)(s.values) - fnOf(sv.relation.Y)(s.values)
+		return fnOf(sv.relation.X)(v) - fnOf(sv.relation.Y)(v)
 	}
 	tol := SolveTolerance * math.Max(math.Abs(lo), math.Abs(hi))
 	root, err := brent(residual, lo, hi, tol, MaxSolveIterations)
 	switch {
 	case failed != nil:
-		return 0, unit, errAt(st.Expr.Pos(), "narrow the bounds to where "+failed.Name+" can be evaluated",
+		return 0, errAt(st.Expr.Pos(), "narrow the bounds to where "+failed.Name+" can be evaluated",
 			"while solving for %s, at %s, %s could not be evaluated: %s", st.Name, at(failedAt), failed.Name, failure.Message)
 	case errors.Is(err, errNoBracket):
-		rl := s.residualText(sv, residual(lo))
-		rh := s.residualText(sv, residual(hi))
-		return 0, unit, errAt(st.Expr.Pos(), "widen the bounds so that the two sides cross between them, or check the relation",
+		rl := residualText(sv, residual(lo))
+		rh := residualText(sv, residual(hi))
+		return 0, errAt(st.Expr.Pos(), "widen the bounds so that the two sides cross between them, or check the relation",
 			"the bounds do not bracket a solution: the left side minus the right side is %s at %s and %s at %s, of the same sign",
 			rl, at(lo), rh, at(hi))
 	case err != nil:
-		return 0, unit, errAt(st.Expr.Pos(), "check the relation between the bounds", "solve found no solution for %s: %v", st.Name, err)
+		return 0, errAt(st.Expr.Pos(), "check the relation between the bounds", "solve found no solution for %s: %v", st.Name, err)
 	}
 	residual(root)
-	return root, unit, nil
+	return root, nil
 }
 
 // residualText writes a residual in a unit for the relation's sides.
-func (s *Sheet) residualText(sv *solveInfo, r float64) string {
+func residualText(sv *solveInfo, r float64) string {
 	t := sv.relation.X.Type()
 	u := units.AutoUnit(math.Abs(r), t.Dim, t.Kind)
 	return units.FormatNumber(u.FromSI(r), 4) + " " + u.Symbol
