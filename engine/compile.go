@@ -59,59 +59,160 @@ func compileNode(e Expr) evalFn {
 	return constant(math.NaN())
 }
 
+// operand is one side of a binary operation as the compiler sees it: a
+// slot read directly, a constant, or a closure to call.
+type operand struct {
+	kind byte // 's' slot, 'c' constant, 'f' closure
+	slot int
+	c    float64
+	fn   evalFn
+}
+
+func operandOf(e Expr) operand {
+	if i, ok := slotOf(e); ok {
+		return operand{kind: 's', slot: i}
+	}
+	if c, ok := constOf(e); ok {
+		return operand{kind: 'c', c: c}
+	}
+	return operand{kind: 'f', fn: fnOf(e)}
+}
+
 func compileBinary(n *Binary) evalFn {
-	x, y := fnOf(n.X), fnOf(n.Y)
-	// Reading a slot or a constant directly saves a call on the hot path.
-	xs, xSlot := slotOf(n.X)
-	ys, ySlot := slotOf(n.Y)
-	yc, yConst := constOf(n.Y)
+	x, y := operandOf(n.X), operandOf(n.Y)
 	switch n.Op {
 	case "+":
-		if xSlot && ySlot {
-			return func(v []float64) float64 { return v[xs] + v[ys] }
-		}
-		return func(v []float64) float64 { return x(v) + y(v) }
+		return compileAdd(x, y)
 	case "-":
-		if xSlot && ySlot {
-			return func(v []float64) float64 { return v[xs] - v[ys] }
-		}
-		return func(v []float64) float64 { return x(v) - y(v) }
+		return compileSub(x, y)
 	case "*":
-		switch {
-		case xSlot && ySlot:
-			return func(v []float64) float64 { return v[xs] * v[ys] }
-		case xSlot && yConst:
-			return func(v []float64) float64 { return v[xs] * yc }
-		case ySlot:
-			return func(v []float64) float64 { return x(v) * v[ys] }
-		case yConst:
-			return func(v []float64) float64 { return x(v) * yc }
-		}
-		return func(v []float64) float64 { return x(v) * y(v) }
+		return compileMul(x, y)
 	case "/":
-		switch {
-		case xSlot && ySlot:
-			return func(v []float64) float64 { return v[xs] / v[ys] }
-		case ySlot:
-			return func(v []float64) float64 { return x(v) / v[ys] }
-		}
-		return func(v []float64) float64 { return x(v) / y(v) }
+		return compileDiv(x, y)
 	case "^":
-		if yConst {
-			switch yc {
-			case 2:
-				return func(v []float64) float64 { a := x(v); return a * a }
-			case 3:
-				return func(v []float64) float64 { a := x(v); return a * a * a }
-			case 0.5:
-				return func(v []float64) float64 { return math.Sqrt(x(v)) }
-			case -1:
-				return func(v []float64) float64 { return 1 / x(v) }
-			}
-		}
-		return func(v []float64) float64 { return math.Pow(x(v), y(v)) }
+		return compilePow(fnOf(n.X), n.Y)
 	}
 	return constant(math.NaN())
+}
+
+// The arithmetic operators, specialised so that a side that is a slot or
+// a constant costs no call: in a compiled sheet most sides are.
+
+func compileAdd(x, y operand) evalFn {
+	a, b, i, j, f, g := x.c, y.c, x.slot, y.slot, x.fn, y.fn
+	switch string([]byte{x.kind, y.kind}) {
+	case "ss":
+		return func(v []float64) float64 { return v[i] + v[j] }
+	case "sc":
+		return func(v []float64) float64 { return v[i] + b }
+	case "cs":
+		return func(v []float64) float64 { return a + v[j] }
+	case "sf":
+		return func(v []float64) float64 { return v[i] + g(v) }
+	case "fs":
+		return func(v []float64) float64 { return f(v) + v[j] }
+	case "fc":
+		return func(v []float64) float64 { return f(v) + b }
+	case "cf":
+		return func(v []float64) float64 { return a + g(v) }
+	}
+	f, g = x.call(), y.call()
+	return func(v []float64) float64 { return f(v) + g(v) }
+}
+
+func compileSub(x, y operand) evalFn {
+	a, b, i, j, f, g := x.c, y.c, x.slot, y.slot, x.fn, y.fn
+	switch string([]byte{x.kind, y.kind}) {
+	case "ss":
+		return func(v []float64) float64 { return v[i] - v[j] }
+	case "sc":
+		return func(v []float64) float64 { return v[i] - b }
+	case "cs":
+		return func(v []float64) float64 { return a - v[j] }
+	case "sf":
+		return func(v []float64) float64 { return v[i] - g(v) }
+	case "fs":
+		return func(v []float64) float64 { return f(v) - v[j] }
+	case "fc":
+		return func(v []float64) float64 { return f(v) - b }
+	case "cf":
+		return func(v []float64) float64 { return a - g(v) }
+	}
+	f, g = x.call(), y.call()
+	return func(v []float64) float64 { return f(v) - g(v) }
+}
+
+func compileMul(x, y operand) evalFn {
+	a, b, i, j, f, g := x.c, y.c, x.slot, y.slot, x.fn, y.fn
+	switch string([]byte{x.kind, y.kind}) {
+	case "ss":
+		return func(v []float64) float64 { return v[i] * v[j] }
+	case "sc":
+		return func(v []float64) float64 { return v[i] * b }
+	case "cs":
+		return func(v []float64) float64 { return a * v[j] }
+	case "sf":
+		return func(v []float64) float64 { return v[i] * g(v) }
+	case "fs":
+		return func(v []float64) float64 { return f(v) * v[j] }
+	case "fc":
+		return func(v []float64) float64 { return f(v) * b }
+	case "cf":
+		return func(v []float64) float64 { return a * g(v) }
+	}
+	f, g = x.call(), y.call()
+	return func(v []float64) float64 { return f(v) * g(v) }
+}
+
+func compileDiv(x, y operand) evalFn {
+	a, b, i, j, f, g := x.c, y.c, x.slot, y.slot, x.fn, y.fn
+	switch string([]byte{x.kind, y.kind}) {
+	case "ss":
+		return func(v []float64) float64 { return v[i] / v[j] }
+	case "sc":
+		return func(v []float64) float64 { return v[i] / b }
+	case "cs":
+		return func(v []float64) float64 { return a / v[j] }
+	case "sf":
+		return func(v []float64) float64 { return v[i] / g(v) }
+	case "fs":
+		return func(v []float64) float64 { return f(v) / v[j] }
+	case "fc":
+		return func(v []float64) float64 { return f(v) / b }
+	case "cf":
+		return func(v []float64) float64 { return a / g(v) }
+	}
+	f, g = x.call(), y.call()
+	return func(v []float64) float64 { return f(v) / g(v) }
+}
+
+// call returns the operand as a closure, whatever its kind.
+func (o operand) call() evalFn {
+	switch o.kind {
+	case 's':
+		i := o.slot
+		return func(v []float64) float64 { return v[i] }
+	case 'c':
+		return constant(o.c)
+	}
+	return o.fn
+}
+
+func compilePow(x evalFn, exp Expr) evalFn {
+	if c, ok := constOf(exp); ok {
+		switch c {
+		case 2:
+			return func(v []float64) float64 { a := x(v); return a * a }
+		case 3:
+			return func(v []float64) float64 { a := x(v); return a * a * a }
+		case 0.5:
+			return func(v []float64) float64 { return math.Sqrt(x(v)) }
+		case -1:
+			return func(v []float64) float64 { return 1 / x(v) }
+		}
+	}
+	y := fnOf(exp)
+	return func(v []float64) float64 { return math.Pow(x(v), y(v)) }
 }
 
 func slotOf(e Expr) (int, bool) {
