@@ -10,6 +10,8 @@ package audit
 import (
 	"fmt"
 	"math"
+	"path"
+	"regexp"
 	"sort"
 	"strings"
 
@@ -39,6 +41,7 @@ var Rules = []Rule{
 	{"check-literal", "check against an unnamed limit", "the limit a check compares against should be a named input with a source, so that the checker can trace it"},
 	{"awkward-magnitude", "result that reads badly", "the number needs an exponent or the unit has no name; give the result a display unit such as [kV] or [mWb]"},
 	{"inconsistent-input", "input that disagrees with another sheet", "the same name has another value in another sheet of the package; make them agree, or rename one"},
+	{"hand-transfer", "input typed across from another sheet", "a number copied from another sheet of the package goes stale when that sheet changes; take the live result instead: take name = result from sheet"},
 	{"thin-margin", "check within 5 % of its limit", "a pass with a utilisation above 95 % leaves little margin for the uncertainty of the inputs; confirm the margin is enough"},
 	{"no-checker", "sheet without a checker or revision", "the title block should name the revision and who checked the sheet"},
 	{"unknown-acceptance", "acceptance of a finding that is not there", "an `accept` names a code that does not occur at that place; remove it or fix the code"},
@@ -92,6 +95,7 @@ func Run(pkg *project.Package) Report {
 		r.Findings = append(r.Findings, sheetFindings(s)...)
 	}
 	r.Findings = append(r.Findings, inconsistentInputs(pkg)...)
+	r.Findings = append(r.Findings, handTransfers(pkg)...)
 	applyAcceptances(pkg, &r)
 	sort.SliceStable(r.Findings, func(i, j int) bool {
 		a, b := r.Findings[i], r.Findings[j]
@@ -440,3 +444,54 @@ func statementLine(lines map[string][]int, f Finding) int {
 	}
 	return best
 }
+
+// handTransfers finds inputs whose source names another sheet of the
+// package: a number typed across, which goes stale when that sheet
+// changes. A sheet is named by its file name, its title, or as "sheet 01"
+// for a file whose name starts with 01, at the start of the source or
+// after from, see, per or in (so that "field study sheet 02", a sheet of
+// another document, is not taken for one of the package's).
+func handTransfers(pkg *project.Package) []Finding {
+	var out []Finding
+	for _, s := range pkg.Sheets {
+		for _, st := range s.Calc.Statements {
+			if !st.IsInput() || st.Source == "" || st.Instance != "" {
+				continue
+			}
+			for _, other := range pkg.Sheets {
+				if other != s && namesSheet(st.Source, other) {
+					ref := strings.TrimSuffix(other.Path(), ".md")
+					remote := "<result>"
+					if o := other.Calc.Lookup(st.Name); o != nil && o.Kind == engine.Definition {
+						remote = st.Name
+					}
+					out = append(out, finding("hand-transfer", st.Pos, st.Name,
+						"input %s is typed across from %s (source: %q); take it live: take %s = %s from %s",
+						st.Name, other.Path(), st.Source, st.Name, remote, ref))
+					break
+				}
+			}
+		}
+	}
+	return out
+}
+
+var sheetNumber = regexp.MustCompile(`(?i)(^|\b(from|see|per|in)\s+)sheet\s+(\d+)\b`)
+
+// namesSheet reports whether a source text names a sheet of the package.
+func namesSheet(source string, s *project.Sheet) bool {
+	low := strings.ToLower(source)
+	file := strings.ToLower(path.Base(s.Path()))
+	stem := strings.TrimSuffix(file, ".md")
+	if strings.Contains(low, file) || containsWord(low, stem) || (s.Doc.Meta.Title != "" && strings.Contains(low, strings.ToLower(s.Doc.Meta.Title))) {
+		return true
+	}
+	for _, m := range sheetNumber.FindAllStringSubmatch(source, -1) {
+		if n := m[3]; strings.HasPrefix(stem, n) && (len(stem) == len(n) || !isDigit(stem[len(n)])) {
+			return true
+		}
+	}
+	return false
+}
+
+func isDigit(c byte) bool { return c >= '0' && c <= '9' }

@@ -51,12 +51,14 @@ func parseStatement(t *text) (*Statement, *diag.Diagnostic) {
 
 	i := skipSpace(r, 0)
 	switch w, j := word(r, i); {
-	case (w == "param" || w == "use") && j < end && unicode.IsSpace(r[j]) && skipSpace(r, j) < end && r[skipSpace(r, j)] == '=':
+	case (w == "param" || w == "use" || w == "take") && j < end && unicode.IsSpace(r[j]) && skipSpace(r, j) < end && r[skipSpace(r, j)] == '=':
 		return st, errAt(t.pos(i), "choose another name", "%s is a reserved word", w)
 	case w == "param" && j < end && unicode.IsSpace(r[j]):
 		return st, parseParam(st, t, skipSpace(r, j), end)
 	case w == "use" && j < end && unicode.IsSpace(r[j]):
 		return st, parseUse(st, t, skipSpace(r, j), end)
+	case w == "take" && j < end && unicode.IsSpace(r[j]) && skipSpace(r, j) < end && r[skipSpace(r, j)] != '=':
+		return st, parseTake(st, t, skipSpace(r, j), end)
 	}
 	if w, j := word(r, i); w == "check" && (j == end || r[j] == ' ' || r[j] == '\t' || r[j] == '[') {
 		st.Kind = Check
@@ -315,7 +317,7 @@ func identifier(r []rune, i int) (string, int) {
 
 // reserved are words the formula parser gives a meaning of its own.
 var reserved = map[string]bool{
-	"check": true, "use": true, "param": true, "with": true, "extrapolate": true, "in": true, "not": true, "and": true, "or": true, "let": true, "if": true, "else": true,
+	"check": true, "use": true, "param": true, "take": true, "with": true, "extrapolate": true, "in": true, "not": true, "and": true, "or": true, "let": true, "if": true, "else": true,
 	"true": true, "false": true, "nil": true, "matches": true, "contains": true, "startsWith": true, "endsWith": true,
 }
 

@@ -82,6 +82,7 @@ func CompileWith(src SheetSource, opt Options) *Sheet {
 		}
 	}
 	s.define()
+	s.resolveTakes(opt.Take)
 	s.resolve()
 	s.linkSolves()
 	s.order()
@@ -115,7 +116,7 @@ func (s *Sheet) define() {
 		}
 	}
 	for _, st := range s.Statements {
-		if (st.Kind != Definition && st.Kind != Param) || st.Name == "" {
+		if (st.Kind != Definition && st.Kind != Param && st.Kind != Take) || st.Name == "" {
 			continue
 		}
 		if inst, clash := instances[st.Name]; clash && st.Instance == "" {
@@ -295,6 +296,9 @@ func (s *Sheet) check(st *Statement) {
 		s.fail(st, errAt(st.NamePos, "this sheet is a template: use it from another sheet with use ... with "+st.Name+" = ...",
 			"%s is a template parameter and has no value here", st.Name))
 		return
+	case Take:
+		s.checkTake(st)
+		return
 	}
 	for _, d := range st.Deps {
 		if !d.compiled {
@@ -349,6 +353,25 @@ func (s *Sheet) check(st *Statement) {
 	} else {
 		st.fn = compile(st.Expr)
 	}
+	st.compiled = true
+}
+
+// checkTake readies a result taken from another sheet: its value is that
+// sheet's, fixed for this sheet's runs.
+func (s *Sheet) checkTake(st *Statement) {
+	if t := st.Taken; t.Status != OK {
+		st.Status = Blocked
+		st.Err = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: %s in %s has no value", st.Remote, st.TakenPath)}
+		return
+	}
+	if st.Display != nil {
+		if msg, hint := displayProblem(st.Name, st.Remote, st.Type, *st.Display); msg != "" {
+			s.fail(st, errAt(st.DisplayPos, hint, "%s", msg))
+			return
+		}
+		st.Type.Kind = shownKind(st.Type.Kind, st.Display.Kind)
+	}
+	st.fn = constant(st.Taken.Value)
 	st.compiled = true
 }
 
@@ -516,6 +539,9 @@ func shownUnit(st *Statement) units.Unit {
 		if q.Target != nil && q.Target.Status == OK {
 			return q.Target.Shown
 		}
+	}
+	if st.Taken != nil {
+		return st.Taken.Shown // as the sheet it comes from shows it
 	}
 	return units.AutoUnit(st.Value, st.Type.Dim, st.Type.Kind)
 }

@@ -23,6 +23,10 @@ const (
 	// Use is `use name = template with a = ..., b = ...`: an instance of a
 	// template under a name of the sheet's own.
 	Use
+	// Take is `take name from sheet` or `take name = other from sheet`: a
+	// result of another sheet of the package, live, under a name of this
+	// sheet's own.
+	Take
 )
 
 // Status is how a statement came out.
@@ -109,6 +113,13 @@ type Statement struct {
 	Overridden                     bool
 	Default                        Expr
 	Declared                       *units.Unit
+
+	// A result taken from another sheet: From is the sheet as written,
+	// Remote the name there, Taken the other sheet's statement and
+	// TakenPath that sheet's path in the package.
+	From, Remote string
+	Taken        *Statement
+	TakenPath    string
 
 	// Deps are the statements this one uses directly, in order of first
 	// use; Users are those that use it.

@@ -20,6 +20,10 @@ type Resolver func(ref, from string) (src SheetSource, key string, err error)
 type Options struct {
 	// Resolve finds templates; nil means use statements are errors.
 	Resolve Resolver
+	// Take finds the compiled, evaluated sheet that a take statement
+	// names, written as ref in the sheet at path from, and that sheet's
+	// path; nil means take statements are errors.
+	Take func(ref, from string) (*Sheet, string, error)
 }
 
 // MaxTemplateDepth bounds templates that use templates.

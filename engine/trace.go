@@ -134,13 +134,14 @@ func closure(start []*Statement, next func(*Statement) []*Statement) []*Statemen
 // RestsOn returns the inputs and the assumptions that a statement's result
 // ultimately rests on, through every statement it uses, in the order
 // written. A statement that is itself an input or an assumption is among
-// them.
+// them. A result taken from another sheet counts as an input here: the
+// page links to the sheet it comes from.
 func (s *Sheet) RestsOn(st *Statement) (inputs []*Statement, assumptions []*Assumption) {
 	all := closure([]*Statement{st}, func(x *Statement) []*Statement { return x.Deps })
 	in := map[*Statement]bool{}
 	for _, x := range all {
 		in[x] = true
-		if x.IsInput() {
+		if x.IsInput() || x.Kind == Take {
 			inputs = append(inputs, x)
 		}
 	}

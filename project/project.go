@@ -169,13 +169,20 @@ func fromFiles(root string, files map[string][]byte, page func(string) bool) *Pa
 		}
 	}
 	pkg.Sheets = make([]*Sheet, len(pages))
-	parallel(len(pages), func(i int) {
-		doc := pages[i]
-		calc := engine.CompileWith(sourceOf(doc), engine.Options{Resolve: r.resolve})
-		calc.Evaluate()
-		calc.Release()
-		pkg.Sheets[i] = &Sheet{Doc: doc, Calc: calc, Page: "sheets/" + strings.TrimSuffix(doc.Path, path.Ext(doc.Path)) + ".html"}
-	})
+	t := newTakes(pages)
+	// Sheets taken from compile before the sheets that take from them:
+	// each wave compiles in parallel the sheets whose sources are done.
+	for _, wave := range t.waves {
+		parallel(len(wave), func(k int) {
+			i := wave[k]
+			doc := pages[i]
+			calc := engine.CompileWith(sourceOf(doc), engine.Options{Resolve: r.resolve, Take: t.find})
+			calc.Evaluate()
+			calc.Release()
+			pkg.Sheets[i] = &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path)}
+			t.done(i, calc)
+		})
+	}
 
 	for _, d := range pkg.Templates {
 		pkg.Diags = append(pkg.Diags, d.Diags...)
@@ -186,6 +193,12 @@ func fromFiles(root string, files map[string][]byte, page func(string) bool) *Pa
 	}
 	pkg.Diags.Sort()
 	return pkg
+}
+
+// PagePath is the path of a sheet's page inside a built package, with
+// forward slashes: "sheets/field-coil.html" for "field-coil.md".
+func PagePath(sheet string) string {
+	return "sheets/" + strings.TrimSuffix(sheet, path.Ext(sheet)) + ".html"
 }
 
 // parallel runs f(0..n-1) on as many goroutines as there are processors.

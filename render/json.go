@@ -149,6 +149,7 @@ type JSONStatement struct {
 	Assumes      []string   `json:"assumes,omitempty"`
 	Uses         []string   `json:"uses"`
 	UsedBy       []string   `json:"used_by"`
+	TakenFrom    *JSONTaken `json:"taken_from,omitempty"`
 	RestsOn      *JSONTrace `json:"rests_on,omitempty"`
 	Error        *JSONDiag  `json:"error,omitempty"`
 	// Template reuse: on a use statement, the template and the inputs it
@@ -377,6 +378,12 @@ func names(sts []*engine.Statement) []string {
 	return out
 }
 
+// JSONTaken names where a taken result comes from.
+type JSONTaken struct {
+	Sheet string `json:"sheet"`
+	Name  string `json:"name"`
+}
+
 func jsonStatement(calc *engine.Sheet, st *engine.Statement, digits int) JSONStatement {
 	j := JSONStatement{
 		Kind: "definition", Name: st.Name, Pos: st.Pos, Text: st.Text, Status: st.Status.String(),
@@ -384,7 +391,7 @@ func jsonStatement(calc *engine.Sheet, st *engine.Statement, digits int) JSONSta
 		Assumption: st.Assumption, Assumes: st.Assumes,
 		Uses: names(st.Deps), UsedBy: names(st.Users),
 	}
-	if !st.IsInput() && st.Expr != nil {
+	if !st.IsInput() && (st.Expr != nil || st.Kind == engine.Take) {
 		inputs, assumptions := calc.RestsOn(st)
 		t := &JSONTrace{Inputs: names(inputs), Assumptions: []string{}}
 		for _, a := range assumptions {
@@ -404,6 +411,11 @@ func jsonStatement(calc *engine.Sheet, st *engine.Statement, digits int) JSONSta
 		j.RestsOn = nil
 	case engine.Param:
 		j.Kind = "param"
+	case engine.Take:
+		j.Kind = "take"
+		if st.Taken != nil {
+			j.TakenFrom = &JSONTaken{Sheet: st.TakenPath, Name: st.Remote}
+		}
 	}
 	j.Instance = st.Instance
 	if st.Overridden {

@@ -152,6 +152,10 @@ func writeStatement(w sink, calc *engine.Sheet, st *engine.Statement, digits int
 		writeCheck(w, calc, st, digits)
 		return
 	}
+	if st.Kind == engine.Take {
+		writeTake(w, calc, st, digits)
+		return
+	}
 	class := "row def"
 	if st.IsInput() {
 		class = "row input"
@@ -182,6 +186,22 @@ func writeStatement(w sink, calc *engine.Sheet, st *engine.Statement, digits int
 	w.WriteString("</mrow></math></div>\n")
 	writeNote(w, calc, st)
 	w.WriteString("</div>\n")
+}
+
+// writeTake draws a result taken from another sheet: its value, and a
+// link to the statement it comes from.
+func writeTake(w sink, calc *engine.Sheet, st *engine.Statement, digits int) {
+	w.WriteString(`<div class="row take" id="` + anchor(st) + `">` + "\n" + `<div class="eq"><math class="f"><mrow>`)
+	w.WriteString(symbolMathML(st.Name) + "<mo>=</mo>" + valueMathML(st.Value, st.Shown, st.Digits(digits)))
+	w.WriteString("</mrow></math></div>\n<p class=\"from\">taken from " + takenLink(calc.Path, st) + "</p>\n")
+	writeNote(w, calc, st)
+	w.WriteString("</div>\n")
+}
+
+// takenLink links to the statement a take statement reads, on its page.
+func takenLink(from string, st *engine.Statement) string {
+	href := rel(project.PagePath(from)) + project.PagePath(st.TakenPath) + "#" + anchor(st.Taken)
+	return `<a href="` + esc(href) + `">` + esc(st.TakenPath) + ": " + symbolHTML(st.Remote) + "</a>"
 }
 
 // writeUse draws a use statement and, under it, the statements of its
@@ -276,6 +296,10 @@ func writeNote(w sink, calc *engine.Sheet, st *engine.Statement) {
 		for i, in := range inputs {
 			if i > 0 {
 				w.WriteString(", ")
+			}
+			if in.Kind == engine.Take {
+				w.WriteString(`<a href="#` + anchor(in) + `">` + symbolHTML(in.Name) + "</a> from " + takenLink(calc.Path, in))
+				continue
 			}
 			v, u := InputText(in)
 			w.WriteString(`<a href="#` + anchor(in) + `">` + symbolHTML(in.Name) + "</a> = " + esc(v))

@@ -167,13 +167,13 @@ func compareSheet(o, n *project.Sheet, threshold float64) []Change {
 	// Definitions, by name.
 	oldDefs := map[string]*engine.Statement{}
 	for _, st := range o.Calc.Statements {
-		if st.Kind == engine.Definition && st.Name != "" {
+		if (st.Kind == engine.Definition || st.Kind == engine.Take) && st.Name != "" {
 			oldDefs[st.Name] = st
 		}
 	}
 	seen := map[string]bool{}
 	for _, b := range n.Calc.Statements {
-		if b.Kind != engine.Definition || b.Name == "" || seen[b.Name] || inSkipped(b) {
+		if (b.Kind != engine.Definition && b.Kind != engine.Take) || b.Name == "" || seen[b.Name] || inSkipped(b) {
 			continue
 		}
 		seen[b.Name] = true

@@ -158,3 +158,24 @@ func TestGitRevisions(t *testing.T) {
 		t.Error("a revision that does not exist must be an error")
 	}
 }
+
+// A change in the sheet taken from moves the results of the sheet that
+// takes: the difference between two revisions follows the reference.
+func TestDiffFollowsTakes(t *testing.T) {
+	rev := func(gap string) *project.Package {
+		return pkg(t, map[string]string{
+			"a.md": "# A\n```sheaf\ng = " + gap + " ; gap ; source: drawing\nx = 2*g ; twice\n```\n",
+			"b.md": "# B\n```sheaf\ntake x from a\ny = 3*x ; thrice\n```\n",
+		})
+	}
+	r := revdiff.Compare(rev("2 mm"), rev("3 mm"), revdiff.DefaultThreshold)
+	var moved []string
+	for _, c := range r.Changes {
+		if c.Sheet == "b.md" && c.Kind == revdiff.ResultMoved {
+			moved = append(moved, c.Name)
+		}
+	}
+	if strings.Join(moved, " ") != "x y" {
+		t.Errorf("results moved in b.md: %v, want x and y; all changes %+v", moved, r.Changes)
+	}
+}

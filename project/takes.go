@@ -1,0 +1,171 @@
+package project
+
+import (
+	"fmt"
+	"path"
+	"sort"
+	"strings"
+	"sync"
+
+	"github.com/sheaf-calc/sheaf/engine"
+	"github.com/sheaf-calc/sheaf/sheets"
+)
+
+// takes orders a package's sheets so that a sheet that takes a result of
+// another is compiled after it, and finds the sheets take statements name.
+type takes struct {
+	index map[string]int // page sheet path -> index
+	// waves lists the sheets by the round they compile in: a sheet comes
+	// in the round after the last of the sheets it takes from.
+	waves [][]int
+	// cyclic holds the sheets that take from each other in a cycle, with
+	// the cycle as a message.
+	cyclic map[int]string
+
+	mu   sync.Mutex
+	calc map[int]*engine.Sheet
+}
+
+// takeTarget resolves a sheet named by a take statement in the sheet at
+// from: a path relative to that sheet, with or without .md.
+func takeTarget(ref, from string) (string, error) {
+	if path.IsAbs(ref) || strings.ContainsAny(ref, "\\:") {
+		return "", fmt.Errorf("sheet %s must be a path inside the package folder, written with /", ref)
+	}
+	p := path.Clean(path.Join(path.Dir(from), ref))
+	if !strings.EqualFold(path.Ext(p), ".md") {
+		p += ".md"
+	}
+	if p == ".." || strings.HasPrefix(p, "../") {
+		return "", fmt.Errorf("sheet %s leaves the package folder", ref)
+	}
+	return p, nil
+}
+
+func newTakes(pages []*sheets.Sheet) *takes {
+	t := &takes{index: map[string]int{}, cyclic: map[int]string{}, calc: map[int]*engine.Sheet{}}
+	for i, d := range pages {
+		t.index[d.Path] = i
+	}
+	uses := make([][]int, len(pages)) // sheet -> sheets it takes from
+	for i, d := range pages {
+		for _, ref := range engine.TakenSheets(sourceOf(d)) {
+			p, err := takeTarget(ref.Sheet, d.Path)
+			if j, ok := t.index[p]; err == nil && ok && j != i {
+				uses[i] = append(uses[i], j)
+			}
+		}
+	}
+	t.findCycles(pages, uses)
+	t.order(uses)
+	return t
+}
+
+// findCycles marks the sheets on a cycle of takes, and reports each cycle
+// once, at the take statements that close it.
+func (t *takes) findCycles(pages []*sheets.Sheet, uses [][]int) {
+	state := make([]int, len(uses)) // 0 new, 1 on the path, 2 done
+	var stack []int
+	var visit func(i int)
+	visit = func(i int) {
+		state[i] = 1
+		stack = append(stack, i)
+		for _, j := range uses[i] {
+			switch state[j] {
+			case 0:
+				visit(j)
+			case 1:
+				k := len(stack) - 1
+				for stack[k] != j {
+					k--
+				}
+				var names []string
+				for _, m := range stack[k:] {
+					names = append(names, pages[m].Path)
+				}
+				names = append(names, pages[j].Path)
+				msg := "sheets take results from each other in a cycle: " + strings.Join(names, " → ")
+				for _, m := range stack[k:] {
+					if _, seen := t.cyclic[m]; !seen {
+						t.cyclic[m] = msg
+					}
+				}
+			}
+		}
+		stack = stack[:len(stack)-1]
+		state[i] = 2
+	}
+	for i := range uses {
+		if state[i] == 0 {
+			visit(i)
+		}
+	}
+}
+
+// order puts every sheet in the wave after the sheets it takes from;
+// sheets on a cycle go in the first wave, where their takes fail.
+func (t *takes) order(uses [][]int) {
+	wave := make([]int, len(uses))
+	for i := range wave {
+		wave[i] = -1
+	}
+	var depth func(i int) int
+	depth = func(i int) int {
+		if wave[i] >= 0 {
+			return wave[i]
+		}
+		wave[i] = 0
+		if _, ok := t.cyclic[i]; ok {
+			return 0
+		}
+		d := 0
+		for _, j := range uses[i] {
+			if _, ok := t.cyclic[j]; !ok {
+				d = max(d, depth(j)+1)
+			}
+		}
+		wave[i] = d
+		return d
+	}
+	for i := range uses {
+		w := depth(i)
+		for len(t.waves) <= w {
+			t.waves = append(t.waves, nil)
+		}
+		t.waves[w] = append(t.waves[w], i)
+	}
+	for _, w := range t.waves {
+		sort.Ints(w)
+	}
+}
+
+func (t *takes) done(i int, calc *engine.Sheet) {
+	t.mu.Lock()
+	t.calc[i] = calc
+	t.mu.Unlock()
+}
+
+// find returns the compiled sheet a take statement names.
+func (t *takes) find(ref, from string) (*engine.Sheet, string, error) {
+	p, err := takeTarget(ref, from)
+	if err != nil {
+		return nil, "", err
+	}
+	if i, ok := t.index[from]; ok && t.cyclic[i] != "" {
+		return nil, "", &engine.TakeError{Msg: t.cyclic[i], Hint: "one of these sheets must work the value out itself instead of taking it"}
+	}
+	j, ok := t.index[p]
+	if !ok {
+		return nil, "", fmt.Errorf("no sheet %s in the package (templates hold no results to take)", p)
+	}
+	if p == from {
+		return nil, "", fmt.Errorf("a sheet cannot take a result from itself: use the name directly")
+	}
+	t.mu.Lock()
+	calc := t.calc[j]
+	t.mu.Unlock()
+	if calc == nil {
+		return nil, "", fmt.Errorf("sheet %s is not ready", p) // cannot happen: waves order the sheets
+	}
+	return calc, p, nil
+}

@@ -1,0 +1,67 @@
+package project
+
+import (
+	"math"
+	"strings"
+	"testing"
+
+	"github.com/sheaf-calc/sheaf/engine"
+)
+
+// Results taken from another sheet: live values, display units, renames,
+// folders, and the mistakes, each with its message at the take statement.
+func TestTakeFromAnotherSheet(t *testing.T) {
+	files := map[string][]byte{
+		"01-circuit.md": []byte("# C\n\n```sheaf\ng = 2 mm ; gap ; source: drawing\nA = 0.01 m^2 ; area ; source: drawing\n" +
+			"R = g/(mu_0*A) ; reluctance\nPhi [mWb] = 200*5 A/R ; flux\n```\n"),
+		"emf/02-emf.md": []byte("# E\n\n```sheaf\ntake Phi from ../01-circuit\n" + // line 4
+			"take Phi_0 [Wb] = Phi from ../01-circuit\n" + // line 5
+			"N = 10 ; turns ; source: drawing\nlambda = N*Phi ; linkage\n" +
+			"take R_x = Rr from ../01-circuit\n" + // line 8
+			"take z from ../nowhere\n```\n"), // line 9
+		"c.md": []byte("# C\n```sheaf\ntake x from d\ny = 2 ; a ; source: s\n```\n"),
+		"d.md": []byte("# D\n```sheaf\ntake y from c\nx = 3 ; b ; source: s\n```\n"),
+	}
+	pkg := FromFiles("p", files)
+	emf := sheetAt(t, pkg, "emf/02-emf.md")
+	phi := 200 * 5 / (2e-3 / (4e-7 * math.Pi * 0.01)) // Φ = N·I/R, common practice
+	if st := emf.Calc.Lookup("Phi"); st.Status != engine.OK || !near(st.Value, phi) || st.Shown.Symbol != "mWb" || st.TakenPath != "01-circuit.md" {
+		t.Errorf("Phi taken: %s %g %s from %q", st.Status, st.Value, st.Shown.Symbol, st.TakenPath)
+	}
+	if st := emf.Calc.Lookup("Phi_0"); st.Status != engine.OK || st.Shown.Symbol != "Wb" || st.Remote != "Phi" {
+		t.Errorf("Phi_0 taken: %s in %s from %s", st.Status, st.Shown.Symbol, st.Remote)
+	}
+	if st := emf.Calc.Lookup("lambda"); st.Status != engine.OK || !near(st.Value, 10*phi) {
+		t.Errorf("lambda = %g, want %g", st.Value, 10*phi)
+	}
+	wantDiag(t, pkg, "emf/02-emf.md:8:20", "01-circuit.md defines no result Rr", "did you mean R?")
+	wantDiag(t, pkg, "emf/02-emf.md:9:13", "no sheet nowhere.md in the package", "")
+	wantDiag(t, pkg, "c.md:3:13", "sheets take results from each other in a cycle: c.md → d.md → c.md", "work the value out itself")
+	wantDiag(t, pkg, "d.md:3:13", "in a cycle", "")
+	if st := sheetAt(t, pkg, "c.md").Calc.Lookup("y"); st.Status != engine.OK {
+		t.Errorf("a statement beside the failed take: %s", st.Status)
+	}
+}
+
+func sheetAt(t *testing.T, pkg *Package, path string) *Sheet {
+	t.Helper()
+	for _, s := range pkg.Sheets {
+		if s.Path() == path {
+			return s
+		}
+	}
+	t.Fatalf("no sheet %s", path)
+	return nil
+}
+
+func wantDiag(t *testing.T, pkg *Package, pos, msg, hint string) {
+	t.Helper()
+	for _, d := range pkg.Diags {
+		if d.Pos.String() == pos && strings.Contains(d.Message, msg) && strings.Contains(d.Hint, hint) {
+			return
+		}
+	}
+	t.Errorf("no diagnostic at %s with %q (hint %q); have %v", pos, msg, hint, pkg.Diags)
+}
+
+func near(a, b float64) bool { return math.Abs(a-b) <= 1e-9*math.Abs(b) }
