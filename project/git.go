@@ -43,14 +43,14 @@ func LoadRevision(spec string) (*Package, error) {
 		if err != nil {
 			return nil, fmt.Errorf("reading %s from git: %w", spec, err)
 		}
-		if h.Typeflag != tar.TypeReg || !strings.EqualFold(path.Ext(h.Name), ".md") {
+		if h.Typeflag != tar.TypeReg {
 			continue
 		}
 		rel := strings.TrimPrefix(h.Name, root+"/")
 		if root == "." {
 			rel = h.Name
 		}
-		if rel == h.Name && root != "." || hiddenPath(rel) {
+		if rel == h.Name && root != "." || !Selected(rel) {
 			continue
 		}
 		data, err := io.ReadAll(tr)
@@ -72,16 +72,22 @@ func pathspec(folder string) string {
 	return strings.TrimSuffix(folder, "/")
 }
 
-// hiddenPath mirrors Load: folders whose names start with . or _ are
-// skipped.
-func hiddenPath(rel string) bool {
+// Selected is the one rule that says which files of a folder, or of a git
+// revision of it, make up a package: Markdown files (.md, any case) that
+// lie in no folder whose name starts with "." (a folder starting with "_"
+// holds templates, which belong to the package). rel is the file's path
+// inside the package, with forward slashes.
+func Selected(rel string) bool {
+	if !strings.EqualFold(path.Ext(rel), ".md") {
+		return false
+	}
 	parts := strings.Split(rel, "/")
 	for _, p := range parts[:len(parts)-1] {
-		if strings.HasPrefix(p, ".") || strings.HasPrefix(p, "_") {
-			return true
+		if strings.HasPrefix(p, ".") {
+			return false
 		}
 	}
-	return false
+	return true
 }
 
 func git(args ...string) ([]byte, error) {

@@ -159,6 +159,62 @@ func TestGitRevisions(t *testing.T) {
 	}
 }
 
+// The same sources read from a folder and from a git revision are the same
+// package: templates in _ folders included, dotted folders left out.
+func TestIdenticalSourcesAcrossGitRevisions(t *testing.T) {
+	if _, err := exec.LookPath("git"); err != nil {
+		t.Skip("git is not on the PATH")
+	}
+	repo := t.TempDir()
+	files := map[string]string{
+		"calcs/tank.md":            "# T\n```sheaf\nuse w = _templates/wall with t = 12 mm\nA = w.t*2 m ; area\n```\n",
+		"calcs/_templates/wall.md": "---\ntemplate: true\n---\n# W\n```sheaf\nparam t [mm] ; thickness\nm_w [kg/m^2] = t*7850 kg/m^3 ; mass per area\n```\n",
+		"calcs/.drafts/ignore.md":  "# D\n```sheaf\nx = 1\n```\n",
+		"calcs/notes.txt":          "not a sheet",
+		"calcs/sub/second.md":      "# S\n```sheaf\ntake A from ../tank\nB = 3*A ; thrice\n```\n",
+	}
+	for name, body := range files {
+		p := filepath.Join(repo, filepath.FromSlash(name))
+		if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
+			t.Fatal(err)
+		}
+		if err := os.WriteFile(p, []byte(body), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	for _, args := range [][]string{{"init", "-q"}, {"add", "."}, {"commit", "-q", "-m", "A"}} {
+		cmd := exec.Command("git", args...)
+		cmd.Dir = repo
+		cmd.Env = append(os.Environ(), "GIT_AUTHOR_NAME=t", "GIT_AUTHOR_EMAIL=t@example.invalid",
+			"GIT_COMMITTER_NAME=t", "GIT_COMMITTER_EMAIL=t@example.invalid", "GIT_CONFIG_GLOBAL=/dev/null")
+		if out, err := cmd.CombinedOutput(); err != nil {
+			t.Fatalf("git %v: %v\n%s", args, err, out)
+		}
+	}
+	wd, _ := os.Getwd()
+	defer os.Chdir(wd)
+	if err := os.Chdir(repo); err != nil {
+		t.Fatal(err)
+	}
+	atRev, err := project.LoadAny("HEAD:calcs")
+	if err != nil {
+		t.Fatal(err)
+	}
+	folder, err := project.LoadAny("calcs")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(folder.Diags) != 0 {
+		t.Fatalf("the package has errors: %v", folder.Diags)
+	}
+	if r := revdiff.Compare(atRev, folder, revdiff.DefaultThreshold); len(r.Changes) != 0 {
+		t.Errorf("identical sources differ across git and the folder: %+v", r.Changes)
+	}
+	if atRev.Stamp() != folder.Stamp() || len(atRev.Templates) != 1 || len(atRev.Sheets) != 2 {
+		t.Errorf("stamps %s and %s, %d templates, %d sheets", atRev.Stamp(), folder.Stamp(), len(atRev.Templates), len(atRev.Sheets))
+	}
+}
+
 // A change in the sheet taken from moves the results of the sheet that
 // takes: the difference between two revisions follows the reference.
 func TestDiffFollowsTakes(t *testing.T) {
