@@ -26,9 +26,13 @@ type target struct {
 	unlock  func()
 }
 
-// writeFile writes a file into the staging folder; tests replace it to
-// make a write fail.
-var writeFile = os.WriteFile
+// writeFile writes a file into the staging folder and exchangeFolders
+// swaps two folders; tests replace them to make a write fail or to take
+// the two-rename path.
+var (
+	writeFile       = os.WriteFile
+	exchangeFolders = exchange
+)
 
 // prepare refuses an output folder that would overwrite the sources or
 // files sheaf did not write, takes its lock, and clears what killed
@@ -217,7 +221,7 @@ func (t *target) swap() error {
 	if _, err := os.Lstat(t.out); errors.Is(err, fs.ErrNotExist) {
 		return os.Rename(t.staging, t.out)
 	}
-	err := exchange(t.staging, t.out)
+	err := exchangeFolders(t.staging, t.out)
 	if err == nil {
 		_ = removeAll(t.staging) // now the previous package
 		return nil

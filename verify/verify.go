@@ -10,6 +10,7 @@ import (
 	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
+	"errors"
 	"fmt"
 	"io/fs"
 	"os"
@@ -150,8 +151,12 @@ func readListed(root *os.Root, m build.Manifest, problem func(file, format strin
 			continue
 		}
 		data, err := root.ReadFile(pg.Path)
-		if err != nil {
+		if errors.Is(err, fs.ErrNotExist) {
 			problem(pg.Path, "page listed in the manifest is missing")
+			continue
+		}
+		if err != nil {
+			problem(pg.Path, "page listed in the manifest cannot be read inside the package: %v", err)
 			continue
 		}
 		delivered[pg.Path] = data
