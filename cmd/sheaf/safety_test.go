@@ -302,3 +302,37 @@ func TestConcurrentBuildsDoNotInterleave(t *testing.T) {
 		t.Logf("round %d: %d of 2 builds ran, a whole package of revision %s", round, ok, rev)
 	}
 }
+
+// A read-only sheets/ folder in the previous package used to stop a
+// rebuild half-way, with the new index beside the old pages. (Root writes
+// into read-only folders, so the fault is real only for other users.)
+func TestRebuildOverAReadOnlySheetsFolder(t *testing.T) {
+	if os.Geteuid() == 0 {
+		t.Skip("root writes into read-only folders")
+	}
+	src := copyDir(t, demo)
+	out := filepath.Join(t.TempDir(), "pkg")
+	if code, _, stderr := runCLI("build", src, "-o", out, "--no-graphs"); code != exitOK {
+		t.Fatalf("build: exit %d: %s", code, stderr)
+	}
+	old := copyDir(t, src)
+	if err := os.Chmod(filepath.Join(out, "sheets"), 0o555); err != nil {
+		t.Fatal(err)
+	}
+	defer func() { _ = os.Chmod(filepath.Join(out, "sheets"), 0o755) }()
+	sheet := filepath.Join(src, "03-speed-voltage.md")
+	data, _ := os.ReadFile(sheet)
+	if err := os.WriteFile(sheet, []byte(strings.Replace(string(data), "B_1 = 0.92 T", "B_1 = 0.93 T", 1)), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, _, stderr := runCLI("build", src, "-o", out, "--no-graphs")
+	verified := false
+	for _, from := range []string{src, old} {
+		if c, _, _ := runCLI("verify", out, from); c == exitOK {
+			verified = true
+		}
+	}
+	if !verified {
+		t.Errorf("after a rebuild over a read-only sheets/ (exit %d: %s) the package verifies against neither the old nor the new sources", code, stderr)
+	}
+}
