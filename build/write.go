@@ -157,7 +157,10 @@ func (t *target) write(res *Result, jsonPath string) (err error) {
 	if err := t.put(ManifestName, data); err != nil {
 		return err
 	}
-	return t.swap()
+	if err := t.swap(); err != nil {
+		return fmt.Errorf("cannot put the new package in the place of %s (sheaf swaps whole folders, so it must be an ordinary folder, not a mount point): %w", t.given, err)
+	}
+	return nil
 }
 
 // put writes one file of the package into the staging folder.

@@ -189,3 +189,44 @@ func TestRefusesAManifestSheafDidNotWrite(t *testing.T) {
 		t.Errorf("verify of a foreign manifest: %v", err)
 	}
 }
+
+// FuzzVerifyManifest verifies a built package under a manifest of any
+// bytes: verify never panics, and never says verified while the manifest
+// names a file outside the package.
+func FuzzVerifyManifest(f *testing.F) {
+	src := f.TempDir()
+	for p, body := range twoSheets {
+		if err := os.WriteFile(filepath.Join(src, p), []byte(body), 0o644); err != nil {
+			f.Fatal(err)
+		}
+	}
+	out := filepath.Join(f.TempDir(), "pkg")
+	if _, err := build.Run(src, build.Options{Version: version, NoGraphs: true, Out: out}); err != nil {
+		f.Fatal(err)
+	}
+	good, err := os.ReadFile(filepath.Join(out, build.ManifestName))
+	if err != nil {
+		f.Fatal(err)
+	}
+	f.Add(good)
+	f.Add([]byte(strings.Replace(string(good), `"sheets/gap.html"`, `"../pkg/sheets/gap.html"`, 1)))
+	f.Add([]byte(strings.Replace(string(good), `"sheets/gap.html"`, `"/etc/passwd"`, 1)))
+	f.Add([]byte(`{"tool": "sheaf x", "pages": [{"path": "index.html"}, {"path": "index.html"}]}`))
+	f.Fuzz(func(t *testing.T, manifest []byte) {
+		if err := os.WriteFile(filepath.Join(out, build.ManifestName), manifest, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		r, err := Verify(out, src, version)
+		if err != nil || !r.OK() {
+			return
+		}
+		if string(manifest) != string(good) {
+			m, _ := build.ParseManifest(manifest)
+			for _, pg := range listed(m) {
+				if !filepath.IsLocal(pg.Path) || strings.Contains(pg.Path, "\\") {
+					t.Errorf("verified with the path %q", pg.Path)
+				}
+			}
+		}
+	})
+}
