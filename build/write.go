@@ -81,7 +81,9 @@ func prepare(out, sources string) (*target, error) {
 // but not replaced goes back, and half-written or old folders go.
 func (t *target) recover() error {
 	if _, err := os.Lstat(t.out); errors.Is(err, fs.ErrNotExist) {
-		if _, err := os.Lstat(t.aside); err == nil {
+		// Only a whole package goes back: one whose removal had begun
+		// may have lost its manifest, and is removed below.
+		if data, err := os.ReadFile(filepath.Join(t.aside, ManifestName)); err == nil && isManifest(data) {
 			if err := os.Rename(t.aside, t.out); err != nil {
 				return fmt.Errorf("cannot restore the previous package %s from %s: %w", t.given, t.aside, err)
 			}
@@ -111,14 +113,17 @@ func ownFolder(given, out string) error {
 	if err != nil || len(entries) == 0 {
 		return err
 	}
-	data, err := os.ReadFile(filepath.Join(out, ManifestName))
-	if err == nil {
-		if _, err = ParseManifest(data); err == nil {
-			return nil
-		}
+	if data, err := os.ReadFile(filepath.Join(out, ManifestName)); err == nil && isManifest(data) {
+		return nil
 	}
 	return fmt.Errorf("-o %s holds files that sheaf did not write (%s, and no %s): a build replaces its output folder whole "+
 		"and would delete them; name a new or empty folder, or one that sheaf built", given, entries[0].Name(), ManifestName)
+}
+
+// isManifest reports whether data is a manifest that sheaf wrote.
+func isManifest(data []byte) bool {
+	_, err := ParseManifest(data)
+	return err == nil
 }
 
 // write stages the package, its manifest and the JSON, then swaps the
