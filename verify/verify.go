@@ -60,15 +60,20 @@ func Verify(built, sources, toolVersion string) (Result, error) {
 		return r, fmt.Errorf("%s: not a manifest sheaf wrote: %w", filepath.Join(built, build.ManifestName), err)
 	}
 	m := r.Manifest
-	res, err := build.Load(sources, build.Options{Version: toolVersion, Digits: m.Digits, NoGraphs: !m.Graphs})
+	problem := func(file, format string, args ...any) {
+		r.Problems = append(r.Problems, Problem{File: file, Message: fmt.Sprintf(format, args...)})
+	}
+	digits := m.Digits
+	if digits < 1 || digits > 15 {
+		problem(build.ManifestName, "the manifest states %d significant figures, and a build states 1 to 15", digits)
+		digits = 0 // the default, to go on comparing the sources
+	}
+	res, err := build.Load(sources, build.Options{Version: toolVersion, Digits: digits, NoGraphs: !m.Graphs})
 	if err != nil {
 		return r, err
 	}
 	res.Render.BuildDate = m.BuildDate
 	pkg := res.Package
-	problem := func(file, format string, args ...any) {
-		r.Problems = append(r.Problems, Problem{File: file, Message: fmt.Sprintf(format, args...)})
-	}
 	checkSources(m, pkg, problem)
 
 	// The stamp, as every page states it.

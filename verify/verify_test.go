@@ -230,3 +230,10 @@ func FuzzVerifyManifest(f *testing.F) {
 		}
 	})
 }
+
+func TestAManifestWithImpossibleDigitsIsAProblem(t *testing.T) {
+	src := sources(t, twoSheets)
+	out := built(t, src, "")
+	editManifest(t, out, func(m *build.Manifest) { m.Digits = 99 })
+	mustFail(t, out, src, build.ManifestName, "states 99 significant figures")
+}
