@@ -6,6 +6,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"github.com/sheaf-calc/sheaf/build"
 	"github.com/sheaf-calc/sheaf/internal/atomicfile"
 	"github.com/sheaf-calc/sheaf/render"
 )
@@ -23,10 +24,16 @@ func auditCmd(stdout, stderr io.Writer) *cobra.Command {
 			"Exit codes: 0 no open findings; 1 open findings; 2 errors in the sheets or usage.",
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			pkg, opt, err := flags.load(args[0])
+			res, err := flags.run(args[0], nil)
 			if err != nil {
 				return err
 			}
+			if html != "" {
+				if err := build.Outside(html, res.Sources, "--html", "-audit.html"); err != nil {
+					return err
+				}
+			}
+			pkg, opt := res.Package, res.Render
 			r := *opt.Audit
 			for _, f := range r.Findings {
 				if f.Accepted && !all {

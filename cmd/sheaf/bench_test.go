@@ -16,7 +16,11 @@ func TestMain(m *testing.M) {
 	if os.Getenv("SHEAF_RUN_MAIN") != "" {
 		main()
 	}
-	os.Exit(m.Run())
+	code := m.Run()
+	if bigDir != "" {
+		_ = os.RemoveAll(bigDir)
+	}
+	os.Exit(code)
 }
 
 // BenchmarkBuildProcess1000x50 runs `sheaf build --no-graphs` on a

@@ -8,12 +8,10 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"github.com/sheaf-calc/sheaf/audit"
-	"github.com/sheaf-calc/sheaf/internal/atomicfile"
+	"github.com/sheaf-calc/sheaf/build"
 	"github.com/sheaf-calc/sheaf/internal/version"
 	"github.com/sheaf-calc/sheaf/project"
 	"github.com/sheaf-calc/sheaf/render"
-	"github.com/sheaf-calc/sheaf/verify"
 )
 
 // commonFlags are the flags that build, check and audit share.
@@ -23,35 +21,31 @@ type commonFlags struct {
 }
 
 func (f *commonFlags) register(c *cobra.Command) {
-	c.Flags().StringVar(&f.json, "json", "", "also write every value, check, register, finding and error as JSON to this file")
+	c.Flags().StringVar(&f.json, "json", "", "also write every value, check, register, finding and error as JSON to this file (outside the sources)")
 	c.Flags().IntVar(&f.digits, "digits", project.DefaultDigits, "significant figures for results (a sheet's front matter may set its own)")
 }
 
-// load reads, evaluates and audits a package, works out the render
-// options, and writes the JSON if asked.
-func (f *commonFlags) load(path string) (*project.Package, render.Options, error) {
+// options turns the flags and the environment into the pipeline's options.
+func (f *commonFlags) options() (build.Options, error) {
 	if f.digits < 1 || f.digits > 15 {
-		return nil, render.Options{}, fmt.Errorf("--digits must be between 1 and 15")
+		return build.Options{}, fmt.Errorf("--digits must be between 1 and 15")
 	}
-	pkg, err := project.Load(path)
+	return build.Options{
+		Digits: f.digits, Version: version.Version, JSON: f.json,
+		SourceDateEpoch: os.Getenv("SOURCE_DATE_EPOCH"),
+	}, nil
+}
+
+// run runs the pipeline on the package at src with these flags.
+func (f *commonFlags) run(src string, adjust func(*build.Options)) (*build.Result, error) {
+	opt, err := f.options()
 	if err != nil {
-		return nil, render.Options{}, err
+		return nil, err
 	}
-	report := audit.Run(pkg)
-	opt := render.Options{
-		Digits: f.digits, Version: version.Version, Audit: &report,
-		// Dates come from the sources, never the clock: builds stay byte-identical.
-		BuildDate: pkg.BuildDate(os.Getenv("SOURCE_DATE_EPOCH")),
+	if adjust != nil {
+		adjust(&opt)
 	}
-	if f.json != "" {
-		err := atomicfile.WriteFunc(f.json, 0o644, func(w io.Writer) error {
-			return render.WriteJSON(pkg, opt, w)
-		})
-		if err != nil {
-			return nil, opt, err
-		}
-	}
-	return pkg, opt, nil
+	return build.Run(src, opt)
 }
 
 // outcome turns a package's counts into the documented exit code.
@@ -73,41 +67,29 @@ func buildCmd(stdout, stderr io.Writer) *cobra.Command {
 	c := &cobra.Command{
 		Use:   "build <folder|file> -o <dir>",
 		Short: "Render the package as HTML: the index, the registers, the audit and one page per sheet",
-		Args:  cobra.ExactArgs(1),
+		Long: "build writes the package into a new folder beside <dir> and swaps it in whole when it is done, so\n" +
+			"that <dir> always holds a complete package. <dir> must be new, empty or a package sheaf built, and\n" +
+			"lie outside the sources; a second build into the same folder at the same time is refused.",
+		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			pkg, opt, err := flags.load(args[0])
-			if err != nil {
-				return err
-			}
-			opt.NoGraphs = noGraphs
-			if dir, err := os.UserCacheDir(); err == nil && !noGraphs {
-				opt.GraphCache = filepath.Join(dir, "sheaf")
-			}
-			var pages []verify.Page
-			err = render.WriteHTML(pkg, opt, func(f render.File) error {
-				pages = append(pages, verify.PageOf(f))
-				return atomicfile.Write(filepath.Join(out, filepath.FromSlash(f.Path)), f.Data, 0o644)
+			res, err := flags.run(args[0], func(o *build.Options) {
+				o.Out, o.NoGraphs = out, noGraphs
+				if dir, err := os.UserCacheDir(); err == nil && !noGraphs {
+					o.GraphCache = filepath.Join(dir, "sheaf")
+				}
 			})
 			if err != nil {
 				return err
 			}
-			// The manifest goes last: its presence says the build finished.
-			data, err := verify.NewManifest(pkg, opt, pages).Marshal()
-			if err != nil {
-				return err
-			}
-			if err := atomicfile.Write(filepath.Join(out, verify.ManifestName), data, 0o644); err != nil {
-				return err
-			}
-			for _, d := range pkg.Diags {
+			for _, d := range res.Package.Diags {
 				fmt.Fprintln(stderr, d.Error())
 			}
-			fmt.Fprintf(stdout, "wrote %s (%s)\n", filepath.Join(out, "index.html"), render.Summary(pkg))
-			return outcome(pkg)
+			fmt.Fprintf(stdout, "wrote %s (%s)\n", filepath.Join(out, "index.html"), render.Summary(res.Package))
+			return outcome(res.Package)
 		},
 	}
 	flags.register(c)
-	c.Flags().StringVarP(&out, "out", "o", "", "folder to write the package into (required)")
+	c.Flags().StringVarP(&out, "out", "o", "", "folder to write the package into (required; new, empty or built by sheaf)")
 	c.Flags().BoolVar(&noGraphs, "no-graphs", false, "leave the dependency graphs out of the pages (faster for very large packages)")
 	_ = c.MarkFlagRequired("out")
 	return c
@@ -120,12 +102,12 @@ func checkCmd(stdout, stderr io.Writer) *cobra.Command {
 		Short: "Check and evaluate the sheets; print results and file:line:col errors",
 		Args:  cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			pkg, opt, err := flags.load(args[0])
+			res, err := flags.run(args[0], nil)
 			if err != nil {
 				return err
 			}
-			render.Terminal(pkg, opt, stdout, stderr)
-			return outcome(pkg)
+			render.Terminal(res.Package, res.Render, stdout, stderr)
+			return outcome(res.Package)
 		},
 	}
 	flags.register(c)

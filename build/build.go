@@ -1,0 +1,134 @@
+// Package build is sheaf's one pipeline from sources to outputs: load and
+// evaluate the sheets (project), audit them, work out the render options,
+// render the pages and the JSON, and write the manifest that verify checks.
+// The build, check and audit commands and verify all go through it, so
+// that they cannot disagree on what a package is.
+//
+// A package is written whole or not at all: it is staged in a hidden
+// folder beside the output and swapped in by rename, under a lock that
+// keeps a second build out of the same folder (see Run).
+package build
+
+import (
+	"fmt"
+	"io"
+
+	"github.com/sheaf-calc/sheaf/audit"
+	"github.com/sheaf-calc/sheaf/internal/atomicfile"
+	"github.com/sheaf-calc/sheaf/project"
+	"github.com/sheaf-calc/sheaf/render"
+)
+
+// Options say what to build and how.
+type Options struct {
+	// Digits is the number of significant figures for results when a
+	// sheet does not set its own, 1 to 15; 0 means project.DefaultDigits.
+	Digits int
+	// Version is the tool version that every page and the manifest state.
+	Version string
+	// NoGraphs leaves the dependency graphs out of the pages.
+	NoGraphs bool
+	// GraphCache is the folder where graph layouts are kept, or "".
+	GraphCache string
+	// SourceDateEpoch is the value of SOURCE_DATE_EPOCH, or "": the date
+	// the pages state comes from it or from the sources, never the clock.
+	SourceDateEpoch string
+	// Out is the folder the HTML package is written to, or "" for none.
+	Out string
+	// JSON is the file the JSON document is written to, or "" for none.
+	// Inside Out it becomes part of the package and the manifest lists it.
+	JSON string
+}
+
+// Result is an evaluated and audited package with the options its pages
+// are rendered with.
+type Result struct {
+	Package *project.Package
+	// Render holds the render options; verify sets them from a manifest
+	// before rebuilding the pages.
+	Render render.Options
+	// Sources is the package's source folder (the folder given, or the
+	// folder of the one sheet given), absolute and with symlinks resolved.
+	Sources string
+}
+
+// Load reads, evaluates and audits the package at src (a folder or one
+// sheet) and works out the render options. It writes nothing.
+func Load(src string, opt Options) (*Result, error) {
+	if opt.Digits == 0 {
+		opt.Digits = project.DefaultDigits
+	}
+	if opt.Digits < 1 || opt.Digits > 15 {
+		return nil, fmt.Errorf("digits must be between 1 and 15, not %d", opt.Digits)
+	}
+	sources, err := sourceFolder(src)
+	if err != nil {
+		return nil, err
+	}
+	pkg, err := project.Load(src)
+	if err != nil {
+		return nil, err
+	}
+	report := audit.Run(pkg)
+	return &Result{
+		Package: pkg,
+		Sources: sources,
+		Render: render.Options{
+			Digits: opt.Digits, Version: opt.Version, Audit: &report,
+			NoGraphs: opt.NoGraphs, GraphCache: opt.GraphCache,
+			// Dates come from the sources, never the clock: builds stay byte-identical.
+			BuildDate: pkg.BuildDate(opt.SourceDateEpoch),
+		},
+	}, nil
+}
+
+// Run is the whole pipeline: it refuses outputs that would overwrite the
+// sources or files sheaf did not write, loads the package, and writes the
+// HTML package into opt.Out and the JSON into opt.JSON when they are set.
+//
+// The package is staged in a hidden folder beside opt.Out and swapped in
+// whole, so that a build that is killed or fails leaves the previous
+// package exactly as it was. A lock file beside opt.Out refuses a second
+// build into the same folder while one runs.
+func Run(src string, opt Options) (*Result, error) {
+	sources, err := sourceFolder(src)
+	if err != nil {
+		return nil, err
+	}
+	if opt.JSON != "" {
+		if err := Outside(opt.JSON, sources, "--json", ".json"); err != nil {
+			return nil, err
+		}
+	}
+	if opt.Out == "" {
+		res, err := Load(src, opt)
+		if err != nil {
+			return nil, err
+		}
+		if opt.JSON != "" {
+			err = atomicfile.WriteFunc(opt.JSON, 0o644, res.WriteJSON)
+		}
+		return res, err
+	}
+	t, err := prepare(opt.Out, sources)
+	if err != nil {
+		return nil, err
+	}
+	defer t.unlock()
+	res, err := Load(src, opt)
+	if err != nil {
+		return nil, err
+	}
+	return res, t.write(res, opt.JSON)
+}
+
+// Pages renders the index, the registers, the audit and one page per
+// sheet, handing each to emit in a fixed order.
+func (r *Result) Pages(emit func(render.File) error) error {
+	return render.WriteHTML(r.Package, r.Render, emit)
+}
+
+// WriteJSON writes the package's JSON document.
+func (r *Result) WriteJSON(w io.Writer) error {
+	return render.WriteJSON(r.Package, r.Render, w)
+}

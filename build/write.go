@@ -1,0 +1,264 @@
+package build
+
+import (
+	"bufio"
+	"crypto/sha256"
+	"encoding/hex"
+	"errors"
+	"fmt"
+	"io"
+	"io/fs"
+	"os"
+	"path/filepath"
+
+	"github.com/sheaf-calc/sheaf/internal/atomicfile"
+	"github.com/sheaf-calc/sheaf/render"
+)
+
+// target is an output folder made ready for a build: its path resolved,
+// its lock held, the leftovers of killed builds gone. Its staging and
+// aside folders and its lock file lie beside it, under hidden names.
+type target struct {
+	given   string // the folder as the user named it, for messages
+	out     string
+	staging string
+	aside   string
+	unlock  func()
+}
+
+// writeFile writes a file into the staging folder and exchangeFolders
+// swaps two folders; tests replace them to make a write fail or to take
+// the two-rename path.
+var (
+	writeFile       = os.WriteFile
+	exchangeFolders = exchange
+)
+
+// prepare refuses an output folder that would overwrite the sources or
+// files sheaf did not write, takes its lock, and clears what killed
+// builds left beside it.
+func prepare(out, sources string) (*target, error) {
+	o, err := resolve(out)
+	if err != nil {
+		return nil, fmt.Errorf("-o %s: %w", out, err)
+	}
+	suggest := filepath.Join(filepath.Dir(sources), filepath.Base(sources)+"-html")
+	switch {
+	case o == filepath.Dir(o):
+		return nil, fmt.Errorf("-o %s is the root of the file system: a build replaces its output folder whole; name a folder of its own, for example %s", out, suggest)
+	case within(o, sources):
+		return nil, fmt.Errorf("-o %s lies inside the package's sources (%s): sheaf never writes there; choose a folder outside them, for example %s", out, sources, suggest)
+	case within(sources, o):
+		return nil, fmt.Errorf("-o %s holds the package's sources (%s): a build replaces its output folder whole; choose a folder of its own, for example %s", out, sources, suggest)
+	}
+	parent, base := filepath.Dir(o), filepath.Base(o)
+	if err := os.MkdirAll(parent, 0o755); err != nil {
+		return nil, fmt.Errorf("cannot make the folder for -o %s: %w", out, err)
+	}
+	t := &target{given: out, out: o,
+		staging: filepath.Join(parent, "."+base+".sheaf-staging"),
+		aside:   filepath.Join(parent, "."+base+".sheaf-old"),
+	}
+	t.unlock, err = lock(filepath.Join(parent, "."+base+".sheaf-lock"))
+	if errors.Is(err, errBusy) {
+		return nil, fmt.Errorf("another sheaf build is writing %s now: wait for it to finish, then build again", out)
+	}
+	if err != nil {
+		return nil, fmt.Errorf("cannot lock %s for the build (sheaf keeps a lock file beside it, so its folder must be writable): %w", out, err)
+	}
+	if err := t.recover(); err != nil {
+		t.unlock()
+		return nil, err
+	}
+	if err := ownFolder(out, o); err != nil {
+		t.unlock()
+		return nil, err
+	}
+	return t, nil
+}
+
+// recover undoes what a killed build left: a previous package moved aside
+// but not replaced goes back, and half-written or old folders go.
+func (t *target) recover() error {
+	if _, err := os.Lstat(t.out); errors.Is(err, fs.ErrNotExist) {
+		// Only a whole package goes back: one whose removal had begun
+		// may have lost its manifest, and is removed below.
+		if data, err := os.ReadFile(filepath.Join(t.aside, ManifestName)); err == nil && isManifest(data) {
+			if err := os.Rename(t.aside, t.out); err != nil {
+				return fmt.Errorf("cannot restore the previous package %s from %s: %w", t.given, t.aside, err)
+			}
+		}
+	}
+	for _, p := range []string{t.staging, t.aside} {
+		if err := removeAll(p); err != nil {
+			return fmt.Errorf("cannot remove %s, left by an earlier build of %s: %w; remove it by hand", p, t.given, err)
+		}
+	}
+	return nil
+}
+
+// ownFolder refuses an output folder that holds files sheaf did not
+// write: a build replaces the folder whole, and would delete them.
+func ownFolder(given, out string) error {
+	info, err := os.Lstat(out)
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		return nil
+	case err != nil:
+		return err
+	case !info.IsDir():
+		return fmt.Errorf("-o %s is a file, not a folder: name a new or empty folder, or one that sheaf built", given)
+	}
+	entries, err := os.ReadDir(out)
+	if err != nil || len(entries) == 0 {
+		return err
+	}
+	if data, err := os.ReadFile(filepath.Join(out, ManifestName)); err == nil && isManifest(data) {
+		return nil
+	}
+	return fmt.Errorf("-o %s holds files that sheaf did not write (%s, and no %s): a build replaces its output folder whole "+
+		"and would delete them; name a new or empty folder, or one that sheaf built", given, entries[0].Name(), ManifestName)
+}
+
+// isManifest reports whether data is a manifest that sheaf wrote.
+func isManifest(data []byte) bool {
+	_, err := ParseManifest(data)
+	return err == nil
+}
+
+// write stages the package, its manifest and the JSON, then swaps the
+// staging folder in for the output. On any error the output is left as
+// it was.
+func (t *target) write(res *Result, jsonPath string) (err error) {
+	if err := os.Mkdir(t.staging, 0o755); err != nil {
+		return fmt.Errorf("cannot stage the build beside %s (sheaf writes the package there first, so that folder must be writable): %w", t.given, err)
+	}
+	defer func() {
+		if err != nil {
+			_ = removeAll(t.staging)
+			err = fmt.Errorf("%w; %s is left as it was", err, t.given)
+		}
+	}()
+	var pages []Page
+	made := map[string]bool{ManifestName: true}
+	err = res.Pages(func(f render.File) error {
+		pages = append(pages, PageOf(f))
+		made[f.Path] = true
+		return t.put(f.Path, f.Data)
+	})
+	if err != nil {
+		return err
+	}
+	m := NewManifest(res, pages)
+	if jsonPath != "" {
+		if m.JSON, err = t.writeJSON(res, jsonPath, made); err != nil {
+			return err
+		}
+	}
+	data, err := m.Marshal()
+	if err != nil {
+		return err
+	}
+	if err := t.put(ManifestName, data); err != nil {
+		return err
+	}
+	if err := t.swap(); err != nil {
+		return fmt.Errorf("cannot put the new package in the place of %s (sheaf swaps whole folders, so it must be an ordinary folder, not a mount point): %w", t.given, err)
+	}
+	return nil
+}
+
+// put writes one file of the package into the staging folder.
+func (t *target) put(rel string, data []byte) error {
+	p := filepath.Join(t.staging, filepath.FromSlash(rel))
+	if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
+		return err
+	}
+	return writeFile(p, data, 0o644)
+}
+
+// stream writes one file of the package into the staging folder with
+// what fill writes, without holding it all in memory.
+func (t *target) stream(rel string, fill func(io.Writer) error) error {
+	p := filepath.Join(t.staging, filepath.FromSlash(rel))
+	if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
+		return err
+	}
+	f, err := os.Create(p)
+	if err != nil {
+		return err
+	}
+	w := bufio.NewWriter(f)
+	err = fill(w)
+	if err == nil {
+		err = w.Flush()
+	}
+	if cerr := f.Close(); err == nil {
+		err = cerr
+	}
+	return err
+}
+
+// writeJSON writes the JSON document: into the staging folder when it
+// lies inside the output, where the manifest lists it, else beside.
+func (t *target) writeJSON(res *Result, path string, made map[string]bool) (*Page, error) {
+	p, err := resolve(path)
+	if err != nil {
+		return nil, err
+	}
+	if !within(p, t.out) {
+		return nil, atomicfile.WriteFunc(path, 0o644, res.WriteJSON)
+	}
+	rel, _ := filepath.Rel(t.out, p)
+	rel = filepath.ToSlash(rel)
+	if rel == "." || made[rel] {
+		return nil, fmt.Errorf("--json %s would replace a file of the package; name another file", path)
+	}
+	h := sha256.New()
+	if err := t.stream(rel, func(w io.Writer) error { return res.WriteJSON(io.MultiWriter(w, h)) }); err != nil {
+		return nil, err
+	}
+	return &Page{Path: rel, SHA256: hex.EncodeToString(h.Sum(nil))}, nil
+}
+
+// swap puts the staging folder in the output's place in one step where
+// the system can exchange two folders, else in two renames that recover
+// undoes if the build is killed between them. The previous package is
+// then removed; what a failed removal leaves, the next build removes.
+func (t *target) swap() error {
+	if _, err := os.Lstat(t.out); errors.Is(err, fs.ErrNotExist) {
+		return os.Rename(t.staging, t.out)
+	}
+	err := exchangeFolders(t.staging, t.out)
+	if err == nil {
+		_ = removeAll(t.staging) // now the previous package
+		return nil
+	}
+	if !errors.Is(err, errNoExchange) {
+		return err
+	}
+	if err := os.Rename(t.out, t.aside); err != nil {
+		return err
+	}
+	if err := os.Rename(t.staging, t.out); err != nil {
+		_ = os.Rename(t.aside, t.out)
+		return err
+	}
+	_ = removeAll(t.aside)
+	return nil
+}
+
+// removeAll removes a folder of a previous build, making its folders
+// writable first when a read-only one keeps its files.
+func removeAll(p string) error {
+	if err := os.RemoveAll(p); err == nil {
+		return nil
+	}
+	_ = filepath.WalkDir(p, func(q string, d fs.DirEntry, err error) error {
+		if err == nil && d.IsDir() {
+			_ = os.Chmod(q, 0o700)
+		}
+		return nil
+	})
+	return os.RemoveAll(p)
+}
