@@ -45,9 +45,7 @@ func auditCmd(stdout, stderr io.Writer) *cobra.Command {
 				}
 				fmt.Fprintln(stdout, line)
 			}
-			for _, d := range pkg.Diags {
-				fmt.Fprintln(stderr, d.Error())
-			}
+			render.WriteDiagnostics(pkg, stderr)
 			fmt.Fprintf(stdout, "%s open, %d accepted\n", render.Count(r.Open(), "finding"), len(r.Findings)-r.Open())
 			if html != "" {
 				if err := atomicfile.Write(html, render.AuditHTML(pkg, opt), 0o644); err != nil {

@@ -81,9 +81,7 @@ func buildCmd(stdout, stderr io.Writer) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			for _, d := range res.Package.Diags {
-				fmt.Fprintln(stderr, d.Error())
-			}
+			render.WriteDiagnostics(res.Package, stderr)
 			fmt.Fprintf(stdout, "wrote %s (%s)\n", filepath.Join(out, "index.html"), render.Summary(res.Package))
 			return outcome(res.Package)
 		},
