@@ -23,10 +23,31 @@ type Expr interface {
 	base() *node
 }
 
-// Type is what the checker inferred for a node before evaluation.
+// Shape says how many values a node holds: one (a scalar) today; lists and
+// sampled series are the shapes to come.
+type Shape uint8
+
+// The shapes.
+const (
+	Scalar Shape = iota
+)
+
+// Domain says what numbers a node holds: real today; complex phasors are
+// the domain to come.
+type Domain uint8
+
+// The domains.
+const (
+	Real Domain = iota
+)
+
+// Type is what the checker inferred for a node before evaluation: its
+// shape and domain, its dimension and kind, and its value when fixed.
 type Type struct {
-	Dim  units.Dim
-	Kind units.Kind
+	Shape  Shape
+	Domain Domain
+	Dim    units.Dim
+	Kind   units.Kind
 	// Const is set when the node's value is fixed at compile time (literals,
 	// built-in constants and arithmetic over them); Val holds it in SI.
 	Const bool

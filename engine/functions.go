@@ -6,6 +6,7 @@ import (
 	"slices"
 	"strings"
 
+	"github.com/sheaf-calc/sheaf/diag"
 	"github.com/sheaf-calc/sheaf/units"
 )
 
@@ -30,16 +31,19 @@ const (
 )
 
 // Function is one entry of the function table. Adding a function is adding
-// an entry: its arity, what it asks of its arguments' dimensions, what it
-// returns, and its arithmetic.
+// an entry: its arity, its type check (what it asks of its arguments'
+// shape, dimension and kind, and what it returns), and its arithmetic.
 type Function struct {
 	Name    string
 	MinArgs int
 	MaxArgs int // -1 for any number
 	Usage   string
 	Doc     string
-	args    argRule
-	result  resultRule
+	// check infers the call's type from its arguments', which are
+	// inferred already, or says what is wrong with them.
+	check  func(n *Call) *diag.Diagnostic
+	args   argRule
+	result resultRule
 	// domain explains a non-finite result from finite arguments.
 	domain string
 	// table marks interp, spline and pick, which read table columns.
@@ -63,7 +67,7 @@ func (f *Function) arity() string {
 }
 
 func one(name, doc string, args argRule, result resultRule, domain string, f func(float64) float64) *Function {
-	return &Function{Name: name, MinArgs: 1, MaxArgs: 1, Usage: name + "(x)", Doc: doc, args: args, result: result, domain: domain, f1: f}
+	return &Function{Name: name, MinArgs: 1, MaxArgs: 1, Usage: name + "(x)", Doc: doc, check: inferCall, args: args, result: result, domain: domain, f1: f}
 }
 
 // whole marks a function whose results are whole numbers.
@@ -73,11 +77,11 @@ func whole(f *Function) *Function {
 }
 
 func two(name, doc string, args argRule, result resultRule, f func(float64, float64) float64) *Function {
-	return &Function{Name: name, MinArgs: 2, MaxArgs: 2, Usage: name + "(x, y)", Doc: doc, args: args, result: result, f2: f}
+	return &Function{Name: name, MinArgs: 2, MaxArgs: 2, Usage: name + "(x, y)", Doc: doc, check: inferCall, args: args, result: result, f2: f}
 }
 
 func many(name, doc string, f func(float64, float64) float64) *Function {
-	return &Function{Name: name, MinArgs: 2, MaxArgs: -1, Usage: name + "(x, y, ...)", Doc: doc, args: sameDim, result: likeArg, f2: f}
+	return &Function{Name: name, MinArgs: 2, MaxArgs: -1, Usage: name + "(x, y, ...)", Doc: doc, check: inferCall, args: sameDim, result: likeArg, f2: f}
 }
 
 // functions is the function table.
@@ -103,13 +107,13 @@ func init() {
 		whole(one("floor", "largest whole number not above x; x a pure number", dimensionless, plainOne, "", math.Floor)),
 		whole(one("ceil", "smallest whole number not below x; x a pure number", dimensionless, plainOne, "", math.Ceil)),
 		whole(one("round", "nearest whole number, halves away from zero; x a pure number", dimensionless, plainOne, "", math.Round)),
-		{Name: "interp", MinArgs: 3, MaxArgs: 4, Usage: "interp(T.y, T.x, x) or interp(T.y, T.x, x, extrapolate)", table: "linear",
+		{Name: "interp", MinArgs: 3, MaxArgs: 4, check: inferTableCall, Usage: "interp(T.y, T.x, x) or interp(T.y, T.x, x, extrapolate)", table: "linear",
 			Doc: "y read from table T at x, straight lines between rows; refuses an x outside the table unless told to extrapolate"},
-		{Name: "spline", MinArgs: 3, MaxArgs: 4, Usage: "spline(T.y, T.x, x) or spline(T.y, T.x, x, extrapolate)", table: "cubic",
+		{Name: "spline", MinArgs: 3, MaxArgs: 4, check: inferTableCall, Usage: "spline(T.y, T.x, x) or spline(T.y, T.x, x, extrapolate)", table: "cubic",
 			Doc: "y read from table T at x along a monotone cubic (Fritsch–Butland) through the rows; refuses an x outside the table unless told to extrapolate"},
-		{Name: "solve", MinArgs: 3, MaxArgs: 3, Usage: "x = solve(left == right, lowest, highest)",
+		{Name: "solve", MinArgs: 3, MaxArgs: 3, check: inferSolveCall, Usage: "x = solve(left == right, lowest, highest)",
 			Doc: "the x between lowest and highest for which the relation holds (Brent's method); the relation may use statements that use x"},
-		{Name: "pick", MinArgs: 3, MaxArgs: 3, Usage: "pick(T.y, T.x, x)", table: "exact",
+		{Name: "pick", MinArgs: 3, MaxArgs: 3, check: inferTableCall, Usage: "pick(T.y, T.x, x)", table: "exact",
 			Doc: "y from the row of table T whose x equals the given x"},
 	} {
 		functions[f.Name] = f

@@ -19,7 +19,7 @@ func infer(e Expr) *diag.Diagnostic { return inferNode(e, false) }
 // k_e*2*pi*n is worked out once, at its top, over all its factors.
 func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 	if c, ok := e.(*Call); ok && c.Func.table != "" {
-		return inferTableCall(c)
+		return c.Func.check(c) // the columns are data, not values to infer
 	}
 	product := isProduct(e)
 	for _, c := range e.children() {
@@ -59,7 +59,7 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 			return chainKind(n)
 		}
 	case *Call:
-		return inferCall(n)
+		return n.Func.check(n)
 	case *Keyword:
 		return errAt(n.Pos(), "write it as the last argument of interp or spline", "%s has a meaning only inside interp( ) and spline( )", n.Word)
 	}
@@ -246,6 +246,9 @@ func inferPower(n *Binary) *diag.Diagnostic {
 	return nil
 }
 
+// inferCall is the type check of the functions of numbers: their
+// arguments are scalars (one value each), real, and of the dimension and
+// kind the entry's rules ask.
 func inferCall(n *Call) *diag.Diagnostic {
 	f, t := n.Func, n.Type()
 	first := n.Args[0].Type()
@@ -300,6 +303,9 @@ func inferCall(n *Call) *diag.Diagnostic {
 // of its dimension and kind.
 func checkArg(n *Call, a Expr) *diag.Diagnostic {
 	f, at, first := n.Func, a.Type(), n.Args[0].Type()
+	if at.Shape != Scalar || at.Domain != Real {
+		return errAt(a.Pos(), "give it one real value", "%s takes one real value for each argument", n.Name)
+	}
 	switch f.args {
 	case dimensionless, angleArg:
 		if !at.Dim.IsDimensionless() {
@@ -331,6 +337,13 @@ func checkArg(n *Call, a Expr) *diag.Diagnostic {
 		}
 	}
 	return nil
+}
+
+// inferSolveCall is the type check of solve(...) where it is not a whole
+// right side; sheet.prepareSolve and checkSolveBounds check the others.
+func inferSolveCall(n *Call) *diag.Diagnostic {
+	return errAt(n.Pos(), "write the unknown as its own statement: x = solve(left == right, lowest, highest)",
+		"solve must be the whole right side of a definition")
 }
 
 func evalConstCall(n *Call) float64 {
