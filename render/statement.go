@@ -3,129 +3,12 @@ package render
 import (
 	"math"
 	"strconv"
-	"strings"
 
-	"github.com/yuin/goldmark/ast"
-	"github.com/yuin/goldmark/renderer"
-	"github.com/yuin/goldmark/util"
 
 	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
-	"github.com/sheaf-calc/sheaf/sheets"
 	"github.com/sheaf-calc/sheaf/units"
 )
-
-// blockRenderer draws formula blocks in place of the code the Markdown
-// shows, and plain code blocks as code.
-type blockRenderer struct {
-	sheet  *project.Sheet
-	digits int
-	index  int // formula blocks seen so far
-}
-
-// RegisterFuncs implements renderer.NodeRenderer.
-func (r *blockRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
-	reg.Register(ast.KindFencedCodeBlock, r.fenced)
-	reg.Register(ast.KindParagraph, r.paragraph)
-}
-
-// paragraph draws prose paragraphs, and an assumption paragraph as a boxed
-// assumption that lists what rests on it.
-func (r *blockRenderer) paragraph(w util.BufWriter, source []byte, n ast.Node, entering bool) (ast.WalkStatus, error) {
-	p := n.(*ast.Paragraph)
-	if t := r.sheet.Doc.TableAt(p); t != nil {
-		if entering {
-			w.WriteString(`<p class="caption" id="T-` + esc(t.Name) + `">`)
-		} else {
-			w.WriteString("</p>\n")
-		}
-		return ast.WalkContinue, nil
-	}
-	a := r.sheet.Doc.AssumptionAt(p)
-	if a == nil {
-		if entering {
-			w.WriteString("<p>")
-		} else {
-			w.WriteString("</p>\n")
-		}
-		return ast.WalkContinue, nil
-	}
-	if entering {
-		w.WriteString(`<div class="assumption" id="A-` + esc(a.ID) + `"><p>`)
-		return ast.WalkContinue, nil
-	}
-	w.WriteString("</p>")
-	for _, ea := range r.sheet.Calc.Assumptions {
-		if ea.Statement == nil && ea.ID == a.ID {
-			if len(ea.Dependents) == 0 {
-				w.WriteString(`<p class="links">No statement cites this assumption.</p>`)
-			} else {
-				w.WriteString(`<p class="links">`)
-				writeLinks(w, "Resting on it:", ea.Dependents)
-				w.WriteString("</p>")
-			}
-			break
-		}
-	}
-	w.WriteString("</div>\n")
-	return ast.WalkContinue, nil
-}
-
-func (r *blockRenderer) fenced(w util.BufWriter, source []byte, n ast.Node, entering bool) (ast.WalkStatus, error) {
-	if !entering {
-		return ast.WalkSkipChildren, nil
-	}
-	fc := n.(*ast.FencedCodeBlock)
-	if !sheets.IsFormulaBlock(fc, source) {
-		w.WriteString("<pre><code")
-		if lang := string(fc.Language(source)); lang != "" {
-			w.WriteString(` class="language-` + esc(lang) + `"`)
-		}
-		w.WriteString(">")
-		for i := 0; i < fc.Lines().Len(); i++ {
-			seg := fc.Lines().At(i)
-			w.WriteString(esc(string(seg.Value(source))))
-		}
-		w.WriteString("</code></pre>\n")
-		return ast.WalkSkipChildren, nil
-	}
-	if r.index < len(r.sheet.Doc.Blocks) {
-		r.block(w, r.index)
-	}
-	r.index++
-	return ast.WalkSkipChildren, nil
-}
-
-// block draws one formula block: its statements and its comment lines, in
-// the order written.
-func (r *blockRenderer) block(w sink, bi int) {
-	b := r.sheet.Doc.Blocks[bi]
-	byLine := map[int]*engine.Statement{}
-	for _, st := range r.sheet.Calc.Statements {
-		if st.Block == bi && st.Instance == "" {
-			byLine[st.Pos.Line] = st
-		}
-	}
-	w.WriteString("<div class=\"calc\">\n")
-	if len(byLine) == 0 {
-		for _, d := range r.sheet.Calc.Diags {
-			if d.Pos == b.Fence {
-				w.WriteString(`<div class="row error" id="L` + strconv.Itoa(d.Pos.Line) + `"><p class="msg"><span class="loc">` +
-					esc(d.Pos.String()) + "</span> " + esc(messageText(d)) + "</p></div>\n")
-			}
-		}
-	}
-	for _, l := range b.Lines {
-		if st, ok := byLine[l.Pos.Line]; ok {
-			writeStatement(w, r.sheet.Calc, st, r.digits)
-			continue
-		}
-		if t := strings.TrimSpace(l.Text); strings.HasPrefix(t, "#") {
-			w.WriteString("<p class=\"comment\">" + esc(strings.TrimSpace(strings.TrimLeft(t, "#"))) + "</p>\n")
-		}
-	}
-	w.WriteString("</div>\n")
-}
 
 // anchor is a statement's id on its page: L<line> for the sheet's own
 // statements, I-<instance>-L<line> for those from a template, whose lines

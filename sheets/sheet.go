@@ -6,14 +6,12 @@ package sheets
 
 import (
 	"bytes"
-	"regexp"
 	"slices"
 	"strings"
 
 	"github.com/yuin/goldmark"
 	"github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/extension"
-	east "github.com/yuin/goldmark/extension/ast"
 	"github.com/yuin/goldmark/parser"
 	"github.com/yuin/goldmark/text"
 	"go.abhg.dev/goldmark/frontmatter"
@@ -41,43 +39,8 @@ type Sheet struct {
 	index lineIndex
 }
 
-// Assumption is a paragraph of prose that starts "Assumption <id>:". The
-// statements that rest on it cite its id with `; assumes: <id>`.
-type Assumption struct {
-	ID   string
-	Text string // the paragraph after "Assumption <id>:", lines joined
-	Pos  diag.Pos
-	Node *ast.Paragraph
-}
-
-// Table is a named table of data: a caption paragraph "Table <name>:
-// caption" and the pipe table that follows it. Header cells are column
-// names with units in brackets: "H [A/m]".
-type Table struct {
-	Name        string
-	Caption     string
-	Pos         diag.Pos // of the caption
-	Header      []Cell
-	Rows        [][]Cell
-	CaptionNode *ast.Paragraph
-	Node        ast.Node
-}
-
-// Cell is the text of a table cell and where it starts.
-type Cell struct {
-	Text string
-	Pos  diag.Pos
-}
-
-// tableHead matches a table's caption paragraph.
-var tableHead = regexp.MustCompile(`^Table\s+([A-Za-z][A-Za-z0-9_]*)\s*:\s*`)
-
-// assumptionHead matches the start of an assumption paragraph.
-var assumptionHead = regexp.MustCompile(`^Assumption\s+([A-Za-z0-9][A-Za-z0-9_.-]*)\s*:\s*`)
-
 // Block is one formula block.
 type Block struct {
-	Node  *ast.FencedCodeBlock
 	Fence diag.Pos // where the opening fence is
 	Lines []Line
 }
@@ -193,57 +156,39 @@ func (s *Sheet) Pos(offset int) diag.Pos {
 // LineText returns line n of the source, for snippets under errors.
 func (s *Sheet) LineText(n int) string { return s.index.lineText(n) }
 
+// collectBlocks replaces the constructs of a sheet in its document with
+// node kinds of sheaf's own, recording what each holds: formula blocks,
+// assumption paragraphs and the captions of named tables. The renderer
+// has one renderer for each kind.
 func (s *Sheet) collectBlocks() {
+	var swaps [][2]ast.Node
 	_ = ast.Walk(s.Doc, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
-		if p, ok := n.(*ast.Paragraph); ok && entering {
-			s.collectAssumption(p)
-			s.collectTable(p)
-			return ast.WalkSkipChildren, nil
-		}
-		fc, ok := n.(*ast.FencedCodeBlock)
-		if !entering || !ok || !IsFormulaBlock(fc, s.Source) {
+		if !entering {
 			return ast.WalkContinue, nil
 		}
-		b := &Block{Node: fc}
-		if fc.Info != nil {
-			b.Fence = s.Pos(fc.Info.Segment.Start)
-			// Point at the fence itself, not at the info word.
-			line := s.LineText(b.Fence.Line)
-			b.Fence.Col = len([]rune(line)) - len([]rune(strings.TrimLeft(line, " \t>"))) + 1
+		var with ast.Node
+		switch n := n.(type) {
+		case *ast.Paragraph:
+			if a := s.assumption(n); a != nil {
+				with = a
+			} else if t := s.tableCaption(n); t != nil {
+				with = t
+			}
+		case *ast.FencedCodeBlock:
+			if b := s.formulaBlock(n); b != nil {
+				with = b
+			}
+		default:
+			return ast.WalkContinue, nil
 		}
-		lines := fc.Lines()
-		for i := 0; i < lines.Len(); i++ {
-			seg := lines.At(i)
-			// Value includes, as spaces, what is left of a tab that the
-			// block's indentation cut into; those spaces stand before the
-			// segment's first character, so the line starts that much earlier.
-			txt := strings.TrimRight(string(seg.Value(s.Source)), "\n")
-			pos := s.Pos(seg.Start)
-			pos.Col -= seg.Padding
-			b.Lines = append(b.Lines, Line{Text: txt, Pos: pos})
+		if with != nil {
+			swaps = append(swaps, [2]ast.Node{n, with})
 		}
-		s.Blocks = append(s.Blocks, b)
 		return ast.WalkSkipChildren, nil
 	})
-}
-
-// collectAssumption records a paragraph that starts "Assumption <id>:".
-func (s *Sheet) collectAssumption(p *ast.Paragraph) {
-	lines := p.Lines()
-	if lines.Len() == 0 {
-		return
+	for _, sw := range swaps {
+		sw[0].Parent().ReplaceChild(sw[0].Parent(), sw[0], sw[1])
 	}
-	var parts []string
-	for i := 0; i < lines.Len(); i++ {
-		seg := lines.At(i)
-		parts = append(parts, strings.TrimSpace(string(seg.Value(s.Source))))
-	}
-	text := strings.Join(parts, " ")
-	m := assumptionHead.FindStringSubmatch(text)
-	if m == nil {
-		return
-	}
-	s.Assumptions = append(s.Assumptions, &Assumption{ID: m[1], Text: text[len(m[0]):], Pos: s.Pos(lines.At(0).Start), Node: p})
 }
 
 // paragraphText returns a paragraph's lines joined by spaces.
@@ -255,102 +200,6 @@ func (s *Sheet) paragraphText(p *ast.Paragraph) string {
 		parts = append(parts, strings.TrimSpace(string(seg.Value(s.Source))))
 	}
 	return strings.Join(parts, " ")
-}
-
-// collectTable records a caption paragraph "Table <name>: ..." and the
-// pipe table right after it.
-func (s *Sheet) collectTable(p *ast.Paragraph) {
-	if p.Lines().Len() == 0 {
-		return
-	}
-	text := s.paragraphText(p)
-	m := tableHead.FindStringSubmatch(text)
-	if m == nil {
-		return
-	}
-	t := &Table{Name: m[1], Caption: text[len(m[0]):], Pos: s.Pos(p.Lines().At(0).Start), CaptionNode: p}
-	next, ok := p.NextSibling().(*east.Table)
-	if !ok {
-		s.Diags.Add(t.Pos, "put the pipe table right after the caption line, with no other paragraph between",
-			"table %s has no table after its caption", t.Name)
-		return
-	}
-	t.Node = next
-	for row := next.FirstChild(); row != nil; row = row.NextSibling() {
-		var cells []Cell
-		for c := row.FirstChild(); c != nil; c = c.NextSibling() {
-			cells = append(cells, s.cell(c))
-		}
-		if _, header := row.(*east.TableHeader); header {
-			t.Header = cells
-		} else {
-			t.Rows = append(t.Rows, cells)
-		}
-	}
-	s.Tables = append(s.Tables, t)
-}
-
-// cell returns the raw text of a table cell and where it starts.
-func (s *Sheet) cell(c ast.Node) Cell {
-	var b strings.Builder
-	start := -1
-	_ = ast.Walk(c, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
-		if t, ok := n.(*ast.Text); ok && entering {
-			if start < 0 {
-				start = t.Segment.Start
-			}
-			b.Write(t.Segment.Value(s.Source))
-			if t.SoftLineBreak() || t.HardLineBreak() {
-				b.WriteByte(' ')
-			}
-		}
-		return ast.WalkContinue, nil
-	})
-	cell := Cell{Text: strings.TrimSpace(b.String())}
-	if start >= 0 {
-		cell.Pos = s.Pos(start)
-	} else if c.Parent() != nil {
-		cell.Pos = s.Pos(tableLineStart(c))
-	}
-	return cell
-}
-
-// tableLineStart finds a byte offset on the line of an empty cell.
-func tableLineStart(c ast.Node) int {
-	for n := c; n != nil; n = n.PreviousSibling() {
-		for ch := n.FirstChild(); ch != nil; ch = ch.NextSibling() {
-			if t, ok := ch.(*ast.Text); ok {
-				return t.Segment.Start
-			}
-		}
-	}
-	return 0
-}
-
-// TableAt returns the table a caption paragraph introduces, or nil.
-func (s *Sheet) TableAt(p *ast.Paragraph) *Table {
-	for _, t := range s.Tables {
-		if t.CaptionNode == p {
-			return t
-		}
-	}
-	return nil
-}
-
-// AssumptionAt returns the assumption a paragraph declares, or nil.
-func (s *Sheet) AssumptionAt(p *ast.Paragraph) *Assumption {
-	for _, a := range s.Assumptions {
-		if a.Node == p {
-			return a
-		}
-	}
-	return nil
-}
-
-// IsFormulaBlock reports whether a fenced code block is a formula block.
-func IsFormulaBlock(fc *ast.FencedCodeBlock, source []byte) bool {
-	lang := fc.Language(source)
-	return string(lang) == InfoWord
 }
 
 func sortStrings(s []string) []string {
