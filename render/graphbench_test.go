@@ -27,3 +27,12 @@ func BenchmarkGraphLayout(b *testing.B) {
 		})
 	}
 }
+
+func benchGraph(b *testing.B, s *project.Sheet) {
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		if _, err := graphSVG(s, 4); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

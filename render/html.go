@@ -25,12 +25,8 @@ type Options struct {
 	Digits int
 	// Version is the tool version printed in every footer.
 	Version string
-	// NoGraphs leaves the dependency graphs out; laying them out is the
-	// slowest part of rendering.
+	// NoGraphs leaves the dependency graphs out of the sheet pages.
 	NoGraphs bool
-	// GraphCache, when set, is a folder where graph layouts are kept by
-	// the hash of their input, so that rebuilds lay out only what changed.
-	GraphCache string
 	// BuildDate is the date the pages state, from the sources or
 	// SOURCE_DATE_EPOCH (see project.Package.BuildDate); "" states none.
 	BuildDate string
@@ -104,19 +100,10 @@ func WriteHTML(pkg *project.Package, opt Options, emit func(File) error) error {
 	}()
 	for w := 0; w < workers; w++ {
 		go func() {
-			var g *grapher
 			pr := newProse()
-			defer func() { g.close() }()
 			for i := range next {
 				s := pkg.Sheets[i]
-				var data []byte
-				var err error
-				if g == nil && !opt.NoGraphs {
-					g, err = newGrapher(opt.GraphCache)
-				}
-				if err == nil {
-					data, err = sheetPage(pkg, s, opt, g, pr)
-				}
+				data, err := sheetPage(pkg, s, opt, pr)
 				if err != nil {
 					err = fmt.Errorf("%s: %w", s.Path(), err)
 				}

@@ -36,7 +36,7 @@ func (pr *prose) render(p *page, s *project.Sheet, digits int) error {
 	return pr.md.Renderer().Render(&p.Buffer, s.Doc.Source, s.Doc.Doc)
 }
 
-func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, g *grapher, pr *prose) ([]byte, error) {
+func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, pr *prose) ([]byte, error) {
 	digits := s.Digits(opt.Digits)
 	p := &page{}
 	// Pages run to about twenty times their source; growing once saves copies.
@@ -55,8 +55,8 @@ func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, g *grapher, 
 		return nil, err
 	}
 	p.f("</article>\n")
-	if g != nil && len(s.Calc.Statements) > 0 {
-		svg, err := g.svg(graphDOT(s, digits))
+	if !opt.NoGraphs && len(s.Calc.Statements) > 0 {
+		svg, err := graphSVG(s, digits)
 		if err != nil {
 			return nil, err
 		}

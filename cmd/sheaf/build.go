@@ -80,9 +80,6 @@ func buildCmd(stdout, stderr io.Writer) *cobra.Command {
 				return err
 			}
 			opt.NoGraphs = noGraphs
-			if dir, err := os.UserCacheDir(); err == nil && !noGraphs {
-				opt.GraphCache = filepath.Join(dir, "sheaf")
-			}
 			var pages []verify.Page
 			err = render.WriteHTML(pkg, opt, func(f render.File) error {
 				pages = append(pages, verify.PageOf(f))
