@@ -19,13 +19,15 @@ func (l *lay) order() {
 	saved := l.saveOrder()
 	key := make([]float64, len(l.kind))
 	for i := 0; i < sweeps && best > 0; i++ {
+		clusters := l.clusterOrder()
 		for r := 1; r < l.ranks; r++ {
 			l.barycentres(key, l.layers[r], l.pred)
-			l.sortLayer(r, key, l.clusterOrder())
+			l.sortLayer(r, key, clusters)
 		}
+		clusters = l.clusterOrder()
 		for r := l.ranks - 2; r >= 0; r-- {
 			l.barycentres(key, l.layers[r], l.succ)
-			l.sortLayer(r, key, l.clusterOrder())
+			l.sortLayer(r, key, clusters)
 		}
 		if c := l.crossings(); c < best {
 			best, saved = c, l.saveOrder()
