@@ -34,6 +34,21 @@ func (l *lay) order() {
 		}
 	}
 	l.restoreOrder(saved)
+	l.alignClusters()
+}
+
+// alignClusters puts the clusters in one order in every column: each
+// sweep orders the columns by the cluster order of its start, so the
+// columns of the kept order may disagree.
+func (l *lay) alignClusters() {
+	key := make([]float64, len(l.kind))
+	for v := range key {
+		key[v] = float64(l.pos[v])
+	}
+	order := l.clusterOrder()
+	for r := range l.layers {
+		l.sortLayer(r, key, order)
+	}
 }
 
 func (l *lay) initialOrder() {
@@ -62,14 +77,7 @@ func (l *lay) initialOrder() {
 			visit(v)
 		}
 	}
-	key := make([]float64, len(l.kind))
-	for v := range key {
-		key[v] = float64(l.pos[v])
-	}
-	order := l.clusterOrder()
-	for r := range l.layers {
-		l.sortLayer(r, key, order)
-	}
+	l.alignClusters()
 }
 
 // barycentres sets key[v] for each v of a column to the mean position of

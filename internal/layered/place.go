@@ -18,6 +18,7 @@ type item struct{ v, c int }
 func (l *lay) placeY() {
 	l.y = make([]float64, len(l.kind))
 	items := l.columnItems()
+	l.indexClusters(items)
 	l.bandHeights()
 	l.stack(items)
 	want := make([]float64, len(l.kind))
@@ -86,17 +87,38 @@ func (l *lay) height(it item) float64 {
 }
 
 // members returns the vertices of cluster c in column r.
-func (l *lay) members(c, r int) []int {
-	layer := l.layers[r]
-	i := 0
-	for i < len(layer) && l.cluster[layer[i]] != c+1 {
-		i++
+func (l *lay) members(c, r int) []int { return l.memb[c][r-l.spanLo[c]] }
+
+// indexClusters records, for each cluster and column of its span, its
+// vertices there and its place among the column's items, so that placing
+// costs no search through the columns.
+func (l *lay) indexClusters(items [][]item) {
+	k := len(l.g.Clusters)
+	l.memb, l.itemAt = make([][][]int, k), make([][]int, k)
+	for c := 0; c < k; c++ {
+		if l.spanLo[c] >= 0 {
+			l.memb[c] = make([][]int, l.spanHi[c]-l.spanLo[c]+1)
+			l.itemAt[c] = make([]int, l.spanHi[c]-l.spanLo[c]+1)
+		}
 	}
-	j := i
-	for j < len(layer) && l.cluster[layer[j]] == c+1 {
-		j++
+	for r, layer := range l.layers {
+		for i := 0; i < len(layer); {
+			c := l.cluster[layer[i]] - 1
+			j := i + 1
+			for c >= 0 && j < len(layer) && l.cluster[layer[j]] == c+1 {
+				j++
+			}
+			if c >= 0 {
+				l.memb[c][r-l.spanLo[c]] = layer[i:j]
+			}
+			i = j
+		}
+		for i, it := range items[r] {
+			if it.c >= 0 {
+				l.itemAt[it.c][r-l.spanLo[it.c]] = i
+			}
+		}
 	}
-	return layer[i:j]
 }
 
 // stackHeight is the height of vertices stacked with their gaps.
@@ -330,19 +352,14 @@ func (l *lay) bandRoom(items [][]item, c int) (float64, float64) {
 	lo, hi := math.Inf(-1), math.Inf(1)
 	self := item{v: -1, c: c}
 	for r := l.spanLo[c]; r <= l.spanHi[c]; r++ {
-		col := items[r]
-		for i, it := range col {
-			if it.c != c {
-				continue
-			}
-			if i > 0 {
-				a := col[i-1]
-				lo = math.Max(lo, l.top(a)+l.height(a)+l.sep(a, self)-l.bandTop[c])
-			}
-			if i+1 < len(col) {
-				b := col[i+1]
-				hi = math.Min(hi, l.top(b)-l.sep(self, b)-l.bandH[c]-l.bandTop[c])
-			}
+		col, i := items[r], l.itemAt[c][r-l.spanLo[c]]
+		if i > 0 {
+			a := col[i-1]
+			lo = math.Max(lo, l.top(a)+l.height(a)+l.sep(a, self)-l.bandTop[c])
+		}
+		if i+1 < len(col) {
+			b := col[i+1]
+			hi = math.Min(hi, l.top(b)-l.sep(self, b)-l.bandH[c]-l.bandTop[c])
 		}
 	}
 	return math.Min(lo, 0), math.Max(hi, 0)

@@ -33,6 +33,8 @@ type lay struct {
 	y              []float64 // top of each vertex
 	bandTop, bandH []float64 // per cluster
 	spanLo, spanHi []int     // per cluster: first and last column
+	memb           [][][]int // per cluster and column of its span: its vertices
+	itemAt         [][]int   // per cluster and column of its span: its item's index
 	colX, colW     []float64 // per column
 	drawW, drawH   float64
 }
@@ -147,6 +149,11 @@ func (l *lay) breakCycles() {
 }
 
 func (l *lay) normaliseRanks() {
+	l.spanLo = make([]int, len(l.g.Clusters))
+	l.spanHi = make([]int, len(l.g.Clusters))
+	for c := range l.spanLo {
+		l.spanLo[c], l.spanHi[c] = -1, -1
+	}
 	if l.n == 0 {
 		return
 	}
@@ -158,11 +165,6 @@ func (l *lay) normaliseRanks() {
 		l.rank[v] -= lo
 	}
 	l.ranks = hi - lo + 1
-	l.spanLo = make([]int, len(l.g.Clusters))
-	l.spanHi = make([]int, len(l.g.Clusters))
-	for c := range l.spanLo {
-		l.spanLo[c], l.spanHi[c] = -1, -1
-	}
 	for v := 0; v < l.n; v++ {
 		if c := l.cluster[v] - 1; c >= 0 {
 			if l.spanLo[c] < 0 || l.rank[v] < l.spanLo[c] {
