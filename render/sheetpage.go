@@ -39,8 +39,11 @@ func (pr *prose) render(p *page, s *project.Sheet, digits int) error {
 func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, pr *prose) ([]byte, error) {
 	digits := s.Digits(opt.Digits)
 	p := &page{}
-	// Pages run to about twenty times their source; growing once saves copies.
-	p.Grow(16<<10 + 24*len(s.Doc.Source))
+	// A page holds its prose and tables at about twice their source and
+	// about a kilobyte per statement. Reserving that grows the buffer about
+	// once; reserving 24 times the source, as once done, held half a
+	// gigabyte for a large table (issue 8).
+	p.Grow(16<<10 + 2*len(s.Doc.Source) + 1<<10*len(s.Calc.Statements))
 	fr := packageFrame(pkg, opt)
 	fr.title = s.Title()
 	fr.root = rel(s.Page)
