@@ -3,8 +3,8 @@ package render
 import (
 	"fmt"
 	"runtime"
-	"strings"
 	"runtime/metrics"
+	"strings"
 	"testing"
 	"time"
 
