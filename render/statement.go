@@ -27,6 +27,7 @@ type blockRenderer struct {
 func (r *blockRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 	reg.Register(ast.KindFencedCodeBlock, r.fenced)
 	reg.Register(ast.KindParagraph, r.paragraph)
+	reg.Register(ast.KindImage, r.image)
 }
 
 // paragraph draws prose paragraphs, and an assumption paragraph as a boxed
