@@ -7,6 +7,7 @@ import (
 	"bytes"
 	"fmt"
 	"html"
+	"net/url"
 	"path"
 	"runtime"
 	"strings"
@@ -255,6 +256,17 @@ func messageText(d diag.Diagnostic) string {
 func InputText(st *engine.Statement) (value, unit string) {
 	value, unit, _ = engine.LiteralText(st.Expr)
 	return value, unit
+}
+
+// pageHref is a page's address in a link: each part of its path
+// percent-encoded, so that a sheet named "a b#c%.md" links to
+// "sheets/a%20b%23c%25.html", then escaped for HTML.
+func pageHref(page string) string {
+	parts := strings.Split(page, "/")
+	for i, p := range parts {
+		parts[i] = url.PathEscape(p)
+	}
+	return esc(strings.Join(parts, "/"))
 }
 
 func pageOf(pkg *project.Package, file string) string {

@@ -142,7 +142,7 @@ func checksTable(p *page, checks []*engine.Statement, where func(*engine.Stateme
 			p.f("<td>%s</td>", esc(sheet))
 		}
 		p.f("<td><a href=\"%s#%s\"><code>%s</code></a></td><td class=\"num\">%s</td><td>%s</td><td class=\"num\">%s</td><td class=\"num\">%s</td><td>%s</td></tr>\n",
-			esc(pg), anchor(st), esc(instancePrefix(st)+st.Formula), esc(ValueText(st.Left, st.Shown, digits)), esc(relations[st.Compare().Op]),
+			pageHref(pg), anchor(st), esc(instancePrefix(st)+st.Formula), esc(ValueText(st.Left, st.Shown, digits)), esc(relations[st.Compare().Op]),
 			esc(ValueText(st.Right, st.Shown, digits)), esc(UtilisationText(st.Utilisation)), esc(st.Description))
 	}
 	p.f("</tbody>\n</table>\n")
