@@ -13,8 +13,8 @@ import (
 )
 
 // BenchmarkRender1000x50 renders the HTML pages of a package of 1,000
-// sheets of 50 statements, without the dependency graphs (whose layout
-// BenchmarkGraphs measures). Target: under 2 s per operation on a 2-core
+// sheets of 50 statements, without the dependency graphs (which
+// BenchmarkGraphs100x50 and BenchmarkGraphLayout measure). Target: under 2 s per operation on a 2-core
 // machine, on top of BenchmarkPackage1000x50.
 func BenchmarkRender1000x50(b *testing.B) {
 	pkg := project.FromFiles("bench", benchdata.Package(1000, 50))
@@ -40,8 +40,7 @@ func BenchmarkRender1000x50(b *testing.B) {
 }
 
 // BenchmarkGraphs100x50 renders the pages of 100 sheets of 50 statements
-// with their dependency graphs, laid out by Graphviz (no cache), and
-// reports the cost per sheet.
+// with their dependency graphs, and reports the cost per sheet.
 func BenchmarkGraphs100x50(b *testing.B) {
 	pkg := project.FromFiles("bench", benchdata.Package(100, 50))
 	opt := Options{Version: "bench"}
@@ -154,7 +153,7 @@ func tableSheet(rows int) []byte {
 }
 
 // BenchmarkSheetPageTable renders the page of one sheet holding a table
-// of 20,000 rows (about 0.5 MB of source), and reports the bytes
+// of 20,000 rows (about 0.43 MB of source), and reports the bytes
 // allocated per byte of source: memory should stay a small multiple of
 // the source, not the 24 times that was once reserved up front.
 func BenchmarkSheetPageTable(b *testing.B) {

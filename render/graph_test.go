@@ -3,6 +3,7 @@ package render
 import (
 	"bytes"
 	"encoding/xml"
+	"fmt"
 	"html"
 	"io"
 	"math"
@@ -242,5 +243,25 @@ func TestDemoGraphsHaveNoOverlaps(t *testing.T) {
 		if len(boxes) < 10 {
 			t.Errorf("%s: only %d boxes read back", s.Path(), len(boxes))
 		}
+	}
+}
+
+// A graph too large to draw (here: 300 statements that each use the
+// first, whose edges would need 44,850 waypoints) gives a note in its
+// place, quickly, and the rest of the page as usual.
+func TestTooLargeGraphGivesNote(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("```sheaf\nx_0 = 1 m ; first ; source: s\n")
+	for i := 1; i < 300; i++ {
+		fmt.Fprintf(&b, "x_%d = x_%d + x_0\n", i, i-1)
+	}
+	b.WriteString("```\n")
+	_, pages := build(t, map[string]string{"long.md": b.String()})
+	page := pages["sheets/long.html"]
+	if !strings.Contains(page, "too large to draw") || strings.Contains(page, `class="node"`) {
+		t.Error("the page does not say that its graph is too large to draw")
+	}
+	if !strings.Contains(page, "Inputs register") {
+		t.Error("the rest of the page is missing")
 	}
 }
