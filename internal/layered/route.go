@@ -88,7 +88,9 @@ func (l *lay) ports() (out, in []float64) {
 			step = math.Min(5, 0.6*l.h[v]/float64(len(es)-1))
 		}
 		for i, e := range es {
-			at[e] = l.centre(v) + (float64(i)-float64(len(es)-1)/2)*step
+			// The conversion rounds the product, so that no platform fuses
+			// it with the sum and draws a different file.
+			at[e] = l.centre(v) + float64((float64(i)-float64(len(es)-1)/2)*step)
 		}
 	}
 	for v := 0; v < l.n; v++ {
