@@ -1,11 +1,15 @@
 package main
 
 import (
+	"context"
 	"os"
 	"os/exec"
 	"path/filepath"
+	"runtime"
 	"strings"
+	"syscall"
 	"testing"
+	"time"
 )
 
 // sheafProcess runs sheaf in a process of its own (the test binary, see
@@ -95,5 +99,38 @@ func TestPlantedGraphCacheIsNotRead(t *testing.T) {
 	}
 	if graphs == 0 {
 		t.Fatal("the build drew no dependency graph")
+	}
+}
+
+// A file planted where go-graphviz kept its compiled WebAssembly
+// ($TMPDIR/go-graphviz/wazero-<version>-<arch>-<os>/<SHA-256 of the
+// module>) is never opened: each is a named pipe, which would hold any
+// reader until the deadline, and every command returns at once.
+func TestPlantedCompiledCodeIsNotRead(t *testing.T) {
+	tmp := t.TempDir()
+	const module = "65d05e8bbea8a6610d0686e4cb2ab62ff93a257de48b3587eb75f15ddf3c84ca" // Graphviz in go-graphviz v0.2.10
+	for _, v := range []string{"v1.10.1", "dev"} {
+		dir := filepath.Join(tmp, "go-graphviz", "wazero-"+v+"-"+runtime.GOARCH+"-"+runtime.GOOS)
+		if err := os.MkdirAll(dir, 0o755); err != nil {
+			t.Fatal(err)
+		}
+		if err := syscall.Mkfifo(filepath.Join(dir, module), 0o666); err != nil {
+			t.Fatal(err)
+		}
+	}
+	env := []string{"TMPDIR=" + tmp, "XDG_CACHE_HOME=" + t.TempDir(), "HOME=" + t.TempDir()}
+	for _, args := range [][]string{{"--version"}, {"build", demo, "-o", filepath.Join(t.TempDir(), "pkg")}} {
+		ctx, cancel := context.WithTimeout(context.Background(), 60*time.Second)
+		cmd := exec.CommandContext(ctx, os.Args[0], args...)
+		cmd.Env = append(append(os.Environ(), "SHEAF_RUN_MAIN=1"), env...)
+		out, err := cmd.CombinedOutput()
+		late := ctx.Err() == context.DeadlineExceeded
+		cancel()
+		if late {
+			t.Fatalf("sheaf %s opened a file planted in $TMPDIR/go-graphviz and waited on it", strings.Join(args, " "))
+		}
+		if err != nil {
+			t.Fatalf("sheaf %s: %v\n%s", strings.Join(args, " "), err, out)
+		}
 	}
 }
