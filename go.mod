@@ -4,7 +4,6 @@ go 1.26.8
 
 require (
 	github.com/expr-lang/expr v1.17.8
-	github.com/goccy/go-graphviz v0.2.10
 	github.com/santhosh-tekuri/jsonschema/v6 v6.0.3
 	github.com/spf13/cobra v1.10.2
 	github.com/yuin/goldmark v1.8.7
@@ -16,13 +15,7 @@ require (
 
 require (
 	github.com/BurntSushi/toml v1.2.1 // indirect
-	github.com/disintegration/imaging v1.6.2 // indirect
-	github.com/flopp/go-findfont v0.1.0 // indirect
-	github.com/fogleman/gg v1.3.0 // indirect
-	github.com/golang/freetype v0.0.0-20170609003504-e2365dfdc4a0 // indirect
 	github.com/inconshreveable/mousetrap v1.1.0 // indirect
 	github.com/spf13/pflag v1.0.9 // indirect
-	github.com/tetratelabs/wazero v1.10.1 // indirect
-	golang.org/x/image v0.25.0 // indirect
 	golang.org/x/text v0.23.0 // indirect
 )

@@ -28,8 +28,6 @@ type Options struct {
 	Version string
 	// NoGraphs leaves the dependency graphs out of the pages.
 	NoGraphs bool
-	// GraphCache is the folder where graph layouts are kept, or "".
-	GraphCache string
 	// SourceDateEpoch is the value of SOURCE_DATE_EPOCH, or "": the date
 	// the pages state comes from it or from the sources, never the clock.
 	SourceDateEpoch string
@@ -75,7 +73,7 @@ func Load(src string, opt Options) (*Result, error) {
 		Sources: sources,
 		Render: render.Options{
 			Digits: opt.Digits, Version: opt.Version, Audit: &report,
-			NoGraphs: opt.NoGraphs, GraphCache: opt.GraphCache,
+			NoGraphs: opt.NoGraphs,
 			// Dates come from the sources, never the clock: builds stay byte-identical.
 			BuildDate: pkg.BuildDate(opt.SourceDateEpoch),
 		},

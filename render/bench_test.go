@@ -1,8 +1,10 @@
 package render
 
 import (
+	"fmt"
 	"runtime"
 	"runtime/metrics"
+	"strings"
 	"testing"
 	"time"
 
@@ -11,8 +13,8 @@ import (
 )
 
 // BenchmarkRender1000x50 renders the HTML pages of a package of 1,000
-// sheets of 50 statements, without the dependency graphs (whose layout
-// BenchmarkGraphs measures). Target: under 2 s per operation on a 2-core
+// sheets of 50 statements, without the dependency graphs (which
+// BenchmarkGraphs100x50 and BenchmarkGraphLayout measure). Target: under 2 s per operation on a 2-core
 // machine, on top of BenchmarkPackage1000x50.
 func BenchmarkRender1000x50(b *testing.B) {
 	pkg := project.FromFiles("bench", benchdata.Package(1000, 50))
@@ -38,8 +40,7 @@ func BenchmarkRender1000x50(b *testing.B) {
 }
 
 // BenchmarkGraphs100x50 renders the pages of 100 sheets of 50 statements
-// with their dependency graphs, laid out by Graphviz (no cache), and
-// reports the cost per sheet.
+// with their dependency graphs, and reports the cost per sheet.
 func BenchmarkGraphs100x50(b *testing.B) {
 	pkg := project.FromFiles("bench", benchdata.Package(100, 50))
 	opt := Options{Version: "bench"}
@@ -137,4 +138,43 @@ func watchPeak() func() float64 {
 		<-done
 		return peak
 	}
+}
+
+// tableSheet is a sheet that reads a named table of the given number of
+// rows: a small calculation beside a large block of data.
+func tableSheet(rows int) []byte {
+	var b strings.Builder
+	b.WriteString("# Magnetisation curve\n\nTable BH: the steel's curve, as measured\n\n| H [A/m] | B [T] |\n|---|---|\n")
+	for i := 0; i < rows; i++ {
+		fmt.Fprintf(&b, "| %d | %.6f |\n", i*10, 2*float64(i)/float64(rows))
+	}
+	b.WriteString("\n```sheaf\nH_c = 500 A/m ; field strength ; source: design\nB_c = interp(BH.B, BH.H, H_c) ; flux density\ncheck B_c <= 2 T ; below saturation\n```\n")
+	return []byte(b.String())
+}
+
+// BenchmarkSheetPageTable renders the page of one sheet holding a table
+// of 20,000 rows (about 0.43 MB of source), and reports the bytes
+// allocated per byte of source: memory should stay a small multiple of
+// the source, not the 24 times that was once reserved up front.
+func BenchmarkSheetPageTable(b *testing.B) {
+	src := tableSheet(20000)
+	pkg := project.FromFiles("bench", map[string][]byte{"curve.md": src})
+	opt := Options{Version: "bench", NoGraphs: true}
+	pr := newProse()
+	b.ReportAllocs()
+	var before, after runtime.MemStats
+	runtime.ReadMemStats(&before)
+	b.ResetTimer()
+	var size int
+	for i := 0; i < b.N; i++ {
+		page, err := sheetPage(pkg, pkg.Sheets[0], opt, pr)
+		if err != nil {
+			b.Fatal(err)
+		}
+		size = len(page)
+	}
+	b.StopTimer()
+	runtime.ReadMemStats(&after)
+	b.ReportMetric(float64(after.TotalAlloc-before.TotalAlloc)/float64(b.N)/float64(len(src)), "alloc/source-byte")
+	b.ReportMetric(float64(size)/float64(len(src)), "page/source")
 }

@@ -7,6 +7,7 @@ import (
 	"bytes"
 	"fmt"
 	"html"
+	"net/url"
 	"path"
 	"runtime"
 	"strings"
@@ -25,12 +26,8 @@ type Options struct {
 	Digits int
 	// Version is the tool version printed in every footer.
 	Version string
-	// NoGraphs leaves the dependency graphs out; laying them out is the
-	// slowest part of rendering.
+	// NoGraphs leaves the dependency graphs out of the sheet pages.
 	NoGraphs bool
-	// GraphCache, when set, is a folder where graph layouts are kept by
-	// the hash of their input, so that rebuilds lay out only what changed.
-	GraphCache string
 	// BuildDate is the date the pages state, from the sources or
 	// SOURCE_DATE_EPOCH (see project.Package.BuildDate); "" states none.
 	BuildDate string
@@ -104,19 +101,10 @@ func WriteHTML(pkg *project.Package, opt Options, emit func(File) error) error {
 	}()
 	for w := 0; w < workers; w++ {
 		go func() {
-			var g *grapher
 			pr := newProse()
-			defer func() { g.close() }()
 			for i := range next {
 				s := pkg.Sheets[i]
-				var data []byte
-				var err error
-				if g == nil && !opt.NoGraphs {
-					g, err = newGrapher(opt.GraphCache)
-				}
-				if err == nil {
-					data, err = sheetPage(pkg, s, opt, g, pr)
-				}
+				data, err := sheetPage(pkg, s, opt, pr)
 				if err != nil {
 					err = fmt.Errorf("%s: %w", s.Path(), err)
 				}
@@ -268,6 +256,17 @@ func messageText(d diag.Diagnostic) string {
 func InputText(st *engine.Statement) (value, unit string) {
 	value, unit, _ = engine.LiteralText(st.Expr)
 	return value, unit
+}
+
+// pageHref is a page's address in a link: each part of its path
+// percent-encoded, so that a sheet named "a b#c%.md" links to
+// "sheets/a%20b%23c%25.html", then escaped for HTML.
+func pageHref(page string) string {
+	parts := strings.Split(page, "/")
+	for i, p := range parts {
+		parts[i] = url.PathEscape(p)
+	}
+	return esc(strings.Join(parts, "/"))
 }
 
 func pageOf(pkg *project.Package, file string) string {

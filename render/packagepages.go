@@ -78,7 +78,7 @@ func indexPage(pkg *project.Package, opt Options) []byte {
 	for _, s := range pkg.Sheets {
 		sc := s.Counts()
 		p.f("<tr><td><a href=\"%s\">%s</a><br><span class=\"loc\">%s</span></td><td>%s</td><td>%s</td><td class=\"num\">%d</td><td class=\"num\">%d</td><td class=\"num\">%d</td><td class=\"num\">%d</td></tr>\n",
-			esc(s.Page), esc(s.Title()), esc(s.Path()), esc(s.Doc.Meta.Subject), esc(s.Doc.Meta.Revision), sc.Results, sc.Pass, sc.Fail, sc.Errors)
+			pageHref(s.Page), esc(s.Title()), esc(s.Path()), esc(s.Doc.Meta.Subject), esc(s.Doc.Meta.Revision), sc.Results, sc.Pass, sc.Fail, sc.Errors)
 	}
 	p.f("</tbody>\n</table>\n")
 
@@ -113,7 +113,7 @@ func indexPage(pkg *project.Package, opt Options) []byte {
 	if len(pkg.Diags) > 0 {
 		p.f("<h2>Errors</h2>\n<ul>\n")
 		for _, d := range pkg.Diags {
-			p.f("<li><a class=\"loc\" href=\"%s#L%d\">%s</a> %s</li>\n", esc(pageOf(pkg, d.Pos.File)), d.Pos.Line, esc(d.Pos.String()), esc(messageText(d)))
+			p.f("<li><a class=\"loc\" href=\"%s#L%d\">%s</a> %s</li>\n", pageHref(pageOf(pkg, d.Pos.File)), d.Pos.Line, esc(d.Pos.String()), esc(messageText(d)))
 		}
 		p.f("</ul>\n")
 	}
@@ -151,7 +151,7 @@ func inputsPage(pkg *project.Package, opt Options) []byte {
 			}
 			value, unit := InputText(st)
 			p.f("<tr><td><a href=\"%s\">%s</a></td><td><a class=\"loc\" href=\"%s#%s\">%d</a></td><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td>%s</td></tr>\n",
-				esc(s.Page), esc(s.Path()), esc(s.Page), anchor(st), st.Pos.Line, symbolHTML(st.Name), esc(value), esc(unit), esc(st.Description), esc(st.Source), esc(SetBy(st)))
+				pageHref(s.Page), esc(s.Path()), pageHref(s.Page), anchor(st), st.Pos.Line, symbolHTML(st.Name), esc(value), esc(unit), esc(st.Description), esc(st.Source), esc(SetBy(st)))
 		}
 	}
 	p.f("</tbody>\n</table>\n")
@@ -171,8 +171,8 @@ func assumptionsPage(pkg *project.Package, opt Options) []byte {
 				p.f("<table>\n<thead><tr><th>Sheet</th><th>Assumption</th><th>Text</th><th>Results resting on it</th></tr></thead>\n<tbody>\n")
 			}
 			n++
-			p.f("<tr><td><a href=\"%s\">%s</a></td><td><a href=\"%s#%s\">%s</a></td><td>%s</td><td>", esc(s.Page), esc(s.Path()),
-				esc(s.Page), assumptionAnchor(a), esc(a.ID), esc(a.Text))
+			p.f("<tr><td><a href=\"%s\">%s</a></td><td><a href=\"%s#%s\">%s</a></td><td>%s</td><td>", pageHref(s.Page), esc(s.Path()),
+				pageHref(s.Page), assumptionAnchor(a), esc(a.ID), esc(a.Text))
 			for i, d := range a.Dependents {
 				if i > 0 {
 					p.f(", ")
@@ -181,7 +181,7 @@ func assumptionsPage(pkg *project.Package, opt Options) []byte {
 				if d.Kind == engine.Check {
 					name = "check " + esc(d.Formula)
 				}
-				p.f("<a href=\"%s#%s\">%s</a>", esc(s.Page), anchor(d), name)
+				p.f("<a href=\"%s#%s\">%s</a>", pageHref(s.Page), anchor(d), name)
 			}
 			p.f("</td></tr>\n")
 		}
@@ -227,7 +227,7 @@ func auditPage(pkg *project.Package, opt Options, r audit.Report) []byte {
 		p.f("</tr></thead>\n<tbody>\n")
 		for _, f := range rows {
 			p.f("<tr><td><code>%s</code></td><td><a class=\"loc\" href=\"%s#L%d\">%s</a></td><td>%s</td>",
-				esc(f.Code), esc(pageOf(pkg, f.Pos.File)), f.Pos.Line, esc(f.Pos.String()), esc(f.Message))
+				esc(f.Code), pageHref(pageOf(pkg, f.Pos.File)), f.Pos.Line, esc(f.Pos.String()), esc(f.Message))
 			if accepted {
 				p.f("<td>%s</td>", esc(f.Reason))
 			}

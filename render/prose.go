@@ -11,7 +11,8 @@ import (
 
 // blockRenderer draws sheaf's own constructs where the Markdown has them:
 // formula blocks (formulablock.go), assumptions (assumption.go) and named
-// tables' captions (tablecaption.go). Each construct is a node kind of the
+// tables' captions (tablecaption.go); and images (image.go), which load
+// nothing from the network. Each construct is a node kind of the
 // sheets package with one renderer here; a new construct is a new pair.
 type blockRenderer struct {
 	sheet  *project.Sheet
@@ -24,6 +25,7 @@ func (r *blockRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 	reg.Register(sheets.KindAssumption, r.assumption)
 	reg.Register(sheets.KindTableCaption, r.tableCaption)
 	reg.Register(ast.KindFencedCodeBlock, r.code)
+	reg.Register(ast.KindImage, r.image)
 }
 
 // code draws a fenced code block that is not a formula block as code.

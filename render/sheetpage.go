@@ -36,11 +36,14 @@ func (pr *prose) render(p *page, s *project.Sheet, digits int) error {
 	return pr.md.Renderer().Render(&p.Buffer, s.Doc.Source, s.Doc.Doc)
 }
 
-func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, g *grapher, pr *prose) ([]byte, error) {
+func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, pr *prose) ([]byte, error) {
 	digits := s.Digits(opt.Digits)
 	p := &page{}
-	// Pages run to about twenty times their source; growing once saves copies.
-	p.Grow(16<<10 + 24*len(s.Doc.Source))
+	// A page holds its prose and tables at about twice their source and
+	// about a kilobyte per statement. Reserving that grows the buffer about
+	// once; reserving 24 times the source, as once done, held half a
+	// gigabyte for a large table (issue 8).
+	p.Grow(16<<10 + 2*len(s.Doc.Source) + 1<<10*len(s.Calc.Statements))
 	fr := packageFrame(pkg, opt)
 	fr.title = s.Title()
 	fr.root = rel(s.Page)
@@ -55,8 +58,8 @@ func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, g *grapher, 
 		return nil, err
 	}
 	p.f("</article>\n")
-	if g != nil && len(s.Calc.Statements) > 0 {
-		svg, err := g.svg(graphDOT(s, digits))
+	if !opt.NoGraphs && len(s.Calc.Statements) > 0 {
+		svg, err := graphSVG(s, digits)
 		if err != nil {
 			return nil, err
 		}
@@ -139,7 +142,7 @@ func checksTable(p *page, checks []*engine.Statement, where func(*engine.Stateme
 			p.f("<td>%s</td>", esc(sheet))
 		}
 		p.f("<td><a href=\"%s#%s\"><code>%s</code></a></td><td class=\"num\">%s</td><td>%s</td><td class=\"num\">%s</td><td class=\"num\">%s</td><td>%s</td></tr>\n",
-			esc(pg), anchor(st), esc(instancePrefix(st)+st.Formula), esc(ValueText(st.Left, st.Shown, digits)), esc(relations[st.Compare().Op]),
+			pageHref(pg), anchor(st), esc(instancePrefix(st)+st.Formula), esc(ValueText(st.Left, st.Shown, digits)), esc(relations[st.Compare().Op]),
 			esc(ValueText(st.Right, st.Shown, digits)), esc(UtilisationText(st.Utilisation)), esc(st.Description))
 	}
 	p.f("</tbody>\n</table>\n")

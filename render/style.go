@@ -78,7 +78,7 @@ p.caption{font-weight:600;margin-bottom:.2rem}
 .util{font-variant-numeric:tabular-nums}
 .caution{border:1px solid var(--warn);background:var(--warn-bg);padding:.6rem .9rem;margin:1.5rem 0;font-size:.85rem}
 .graph figure{margin:.5rem 0;overflow-x:auto;border:1px solid var(--rule);border-radius:4px;padding:.5rem}
-.graph svg{max-width:100%;height:auto}
+.graph svg{display:block;max-width:none;height:auto}
 .graph a{text-decoration:none}
 footer{margin-top:2rem;border-top:1px solid var(--rule);padding-top:.5rem;font-size:.78rem;color:var(--muted)}
 @media print{
@@ -96,6 +96,8 @@ footer{margin-top:2rem;border-top:1px solid var(--rule);padding-top:.5rem;font-s
  table.frame>*>tr>td{display:table-cell}
  .titleblock{margin-bottom:4mm}
  details.trace{display:none}
+ .graph figure{overflow:visible}
+ .graph svg{max-width:100%}
  @page{size:A4;margin:14mm 14mm}
 }
 `

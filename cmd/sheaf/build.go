@@ -74,9 +74,6 @@ func buildCmd(stdout, stderr io.Writer) *cobra.Command {
 		RunE: func(cmd *cobra.Command, args []string) error {
 			res, err := flags.run(args[0], func(o *build.Options) {
 				o.Out, o.NoGraphs = out, noGraphs
-				if dir, err := os.UserCacheDir(); err == nil && !noGraphs {
-					o.GraphCache = filepath.Join(dir, "sheaf")
-				}
 			})
 			if err != nil {
 				return err
