@@ -704,7 +704,7 @@ func (c *converter) convert(n ast.Node) Expr {
 		default:
 			return c.fail(n, "formulas use + - * / ^", "operator %s is not supported", op)
 		}
-		x, y := c.convert(n.Left), c.convert(n.Right)
+		x, y := c.convertChain(n, n.Left), c.convert(n.Right)
 		if isComparison(op) {
 			for _, side := range []Expr{x, y} {
 				if b, ok := side.(*Binary); ok && isComparison(b.Op) {
@@ -742,6 +742,33 @@ func (c *converter) convert(n ast.Node) Expr {
 		return c.fail(n, "", "one formula per statement")
 	}
 	return c.fail(n, "formulas use names, numbers with units, + - * / ^ ( ) and functions", "this is not a formula sheaf understands")
+}
+
+// convertChain converts the left operand of a binary operation. A flat
+// sum or product (a + b + c, a * b / c) parses as a chain down the left:
+// its length is not nesting, so a link of the same precedence does not
+// count against the depth limit; only operands inside one another do.
+func (c *converter) convertChain(n *ast.BinaryNode, left ast.Node) Expr {
+	if l, ok := left.(*ast.BinaryNode); ok && sameLevel(n.Operator, l.Operator) {
+		c.depth--
+		defer func() { c.depth++ }()
+	}
+	return c.convert(left)
+}
+
+// sameLevel reports whether two operators chain left to right at one
+// precedence: + and -, or * and /.
+func sameLevel(a, b string) bool {
+	level := func(op string) int {
+		switch op {
+		case "+", "-":
+			return 1
+		case "*", "/":
+			return 2
+		}
+		return 0
+	}
+	return level(a) != 0 && level(a) == level(b)
 }
 
 func (c *converter) call(n ast.Node, name string, args []ast.Node, pos diag.Pos) Expr {

@@ -28,6 +28,7 @@ type Sheet struct {
 
 	byName map[string]*Statement
 	values []float64
+	budget *solveBudget // the solve statement being evaluated
 }
 
 // Lookup finds the definition of a name.

@@ -29,6 +29,22 @@ const SolveTolerance = 1e-12
 // MaxSolveIterations bounds the search.
 const MaxSolveIterations = 200
 
+// MaxSolveWork bounds the work of one solve statement, nested solves
+// included: the number of statement evaluations its search may spend
+// (every trial value evaluates the statements inside the search and the
+// relation). A solve inside another's search runs a whole search for
+// every trial of the outer one, so nesting multiplies the work; without
+// a bound, twenty nested solves run for minutes.
+const MaxSolveWork = 1_000_000
+
+// solveBudget is the work left to the solve statement being evaluated.
+type solveBudget struct {
+	left      int
+	depth     int // solves in progress, one inside another
+	deepest   int
+	exhausted bool
+}
+
 // isSolve reports whether a statement's formula is a solve(...).
 func isSolve(st *Statement) (*Call, bool) {
 	c, ok := st.Expr.(*Call)
@@ -313,6 +329,8 @@ func brent(f func(float64) float64, a, b, tol float64, maxIter int) (float64, er
 
 // evalSolve finds the unknown of a solve statement.
 func (s *Sheet) evalSolve(st *Statement) {
+	s.budget = &solveBudget{left: MaxSolveWork}
+	defer func() { s.budget = nil }()
 	root, unit, d := s.findRoot(st)
 	if d != nil {
 		s.fail(st, d)
@@ -329,22 +347,28 @@ func (s *Sheet) evalSolve(st *Statement) {
 // inside another's search runs its own search for every trial value.
 func (s *Sheet) findRoot(st *Statement) (float64, units.Unit, *diag.Diagnostic) {
 	sv := st.solve
+	b := s.budget
+	b.depth++
+	b.deepest = max(b.deepest, b.depth)
+	defer func() { b.depth-- }()
 	lo, hi := fnOf(sv.lo)(s.values), fnOf(sv.hi)(s.values)
 	unit := units.AutoUnit(math.Max(math.Abs(lo), math.Abs(hi)), st.Type.Dim, st.Type.Kind)
 	if st.Display != nil {
 		unit = *st.Display
 	}
-	at := func(x float64) string {
-		return st.Name + " = " + units.FormatNumber(unit.FromSI(x), 4) + " " + unit.Symbol
-	}
+	at := func(x float64) string { return st.Name + " = " + quantityText(x, unit) }
 	if !finite(lo) || !finite(hi) || lo >= hi {
-		return 0, unit, errAt(sv.lo.Pos(), "give the lowest value first and the highest second", "the bounds of solve are not an interval: %s to %s",
-			units.FormatNumber(unit.FromSI(lo), 4), units.FormatNumber(unit.FromSI(hi), 4))
+		return 0, unit, errAt(sv.lo.Pos(), "give the lowest value of "+st.Name+" first and the highest second", "the bounds of solve are not an interval: %s to %s",
+			quantityText(lo, unit), quantityText(hi, unit))
 	}
 	var failed *Statement
 	var failedAt float64
 	var failure *diag.Diagnostic
 	residual := func(x float64) float64 {
+		if b.left -= len(sv.inner) + 1; b.left < 0 {
+			b.exhausted = true
+			return math.NaN()
+		}
 		s.values[st.slot] = x
 		for _, in := range sv.inner {
 			var v float64
@@ -373,13 +397,23 @@ func (s *Sheet) findRoot(st *Statement) (float64, units.Unit, *diag.Diagnostic) 
 	tol := SolveTolerance * math.Max(math.Abs(lo), math.Abs(hi))
 	root, err := brent(residual, lo, hi, tol, MaxSolveIterations)
 	switch {
+	case b.exhausted:
+		return 0, unit, errAt(st.Expr.Pos(), "give the unknowns narrower bounds, or nest fewer solves inside one another (each runs a whole search for every trial of the one around it)",
+			"solving for %s stopped at the limit of %d evaluations of the statements inside its search (%d solves nested one inside another multiply their trials)",
+			st.Name, MaxSolveWork, b.deepest)
 	case failed != nil:
-		return 0, unit, errAt(st.Expr.Pos(), "narrow the bounds to where "+failed.Name+" can be evaluated",
+		// A failure deep inside nested solves is fixed at the innermost
+		// search: its hint names the unknown whose bounds to narrow.
+		hint := "narrow the bounds of " + st.Name + " to where " + failed.Name + " can be evaluated"
+		if failed.solve != nil && failure.Hint != "" {
+			hint = failure.Hint
+		}
+		return 0, unit, errAt(st.Expr.Pos(), hint,
 			"while solving for %s, at %s, %s could not be evaluated: %s", st.Name, at(failedAt), failed.Name, failure.Message)
 	case errors.Is(err, errNoBracket):
 		rl := s.residualText(sv, residual(lo))
 		rh := s.residualText(sv, residual(hi))
-		return 0, unit, errAt(st.Expr.Pos(), "widen the bounds so that the two sides cross between them, or check the relation",
+		return 0, unit, errAt(st.Expr.Pos(), "widen the bounds of "+st.Name+" so that the two sides cross between them, or check the relation",
 			"the bounds do not bracket a solution: the left side minus the right side is %s at %s and %s at %s, of the same sign",
 			rl, at(lo), rh, at(hi))
 	case err != nil:
@@ -392,6 +426,18 @@ func (s *Sheet) findRoot(st *Statement) (float64, units.Unit, *diag.Diagnostic) 
 // residualText writes a residual in a unit for the relation's sides.
 func (s *Sheet) residualText(sv *solveInfo, r float64) string {
 	t := sv.relation.X.Type()
-	u := units.AutoUnit(math.Abs(r), t.Dim, t.Kind)
-	return units.FormatNumber(u.FromSI(r), 4) + " " + u.Symbol
+	return quantityText(r, units.AutoUnit(math.Abs(r), t.Dim, t.Kind))
+}
+
+// quantityText writes an SI value in a unit to four figures, as a
+// quantity is written: "2.5 mm", "30°", and a pure number without a unit.
+func quantityText(v float64, u units.Unit) string {
+	n := units.FormatNumber(u.FromSI(v), 4)
+	switch {
+	case u.Symbol == "1" || u.Symbol == "":
+		return n
+	case units.SpaceBefore(u.Symbol):
+		return n + " " + u.Symbol
+	}
+	return n + u.Symbol
 }

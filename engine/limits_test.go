@@ -1,0 +1,176 @@
+package engine_test
+
+import (
+	"fmt"
+	"strings"
+	"testing"
+	"time"
+
+	"github.com/sheaf-calc/sheaf/diag"
+	"github.com/sheaf-calc/sheaf/engine"
+)
+
+// quickly is the generous bound within which a limit must give its
+// message, on a loaded machine too: without the limits these inputs ran
+// for minutes or ran out of memory.
+const quickly = 2 * time.Second
+
+// compileTimed compiles and evaluates a sheet and fails the test when it
+// takes longer than quickly.
+func compileTimed(t *testing.T, src engine.SheetSource, opt engine.Options) *engine.Sheet {
+	t.Helper()
+	start := time.Now()
+	s := engine.CompileWith(src, opt)
+	s.Evaluate()
+	if d := time.Since(start); d > quickly {
+		t.Fatalf("took %v; a limit must answer within %v", d, quickly)
+	}
+	return s
+}
+
+// block is a formula block of path whose first line is line 2.
+func block(path string, lines ...string) engine.Block {
+	b := engine.Block{Fence: diag.Pos{File: path, Line: 1, Col: 1}}
+	for i, l := range lines {
+		b.Lines = append(b.Lines, engine.Line{Text: l, Pos: diag.Pos{File: path, Line: i + 2, Col: 1}})
+	}
+	return b
+}
+
+// wantError asserts one error diagnostic at pos whose message holds msg.
+func wantError(t *testing.T, s *engine.Sheet, pos, msg string) {
+	t.Helper()
+	for _, d := range s.Diags {
+		if d.Pos.String() == pos && strings.Contains(d.Message, msg) {
+			return
+		}
+	}
+	t.Fatalf("no error at %s saying %q; got %v", pos, msg, s.Diags)
+}
+
+// wantValue asserts that an independent statement still has its result.
+func wantValue(t *testing.T, s *engine.Sheet, name string, si float64) {
+	t.Helper()
+	st := s.Lookup(name)
+	if st == nil || st.Status != engine.OK || st.Value != si {
+		t.Fatalf("%s should be %v: %+v", name, si, st)
+	}
+}
+
+// nestedSolves writes n solves, each inside the search of the next: x_1
+// is found for every trial of x_2, and so on up to x_n.
+func nestedSolves(n int) []string {
+	lines := []string{"x_0 = 1"}
+	for k := 1; k < n; k++ {
+		b := 10 * (k + 1)
+		lines = append(lines, fmt.Sprintf("x_%d = solve(x_%d + sin(x_%d) / 2 + exp(x_%d / 40) + x_%d / 100 == x_%d + 1, -%d, %d)", k, k, k, k, k+1, k-1, b, b))
+	}
+	lines = append(lines, fmt.Sprintf("x_%d = solve(x_%d == x_%d, -%d, %d)", n, n, n-1, 10*(n+1), 10*(n+1)))
+	return append(lines, "y = 2 m")
+}
+
+// Twenty nested solves ran for minutes (about six times longer for every
+// level); the work of one solve statement, nesting included, is bounded.
+func TestNestedSolveWorkLimit(t *testing.T) {
+	src := engine.SheetSource{Path: "r.md", Blocks: []engine.Block{block("r.md", nestedSolves(20)...)}}
+	s := compileTimed(t, src, engine.Options{})
+	// x_20 is the outermost search, on line 22; its formula starts at column 8.
+	wantError(t, s, "r.md:22:8", fmt.Sprintf("solving for x_20 stopped at the limit of %d evaluations", engine.MaxSolveWork))
+	wantError(t, s, "r.md:22:8", "20 solves nested one inside another")
+	wantValue(t, s, "y", 2)
+	wantValue(t, s, "x_0", 1)
+}
+
+// Four nested solves stay well inside the limit and agree with the
+// relations they solve.
+func TestNestedSolvesWithinLimit(t *testing.T) {
+	s := compileLines(nestedSolves(4)...)
+	if len(s.Diags) != 0 {
+		t.Fatalf("unexpected diagnostics: %v", s.Diags)
+	}
+	x3, x4 := s.Lookup("x_3").Value, s.Lookup("x_4").Value
+	if !near(x4, x3, 1e-9) {
+		t.Fatalf("x_4 = %v should equal x_3 = %v", x4, x3)
+	}
+}
+
+// A failure inside a nested solve names the unknown whose bounds to
+// narrow (P, whose search met G undefined), not the outer one, and a pure
+// number is written without a unit "1".
+func TestNestedSolveMessage(t *testing.T) {
+	s := compileLines(
+		"P_want = 2",
+		"I = solve(P == P_want, 0, 10)",
+		"F = 3 * I",
+		"G = sqrt(P - 1)",
+		"P = solve(F == G * 5, 0, 10)",
+		"z = 1000",
+	)
+	d := s.Lookup("I").Err
+	if d == nil {
+		t.Fatal("I should fail")
+	}
+	if d.Pos.String() != "r.md:3:5" {
+		t.Errorf("at %s, want r.md:3:5", d.Pos)
+	}
+	const msg = "while solving for I, at I = 0, P could not be evaluated: while solving for P, at P = 0, G could not be evaluated: square root of a negative number"
+	if d.Message != msg {
+		t.Errorf("message\n %s\nwant\n %s", d.Message, msg)
+	}
+	if d.Hint != "narrow the bounds of P to where G can be evaluated" {
+		t.Errorf("hint %q", d.Hint)
+	}
+	if strings.Contains(d.Message, " 1,") || strings.Contains(d.Message, "0 1") {
+		t.Errorf("a pure number written with the unit 1: %s", d.Message)
+	}
+	wantValue(t, s, "z", 1000)
+}
+
+// Bounds that do not bracket a root are written without "1" for pure
+// numbers, and the hint names the unknown.
+func TestSolveBracketMessagePureNumbers(t *testing.T) {
+	s := compileLines("x = solve(x^2 == -1000, 0, 1000)")
+	d := s.Lookup("x").Err
+	if d == nil {
+		t.Fatal("x should fail")
+	}
+	const msg = "the bounds do not bracket a solution: the left side minus the right side is 1000 at x = 0 and 1.001e+06 at x = 1000, of the same sign"
+	if d.Message != msg || !strings.Contains(d.Hint, "widen the bounds of x") {
+		t.Errorf("got %q; hint %q", d.Message, d.Hint)
+	}
+}
+
+// A flat sum or product of 2,400 terms is one level of nesting, not
+// 2,400; it was refused as "nested too deeply".
+func TestFlatSumIsNotNesting(t *testing.T) {
+	s := compileLines(
+		"a = 1 m",
+		"s = "+strings.Repeat("a + ", 2399)+"a",
+		"d = "+strings.Repeat("a - ", 2399)+"a",
+		"p = "+strings.Repeat("1 * ", 2399)+"1",
+		"q = "+strings.Repeat("2 / ", 2399)+"2",
+	)
+	if len(s.Diags) != 0 {
+		t.Fatalf("unexpected diagnostics: %v", s.Diags)
+	}
+	wantValue(t, s, "a", 1)
+	if v := s.Lookup("s").Value; v != 2400 {
+		t.Errorf("s = %v", v)
+	}
+	if v := s.Lookup("d").Value; v != -2398 {
+		t.Errorf("d = %v", v)
+	}
+}
+
+// Real nesting is still limited: a power tower and nested calls are
+// operations inside one another.
+func TestDeepNestingStillRefused(t *testing.T) {
+	s := compileLines(
+		"a = 1",
+		"t = "+strings.Repeat("a ^ ", 500)+"a",
+		"u = "+strings.Repeat("-", 500)+"a",
+	)
+	wantError(t, s, "r.md:3:1601", "formula nested too deeply")
+	wantError(t, s, "r.md:4:405", "formula nested too deeply")
+	wantValue(t, s, "a", 1)
+}
