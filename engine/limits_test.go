@@ -174,3 +174,129 @@ func TestDeepNestingStillRefused(t *testing.T) {
 	wantError(t, s, "r.md:4:405", "formula nested too deeply")
 	wantValue(t, s, "a", 1)
 }
+
+// templates is a resolver over template sources keyed by their path.
+func templates(srcs map[string]engine.SheetSource) engine.Resolver {
+	return func(ref, from string) (engine.SheetSource, string, error) {
+		src, ok := srcs[ref]
+		if !ok {
+			return engine.SheetSource{}, "", fmt.Errorf("no sheet %s", ref)
+		}
+		return src, ref, nil
+	}
+}
+
+// doubling writes templates t0 … t<levels>, each of which uses the next
+// twice; the last holds one statement.
+func doubling(levels int) map[string]engine.SheetSource {
+	srcs := map[string]engine.SheetSource{}
+	for k := 0; k <= levels; k++ {
+		name := fmt.Sprintf("t%d", k)
+		lines := []string{"v = 1"}
+		if k < levels {
+			next := fmt.Sprintf("t%d", k+1)
+			lines = append(lines, "use a = "+next, "use b = "+next)
+		}
+		srcs[name] = engine.SheetSource{Path: name + ".md", Blocks: []engine.Block{block(name+".md", lines...)}}
+	}
+	return srcs
+}
+
+// usingSheet is a sheet with an independent input, a use of t0 on line 3
+// and another independent input.
+func usingSheet() engine.SheetSource {
+	return engine.SheetSource{Path: "s.md", Blocks: []engine.Block{block("s.md", "l = 2 m", "use top = t0", "k = 3")}}
+}
+
+// Templates that each use the next twice, 30 levels deep, grew to
+// gigabytes: the nesting is refused at the using sheet's use statement.
+func TestTemplateDepthLimit(t *testing.T) {
+	s := compileTimed(t, usingSheet(), engine.Options{Resolve: templates(doubling(30))})
+	wantError(t, s, "s.md:3:11", fmt.Sprintf("templates nested more than %d deep: t0 → t1 → t2", engine.MaxTemplateDepth))
+	if len(s.Diags) != 1 {
+		t.Errorf("want one error, got %d: %v", len(s.Diags), s.Diags[:min(3, len(s.Diags))])
+	}
+	wantValue(t, s, "l", 2)
+	wantValue(t, s, "k", 3)
+}
+
+// Twelve doubling levels stay within the depth limit but make 8,190
+// instances: refused at the use statement, whole.
+func TestTemplateInstanceLimit(t *testing.T) {
+	s := compileTimed(t, usingSheet(), engine.Options{Resolve: templates(doubling(12))})
+	wantError(t, s, "s.md:3:11", fmt.Sprintf("the templates expand to more than %d instances", engine.MaxInstances))
+	if len(s.Diags) != 1 || len(s.Statements) != 3 {
+		t.Errorf("want one error and the three statements of the sheet, got %v and %d statements", s.Diags, len(s.Statements))
+	}
+	wantValue(t, s, "l", 2)
+	wantValue(t, s, "k", 3)
+	// Eight levels (510 instances) are fine.
+	s = compileTimed(t, usingSheet(), engine.Options{Resolve: templates(doubling(8))})
+	if len(s.Diags) != 0 || s.Lookup("top.a.b.a.v") == nil {
+		t.Fatalf("eight levels: %v", s.Diags)
+	}
+}
+
+// A few instances of a large template pass the statement limit.
+func TestTemplateStatementLimit(t *testing.T) {
+	lines := make([]string, 1000)
+	for i := range lines {
+		lines[i] = fmt.Sprintf("v_%d = %d", i, i)
+	}
+	big := engine.SheetSource{Path: "big.md", Blocks: []engine.Block{block("big.md", lines...)}}
+	var uses []string
+	n := engine.MaxStatements/1000 + 1
+	for i := range n {
+		uses = append(uses, fmt.Sprintf("use u_%d = big", i))
+	}
+	uses = append(uses, "k = 3")
+	src := engine.SheetSource{Path: "s.md", Blocks: []engine.Block{block("s.md", uses...)}}
+	s := compileTimed(t, src, engine.Options{Resolve: templates(map[string]engine.SheetSource{"big": big})})
+	// The sheet's own n+1 statements count too; u_i is on line i+2.
+	i, total := 0, n+1+1000
+	for ; total <= engine.MaxStatements; total += 1000 {
+		i++
+	}
+	wantError(t, s, fmt.Sprintf("s.md:%d:%d", i+2, len(fmt.Sprintf("use u_%d = ", i))+1), fmt.Sprintf("the templates expand to more than %d statements", engine.MaxStatements))
+	wantValue(t, s, "k", 3)
+	wantValue(t, s, "u_0.v_7", 7)
+}
+
+// A sheet of its own statements past the limit keeps those before it.
+func TestSheetStatementLimit(t *testing.T) {
+	lines := make([]string, engine.MaxStatements+5)
+	for i := range lines {
+		lines[i] = fmt.Sprintf("v_%d = %d", i, i)
+	}
+	s := compileTimed(t, engine.SheetSource{Path: "s.md", Blocks: []engine.Block{block("s.md", lines...)}}, engine.Options{})
+	wantError(t, s, fmt.Sprintf("s.md:%d:1", engine.MaxStatements+2), fmt.Sprintf("the sheet has more than %d statements", engine.MaxStatements))
+	if len(s.Statements) != engine.MaxStatements {
+		t.Errorf("%d statements compiled", len(s.Statements))
+	}
+	wantValue(t, s, "v_0", 0)
+}
+
+// A table of more rows than the limit is an error at its caption; the
+// statements that do not read it keep their results.
+func TestTableRowLimit(t *testing.T) {
+	ts := engine.TableSource{Name: "BH", Pos: diag.Pos{File: "s.md", Line: 3, Col: 1},
+		Header: []engine.CellSource{{Text: "H [A/m]"}, {Text: "B [T]"}}}
+	for i := range engine.MaxTableRows + 1 {
+		ts.Rows = append(ts.Rows, []engine.CellSource{{Text: fmt.Sprint(i)}, {Text: fmt.Sprint(float64(i) / 1e4)}})
+	}
+	src := engine.SheetSource{Path: "s.md", Tables: []engine.TableSource{ts},
+		Blocks: []engine.Block{block("s.md", "B = interp(BH.B, BH.H, 5 A/m)", "k = 3")}}
+	s := compileTimed(t, src, engine.Options{})
+	wantError(t, s, "s.md:3:1", fmt.Sprintf("table BH has more than %d rows", engine.MaxTableRows))
+	wantValue(t, s, "k", 3)
+	ts.Rows = ts.Rows[:engine.MaxTableRows]
+	s = compileTimed(t, src2(src, ts), engine.Options{})
+	if b := s.Lookup("B"); b == nil || b.Status != engine.OK || !near(b.Value, 5e-4, 1e-12) {
+		t.Fatalf("a table of %d rows: %v", engine.MaxTableRows, s.Diags)
+	}
+}
+
+func src2(src engine.SheetSource, ts engine.TableSource) engine.SheetSource {
+	src.Tables = []engine.TableSource{ts}
+	return src
+}

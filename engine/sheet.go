@@ -51,6 +51,15 @@ func CompileWith(src SheetSource, opt Options) *Sheet {
 			s.Diags.Add(b.Fence, "write at least one statement, or remove the block", "formula block is empty")
 			continue
 		}
+		over := len(parsed)+len(texts) > MaxStatements
+		if over {
+			// The statements past the limit are not compiled; those before
+			// it keep their results.
+			keep := MaxStatements - len(parsed)
+			s.Diags.Add(texts[keep].pos(skipSpace(texts[keep].runes, 0)), "split the sheet into several sheets",
+				"the sheet has more than %d statements, the limit for one sheet; this one and those after it are not evaluated", MaxStatements)
+			texts = texts[:keep]
+		}
 		for _, t := range texts {
 			st, err := parseStatement(t)
 			st.Block = bi
@@ -59,8 +68,11 @@ func CompileWith(src SheetSource, opt Options) *Sheet {
 				s.fail(st, err)
 			}
 		}
+		if over {
+			break
+		}
 	}
-	x := &expander{sheet: s, resolve: opt.Resolve, stack: []string{src.Path}}
+	x := &expander{sheet: s, resolve: opt.Resolve, stack: []string{src.Path}, statements: len(parsed)}
 	s.Statements = x.expand(parsed, src.Path)
 	for _, ts := range append(src.Tables, x.tables...) {
 		t := readTable(ts, ts.Name)

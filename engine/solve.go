@@ -35,7 +35,7 @@ const MaxSolveIterations = 200
 // relation). A solve inside another's search runs a whole search for
 // every trial of the outer one, so nesting multiplies the work; without
 // a bound, twenty nested solves run for minutes.
-const MaxSolveWork = 1_000_000
+const MaxSolveWork = 250_000
 
 // solveBudget is the work left to the solve statement being evaluated.
 type solveBudget struct {

@@ -61,6 +61,10 @@ func readTable(src TableSource, name string) *Table {
 	if len(src.Header) == 0 || len(src.Rows) < 2 {
 		return fail(errAt(src.Pos, "give the table a header row and at least two rows of values", "table %s has too few rows", name))
 	}
+	if len(src.Rows) > MaxTableRows {
+		return fail(errAt(src.Pos, "keep long data in several tables, or thin it to the points the calculation needs",
+			"table %s has more than %d rows, the limit for one table", name, MaxTableRows))
+	}
 	seen := map[string]bool{}
 	for _, h := range src.Header {
 		colName, unitText, _ := strings.Cut(strings.TrimSpace(h.Text), "[")

@@ -106,6 +106,11 @@ var (
 // Parse reads a sheet. It never fails: problems become diagnostics in
 // Sheet.Diags, and whatever could be read is kept.
 func Parse(path string, raw []byte) *Sheet {
+	if d := tooLarge(path, raw); d != nil {
+		s := &Sheet{Path: path, Diags: diag.List{*d}, index: newLineIndex(nil)}
+		s.Doc = plain.Parser().Parse(text.NewReader(nil))
+		return s
+	}
 	src, diags := cleanSource(path, raw)
 	src = tidyFrontMatterFences(src)
 	s := &Sheet{Path: path, Source: src, Diags: diags, index: newLineIndex(src)}
@@ -283,8 +288,8 @@ func (s *Sheet) collectTable(p *ast.Paragraph) {
 		}
 		if _, header := row.(*east.TableHeader); header {
 			t.Header = cells
-		} else {
-			t.Rows = append(t.Rows, cells)
+		} else if t.Rows = append(t.Rows, cells); len(t.Rows) > MaxTableRows {
+			break
 		}
 	}
 	s.Tables = append(s.Tables, t)
