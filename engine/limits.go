@@ -8,3 +8,8 @@ const MaxStatements = 20_000
 // MaxTableRows bounds the rows of one table. Tables hold curves and
 // measured points; a longer one is data for another tool.
 const MaxTableRows = 10_000
+
+// MaxSolves bounds the solve statements of one sheet, templates included.
+// Linking a solve to the statements inside its search looks through the
+// sheet's dependencies, so the cost grows with solves times statements.
+const MaxSolves = 200

@@ -300,3 +300,54 @@ func src2(src engine.SheetSource, ts engine.TableSource) engine.SheetSource {
 	src.Tables = []engine.TableSource{ts}
 	return src
 }
+
+// lines writes n statements with f(i) and an independent k = 3 last.
+func lines(n int, f func(i int) string) []string {
+	out := make([]string, 0, n+1)
+	for i := range n {
+		out = append(out, f(i))
+	}
+	return append(out, "k = 3")
+}
+
+// A sheet of thousands of unknown names looked for a close name to each
+// among all the others: 15 s for 5,000. The first few get a suggestion.
+func TestManyUnknownNamesQuick(t *testing.T) {
+	src := engine.SheetSource{Path: "r.md", Blocks: []engine.Block{block("r.md", lines(engine.MaxStatements-1, func(i int) string {
+		return fmt.Sprintf("x_%d = y_%d", i, i)
+	})...)}}
+	s := compileTimed(t, src, engine.Options{})
+	wantError(t, s, "r.md:2:7", "unknown name y_0")
+	if h := s.Lookup("x_0").Err.Hint; !strings.Contains(h, "did you mean") {
+		t.Errorf("the first unknown name gets no suggestion: %q", h)
+	}
+	wantValue(t, s, "k", 3)
+}
+
+// Every member of a long cycle listed every other: 20,000 members took
+// minutes and gigabytes. The message lists the first few and the count.
+func TestLongCycleQuick(t *testing.T) {
+	n := engine.MaxStatements - 1
+	src := engine.SheetSource{Path: "r.md", Blocks: []engine.Block{block("r.md", lines(n, func(i int) string {
+		return fmt.Sprintf("a_%d = a_%d + 1 m", i, (i+n-1)%n)
+	})...)}}
+	s := compileTimed(t, src, engine.Options{})
+	wantError(t, s, "r.md:2:1", fmt.Sprintf("a_0 is defined in terms of itself: a_0 → a_%d → a_%d", n-1, n-2))
+	wantError(t, s, "r.md:2:1", fmt.Sprintf("… (%d statements in all) → a_0", n))
+	wantValue(t, s, "k", 3)
+}
+
+// Past MaxSolves, solve statements are refused at their formula; the
+// ones before keep their results, and so do statements that use none.
+func TestSolveCountLimit(t *testing.T) {
+	src := engine.SheetSource{Path: "r.md", Blocks: []engine.Block{block("r.md", append([]string{"x_0 = 1"}, lines(engine.MaxSolves+50, func(i int) string {
+		return fmt.Sprintf("x_%d = solve(x_%d^2 == x_%d + 1, 0, 100)", i+1, i+1, i)
+	})...)...)}}
+	s := compileTimed(t, src, engine.Options{})
+	n := engine.MaxSolves + 1
+	wantError(t, s, fmt.Sprintf("r.md:%d:%d", n+2, len(fmt.Sprintf("x_%d = ", n))+1), fmt.Sprintf("the sheet has more than %d solve statements", engine.MaxSolves))
+	if x := s.Lookup("x_1"); x == nil || x.Status != engine.OK || !near(x.Value*x.Value, 2, 1e-9) {
+		t.Fatalf("x_1: %+v", x)
+	}
+	wantValue(t, s, "k", 3)
+}

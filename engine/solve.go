@@ -133,7 +133,7 @@ func (s *Sheet) linkSolves() {
 		inner := s.innerOf(st)
 		st.solve.needed = map[*Statement]bool{}
 		for _, n := range closure(st.solve.refs, func(x *Statement) []*Statement { return x.Deps }) {
-			if inner[n] {
+			if inner(n) {
 				st.solve.needed[n] = true
 			}
 		}
@@ -143,7 +143,7 @@ func (s *Sheet) linkSolves() {
 // givens lists the statements a solve's search takes as given: those its
 // relation names, and those its inner statements use, that do not depend
 // on the unknown.
-func (s *Sheet) givens(st *Statement, inner map[*Statement]bool) []*Statement {
+func (s *Sheet) givens(st *Statement, inner func(*Statement) bool) []*Statement {
 	var out []*Statement
 	seen := map[*Statement]bool{st: true}
 	var walk func(x *Statement)
@@ -152,7 +152,7 @@ func (s *Sheet) givens(st *Statement, inner map[*Statement]bool) []*Statement {
 			return
 		}
 		seen[x] = true
-		if !inner[x] {
+		if !inner(x) {
 			out = append(out, x)
 			return
 		}
@@ -166,20 +166,49 @@ func (s *Sheet) givens(st *Statement, inner map[*Statement]bool) []*Statement {
 	return out
 }
 
-// innerOf is the set of statements that depend on a solve's unknown.
-func (s *Sheet) innerOf(st *Statement) map[*Statement]bool {
-	inner := map[*Statement]bool{}
-	for _, u := range closure(st.Users, func(x *Statement) []*Statement { return x.Users }) {
-		inner[u] = true
+// innerOf tells the statements that depend on a solve's unknown. It
+// looks only where it is asked, down the dependencies of the statement
+// asked about: a search needs to know this of the statements its relation
+// reaches, which are few, not of everything that uses the unknown, which
+// may be most of the sheet.
+func (s *Sheet) innerOf(st *Statement) func(*Statement) bool {
+	const (
+		unknown = iota
+		visiting
+		yes
+		no
+	)
+	state := map[*Statement]int{}
+	var depends func(x *Statement) bool
+	depends = func(x *Statement) bool {
+		switch state[x] {
+		case yes:
+			return true
+		case no, visiting:
+			return false // a cycle, reported when the sheet is ordered
+		}
+		state[x] = visiting
+		found := false
+		for _, d := range x.Deps {
+			if d == st || depends(d) {
+				found = true
+				break
+			}
+		}
+		state[x] = no
+		if found {
+			state[x] = yes
+		}
+		return found
 	}
-	return inner
+	return depends
 }
 
 // relationReaches reports whether a solve's relation names its unknown or
 // a statement that depends on it.
-func (s *Sheet) relationReaches(st *Statement, inner map[*Statement]bool) bool {
+func (s *Sheet) relationReaches(st *Statement, inner func(*Statement) bool) bool {
 	for _, r := range st.solve.refs {
-		if r == st || inner[r] {
+		if r == st || inner(r) {
 			return true
 		}
 	}
