@@ -2,6 +2,7 @@ package engine
 
 import (
 	"fmt"
+	"math"
 	"slices"
 	"strings"
 	"testing"
@@ -89,6 +90,29 @@ func BenchmarkRestsOnChain(b *testing.B) {
 			if in, _ := s.RestsOn(st); len(in) != 1 {
 				b.Fatalf("%s rests on %d inputs", st.Name, len(in))
 			}
+		}
+	}
+}
+
+// exactIndex finds the same row as a scan of every row for the first x
+// equal to the key within a relative 1e-9: among repeats, near repeats,
+// zero, negative values and keys between rows.
+func TestExactIndexAgreesWithScan(t *testing.T) {
+	vals := []float64{5, -3, 0, 1e-300, 2, 2, 2 * (1 + 5e-10), 2 * (1 - 5e-10), 7e12, -0.0, 1e9, 1e9 + 0.5, -3}
+	c := &Column{Values: vals}
+	ix := newExactIndex(c)
+	scan := func(key float64) int {
+		for i, v := range vals {
+			if sameX(v, key) {
+				return i
+			}
+		}
+		return -1
+	}
+	keys := append([]float64{2 * (1 + 1.4e-9), 2 * (1 - 1.4e-9), 1.5, 0.1, 1e-301, -1e-300, 1e9 + 0.9, math.NaN()}, vals...)
+	for _, k := range keys {
+		if got, want := ix.find(k), scan(k); got != want {
+			t.Errorf("key %v: row %d, a scan finds %d", k, got, want)
 		}
 	}
 }
