@@ -50,7 +50,7 @@ func LoadRevision(spec string) (*Package, error) {
 		if root == "." {
 			rel = h.Name
 		}
-		if rel == h.Name && root != "." || hiddenPath(rel) {
+		if rel == h.Name && root != "." || inDotFolder(rel) {
 			continue
 		}
 		data, err := io.ReadAll(tr)
@@ -73,18 +73,6 @@ func pathspec(folder string) string {
 		return "."
 	}
 	return strings.TrimSuffix(folder, "/")
-}
-
-// hiddenPath mirrors Load: folders whose names start with . or _ are
-// skipped.
-func hiddenPath(rel string) bool {
-	parts := strings.Split(rel, "/")
-	for _, p := range parts[:len(parts)-1] {
-		if strings.HasPrefix(p, ".") || strings.HasPrefix(p, "_") {
-			return true
-		}
-	}
-	return false
 }
 
 func git(args ...string) ([]byte, error) {
