@@ -98,7 +98,7 @@ func BenchmarkRestsOnChain(b *testing.B) {
 // equal to the key within a relative 1e-9: among repeats, near repeats,
 // zero, negative values and keys between rows.
 func TestExactIndexAgreesWithScan(t *testing.T) {
-	vals := []float64{5, -3, 0, 1e-300, 2, 2, 2 * (1 + 5e-10), 2 * (1 - 5e-10), 7e12, -0.0, 1e9, 1e9 + 0.5, -3}
+	vals := []float64{5, -3, 0, 1e-300, 2, 2, 2 * (1 + 5e-10), 2 * (1 - 5e-10), 7e12, math.Copysign(0, -1), 1e9, 1e9 + 0.5, -3}
 	c := &Column{Values: vals}
 	ix := newExactIndex(c)
 	scan := func(key float64) int {
