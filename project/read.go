@@ -82,13 +82,16 @@ func (f *folder) read(rel string) ([]byte, error) {
 func (f *folder) readAll() (map[string][]byte, error) {
 	files := map[string][]byte{}
 	var leaving []error
-	err := filepath.WalkDir(f.root, func(p string, d fs.DirEntry, err error) error {
+	// A trailing separator makes the walk follow the folder itself when it
+	// is a link: the folder as given is the package, wherever it lies.
+	top := f.root + string(filepath.Separator)
+	err := filepath.WalkDir(top, func(p string, d fs.DirEntry, err error) error {
 		if err != nil {
 			return err
 		}
 		name := d.Name()
 		if d.IsDir() {
-			if p != f.root && strings.HasPrefix(name, ".") {
+			if p != top && strings.HasPrefix(name, ".") {
 				return filepath.SkipDir
 			}
 			return nil

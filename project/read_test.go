@@ -171,3 +171,18 @@ func TestOneSheetReadsOnlyWhatItUses(t *testing.T) {
 		t.Fatalf("a.lambda: %+v", st)
 	}
 }
+
+// The package folder itself may be named through a link: the folder as
+// given is the package, and its files are read.
+func TestPackageFolderGivenAsLink(t *testing.T) {
+	base := t.TempDir()
+	writeFiles(t, base, map[string]string{"real/a.md": otherSheet})
+	symlink(t, filepath.Join(base, "real"), filepath.Join(base, "link"))
+	pkg, err := project.Load(filepath.Join(base, "link"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(pkg.Sheets) != 1 || len(pkg.Diags) != 0 {
+		t.Fatalf("%d sheets, diagnostics %v", len(pkg.Sheets), pkg.Diags)
+	}
+}
