@@ -12,6 +12,7 @@ import (
 	"math"
 	"path"
 	"regexp"
+	"slices"
 	"sort"
 	"strings"
 
@@ -422,6 +423,12 @@ func statementLines(pkg *project.Package) map[string][]int {
 			lines[st.Pos.File] = append(lines[st.Pos.File], st.Pos.Line)
 		}
 	}
+	// Sorted, so that statementLine finds a line by binary search: a
+	// sheet of many statements with many findings stays fast.
+	for f, l := range lines {
+		slices.Sort(l)
+		lines[f] = slices.Compact(l)
+	}
 	return lines
 }
 
@@ -436,13 +443,15 @@ func statementLine(lines map[string][]int, f Finding) int {
 	if !ok {
 		return f.Pos.Line
 	}
-	best := 1
-	for _, l := range starts {
-		if l <= f.Pos.Line && l > best {
-			best = l
-		}
+	// The last start at or before the finding's line.
+	i, found := slices.BinarySearch(starts, f.Pos.Line)
+	if !found {
+		i--
 	}
-	return best
+	if i < 0 || starts[i] < 1 {
+		return 1
+	}
+	return starts[i]
 }
 
 // handTransfers finds inputs whose source names another sheet of the

@@ -139,3 +139,14 @@ func TestEveryRuleHasAStableDocumentedCode(t *testing.T) {
 		seen[r.Code] = true
 	}
 }
+
+// A finding on the second line of a statement belongs to the statement,
+// whose acceptance is written on its first line's annotations.
+func TestAcceptanceOfContinuedStatement(t *testing.T) {
+	r := run(t, map[string]string{"a.md": front + "```sheaf\nx = 1.5 m ; a length ; source: drawing\n" +
+		"y = x * (1 +\n    0.07) ; scaled ; accept buried-number: the margin the client fixed\nz = y ; used ; source: drawing\n```\n"})
+	got := find(r, "buried-number")
+	if len(got) != 1 || got[0].Pos.Line != 9 || !got[0].Accepted {
+		t.Fatalf("buried-number findings: %+v", got)
+	}
+}

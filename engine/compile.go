@@ -237,9 +237,9 @@ func compileCall(n *Call) evalFn {
 			ip := n.table
 			return func(v []float64) float64 { return ip.at(x(v)) }
 		}
-		xs, ys := n.x, n.y
+		ix, ys := newExactIndex(n.x), n.y
 		return func(v []float64) float64 {
-			if i := lookupIndex(xs, x(v)); i >= 0 {
+			if i := ix.find(x(v)); i >= 0 {
 				return ys.Values[i]
 			}
 			return math.NaN()

@@ -188,7 +188,7 @@ func (p *Program) eval(f *Frame, ki int) {
 	case st.Kind == Check:
 		p.evalCheck(f, k)
 	case st.solve != nil:
-		root, d := p.findRoot(f, st)
+		root, d := p.solveRoot(f, st)
 		if d != nil {
 			p.fail(f, k.slot, d)
 			return

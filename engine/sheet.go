@@ -3,8 +3,10 @@ package engine
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strings"
+	"sync"
 
 	"github.com/sheaf-calc/sheaf/diag"
 	"github.com/sheaf-calc/sheaf/units"
@@ -28,6 +30,13 @@ type Sheet struct {
 
 	byName map[string]*Statement
 	prog   *Program
+	// names are the sheet's names and the constants, sorted, once an
+	// unknown name needs them; suggested counts the looks for a close one.
+	names     []string
+	suggested int
+	// traces are what each statement rests on, worked out once.
+	traceOnce sync.Once
+	traces    []trace
 }
 
 // Lookup finds the definition of a name.
@@ -50,6 +59,15 @@ func CompileWith(src SheetSource, opt Options) *Sheet {
 			s.Diags.Add(b.Fence, "write at least one statement, or remove the block", "formula block is empty")
 			continue
 		}
+		over := len(parsed)+len(texts) > MaxStatements
+		if over {
+			// The statements past the limit are not compiled; those before
+			// it keep their results.
+			keep := MaxStatements - len(parsed)
+			s.Diags.Add(texts[keep].pos(skipSpace(texts[keep].runes, 0)), "split the sheet into several sheets",
+				"the sheet has more than %d statements, the limit for one sheet; this one and those after it are not evaluated", MaxStatements)
+			texts = texts[:keep]
+		}
 		for _, t := range texts {
 			st, err := parseStatement(t)
 			st.Block = bi
@@ -58,8 +76,11 @@ func CompileWith(src SheetSource, opt Options) *Sheet {
 				s.fail(st, err)
 			}
 		}
+		if over {
+			break
+		}
 	}
-	x := &expander{sheet: s, resolve: opt.Resolve, stack: []string{src.Path}}
+	x := &expander{sheet: s, resolve: opt.Resolve, stack: []string{src.Path}, statements: len(parsed)}
 	s.Statements = x.expand(parsed, src.Path)
 	for _, ts := range append(src.Tables, x.tables...) {
 		t := readTable(ts, ts.Name)
@@ -68,6 +89,7 @@ func CompileWith(src SheetSource, opt Options) *Sheet {
 		}
 		s.Tables = append(s.Tables, t)
 	}
+	solves := 0
 	for i, st := range s.Statements {
 		st.Index, st.slot = i, i
 		if st.Status == Failed || st.Expr == nil {
@@ -76,7 +98,10 @@ func CompileWith(src SheetSource, opt Options) *Sheet {
 		if err := solveOutside(st); err != nil {
 			s.fail(st, err)
 		} else if _, ok := isSolve(st); ok {
-			if err := prepareSolve(st); err != nil {
+			if solves++; solves > MaxSolves {
+				s.fail(st, errAt(st.Expr.Pos(), "split the sheet into several sheets",
+					"the sheet has more than %d solve statements, the limit for one sheet; this one is not evaluated", MaxSolves))
+			} else if err := prepareSolve(st); err != nil {
 				s.fail(st, err)
 			}
 		}
@@ -209,18 +234,27 @@ func (s *Sheet) resolveColumn(r *Ref) *diag.Diagnostic {
 	return nil
 }
 
+// maxSuggestions bounds the unknown names of a sheet for which a close
+// name is looked for: each look compares with every name of the sheet,
+// so a sheet of thousands of unknown names would take minutes.
+const maxSuggestions = 50
+
 func (s *Sheet) unknownName(r *Ref) *diag.Diagnostic {
-	names := make([]string, 0, len(s.byName)+len(units.Constants))
-	for n := range s.byName {
-		names = append(names, n)
+	if s.names == nil {
+		s.names = make([]string, 0, len(s.byName)+len(units.Constants))
+		for n := range s.byName {
+			s.names = append(s.names, n)
+		}
+		for _, c := range units.Constants {
+			s.names = append(s.names, c.Name)
+		}
+		sort.Strings(s.names)
 	}
-	for _, c := range units.Constants {
-		names = append(names, c.Name)
-	}
-	sort.Strings(names)
 	hint := "define it in this sheet"
-	if c := closest(r.Name, names); c != "" {
-		hint = "did you mean " + c + "?"
+	if s.suggested++; s.suggested <= maxSuggestions {
+		if c := closest(r.Name, s.names); c != "" {
+			hint = "did you mean " + c + "?"
+		}
 	}
 	if _, isUnit := units.Lookup(r.Name); isUnit {
 		hint += " (" + r.Name + " is a unit: a unit must follow a number, as in 1 " + r.Name + ")"
@@ -269,10 +303,21 @@ func (s *Sheet) order() {
 	}
 }
 
+// maxCycleNames bounds the names a cycle's message lists: every member
+// of the cycle gets the message, so listing all of a long cycle would
+// take memory in the square of its length.
+const maxCycleNames = 8
+
 func (s *Sheet) cycle(members []*Statement) {
-	names := make([]string, 0, len(members)+1)
-	for _, m := range members {
+	if !slices.ContainsFunc(members, func(m *Statement) bool { return m.Status != Failed }) {
+		return // reported already, through another statement that uses it
+	}
+	names := make([]string, 0, maxCycleNames+2)
+	for _, m := range members[:min(len(members), maxCycleNames)] {
 		names = append(names, m.Name)
+	}
+	if len(members) > maxCycleNames {
+		names = append(names, fmt.Sprintf("… (%d statements in all)", len(members)))
 	}
 	names = append(names, members[0].Name)
 	path := strings.Join(names, " → ")

@@ -29,6 +29,22 @@ const SolveTolerance = 1e-12
 // MaxSolveIterations bounds the search.
 const MaxSolveIterations = 200
 
+// MaxSolveWork bounds the work of one solve statement, nested solves
+// included: the number of statement evaluations its search may spend
+// (every trial value evaluates the statements inside the search and the
+// relation). A solve inside another's search runs a whole search for
+// every trial of the outer one, so nesting multiplies the work; without
+// a bound, twenty nested solves run for minutes.
+const MaxSolveWork = 250_000
+
+// solveBudget is the work left to the solve statement being evaluated.
+type solveBudget struct {
+	left      int
+	depth     int // solves in progress, one inside another
+	deepest   int
+	exhausted bool
+}
+
 // isSolve reports whether a statement's formula is a solve(...).
 func isSolve(st *Statement) (*Call, bool) {
 	c, ok := st.Expr.(*Call)
@@ -117,7 +133,7 @@ func (s *Sheet) linkSolves() {
 		inner := s.innerOf(st)
 		st.solve.needed = map[*Statement]bool{}
 		for _, n := range closure(st.solve.refs, func(x *Statement) []*Statement { return x.Deps }) {
-			if inner[n] {
+			if inner(n) {
 				st.solve.needed[n] = true
 			}
 		}
@@ -127,7 +143,7 @@ func (s *Sheet) linkSolves() {
 // givens lists the statements a solve's search takes as given: those its
 // relation names, and those its inner statements use, that do not depend
 // on the unknown.
-func (s *Sheet) givens(st *Statement, inner map[*Statement]bool) []*Statement {
+func (s *Sheet) givens(st *Statement, inner func(*Statement) bool) []*Statement {
 	var out []*Statement
 	seen := map[*Statement]bool{st: true}
 	var walk func(x *Statement)
@@ -136,7 +152,7 @@ func (s *Sheet) givens(st *Statement, inner map[*Statement]bool) []*Statement {
 			return
 		}
 		seen[x] = true
-		if !inner[x] {
+		if !inner(x) {
 			out = append(out, x)
 			return
 		}
@@ -150,20 +166,49 @@ func (s *Sheet) givens(st *Statement, inner map[*Statement]bool) []*Statement {
 	return out
 }
 
-// innerOf is the set of statements that depend on a solve's unknown.
-func (s *Sheet) innerOf(st *Statement) map[*Statement]bool {
-	inner := map[*Statement]bool{}
-	for _, u := range closure(st.Users, func(x *Statement) []*Statement { return x.Users }) {
-		inner[u] = true
+// innerOf tells the statements that depend on a solve's unknown. It
+// looks only where it is asked, down the dependencies of the statement
+// asked about: a search needs to know this of the statements its relation
+// reaches, which are few, not of everything that uses the unknown, which
+// may be most of the sheet.
+func (s *Sheet) innerOf(st *Statement) func(*Statement) bool {
+	const (
+		unknown = iota
+		visiting
+		yes
+		no
+	)
+	state := map[*Statement]int{}
+	var depends func(x *Statement) bool
+	depends = func(x *Statement) bool {
+		switch state[x] {
+		case yes:
+			return true
+		case no, visiting:
+			return false // a cycle, reported when the sheet is ordered
+		}
+		state[x] = visiting
+		found := false
+		for _, d := range x.Deps {
+			if d == st || depends(d) {
+				found = true
+				break
+			}
+		}
+		state[x] = no
+		if found {
+			state[x] = yes
+		}
+		return found
 	}
-	return inner
+	return depends
 }
 
 // relationReaches reports whether a solve's relation names its unknown or
 // a statement that depends on it.
-func (s *Sheet) relationReaches(st *Statement, inner map[*Statement]bool) bool {
+func (s *Sheet) relationReaches(st *Statement, inner func(*Statement) bool) bool {
 	for _, r := range st.solve.refs {
-		if r == st || inner[r] {
+		if r == st || inner(r) {
 			return true
 		}
 	}
@@ -320,29 +365,41 @@ func solveUnit(st *Statement, lo, hi float64) units.Unit {
 	return units.AutoUnit(math.Max(math.Abs(lo), math.Abs(hi)), st.Type.Dim, st.Type.Kind)
 }
 
+// solveRoot finds the unknown of a solve statement within the work limit.
+func (p *Program) solveRoot(f *Frame, st *Statement) (float64, *diag.Diagnostic) {
+	b := &solveBudget{left: MaxSolveWork}
+	return p.findRoot(f, st, b)
+}
+
 // findRoot searches for the unknown of a solve statement and leaves the
 // statements inside the search at their values for the answer. A solve
-// inside another's search runs its own search for every trial value.
-func (p *Program) findRoot(f *Frame, st *Statement) (float64, *diag.Diagnostic) {
+// inside another's search runs its own search for every trial value, from
+// the same budget.
+func (p *Program) findRoot(f *Frame, st *Statement, b *solveBudget) (float64, *diag.Diagnostic) {
 	sv, v := st.solve, f.Values
+	b.depth++
+	b.deepest = max(b.deepest, b.depth)
+	defer func() { b.depth-- }()
 	lo, hi := fnOf(sv.lo)(v), fnOf(sv.hi)(v)
 	unit := solveUnit(st, lo, hi)
-	at := func(x float64) string {
-		return st.Name + " = " + units.FormatNumber(unit.FromSI(x), 4) + " " + unit.Symbol
-	}
+	at := func(x float64) string { return st.Name + " = " + quantityText(x, unit) }
 	if !finite(lo) || !finite(hi) || lo >= hi {
-		return 0, errAt(sv.lo.Pos(), "give the lowest value first and the highest second", "the bounds of solve are not an interval: %s to %s",
-			units.FormatNumber(unit.FromSI(lo), 4), units.FormatNumber(unit.FromSI(hi), 4))
+		return 0, errAt(sv.lo.Pos(), "give the lowest value of "+st.Name+" first and the highest second", "the bounds of solve are not an interval: %s to %s",
+			quantityText(lo, unit), quantityText(hi, unit))
 	}
 	var failed *Statement
 	var failedAt float64
 	var failure *diag.Diagnostic
 	residual := func(x float64) float64 {
+		if b.left -= len(sv.inner) + 1; b.left < 0 {
+			b.exhausted = true
+			return math.NaN()
+		}
 		v[st.slot] = x
 		for _, in := range sv.inner {
 			var y float64
 			if in.solve != nil {
-				r, d := p.findRoot(f, in)
+				r, d := p.findRoot(f, in, b)
 				if d != nil {
 					if failed == nil {
 						failed, failedAt, failure = in, x, d
@@ -366,13 +423,23 @@ func (p *Program) findRoot(f *Frame, st *Statement) (float64, *diag.Diagnostic) 
 	tol := SolveTolerance * math.Max(math.Abs(lo), math.Abs(hi))
 	root, err := brent(residual, lo, hi, tol, MaxSolveIterations)
 	switch {
+	case b.exhausted:
+		return 0, errAt(st.Expr.Pos(), "give the unknowns narrower bounds, or nest fewer solves inside one another (each runs a whole search for every trial of the one around it)",
+			"solving for %s stopped at the limit of %d evaluations of the statements inside its search (%d solves nested one inside another multiply their trials)",
+			st.Name, MaxSolveWork, b.deepest)
 	case failed != nil:
-		return 0, errAt(st.Expr.Pos(), "narrow the bounds to where "+failed.Name+" can be evaluated",
+		// A failure deep inside nested solves is fixed at the innermost
+		// search: its hint names the unknown whose bounds to narrow.
+		hint := "narrow the bounds of " + st.Name + " to where " + failed.Name + " can be evaluated"
+		if failed.solve != nil && failure.Hint != "" {
+			hint = failure.Hint
+		}
+		return 0, errAt(st.Expr.Pos(), hint,
 			"while solving for %s, at %s, %s could not be evaluated: %s", st.Name, at(failedAt), failed.Name, failure.Message)
 	case errors.Is(err, errNoBracket):
 		rl := residualText(sv, residual(lo))
 		rh := residualText(sv, residual(hi))
-		return 0, errAt(st.Expr.Pos(), "widen the bounds so that the two sides cross between them, or check the relation",
+		return 0, errAt(st.Expr.Pos(), "widen the bounds of "+st.Name+" so that the two sides cross between them, or check the relation",
 			"the bounds do not bracket a solution: the left side minus the right side is %s at %s and %s at %s, of the same sign",
 			rl, at(lo), rh, at(hi))
 	case err != nil:
@@ -385,6 +452,18 @@ func (p *Program) findRoot(f *Frame, st *Statement) (float64, *diag.Diagnostic) 
 // residualText writes a residual in a unit for the relation's sides.
 func residualText(sv *solveInfo, r float64) string {
 	t := sv.relation.X.Type()
-	u := units.AutoUnit(math.Abs(r), t.Dim, t.Kind)
-	return units.FormatNumber(u.FromSI(r), 4) + " " + u.Symbol
+	return quantityText(r, units.AutoUnit(math.Abs(r), t.Dim, t.Kind))
+}
+
+// quantityText writes an SI value in a unit to four figures, as a
+// quantity is written: "2.5 mm", "30°", and a pure number without a unit.
+func quantityText(v float64, u units.Unit) string {
+	n := units.FormatNumber(u.FromSI(v), 4)
+	switch {
+	case u.Symbol == "1" || u.Symbol == "":
+		return n
+	case units.SpaceBefore(u.Symbol):
+		return n + " " + u.Symbol
+	}
+	return n + u.Symbol
 }

@@ -61,6 +61,10 @@ func readTable(src TableSource, name string) *Table {
 	if len(src.Header) == 0 || len(src.Rows) < 2 {
 		return fail(errAt(src.Pos, "give the table a header row and at least two rows of values", "table %s has too few rows", name))
 	}
+	if len(src.Rows) > MaxTableRows {
+		return fail(errAt(src.Pos, "keep long data in several tables, or thin it to the points the calculation needs",
+			"table %s has more than %d rows, the limit for one table", name, MaxTableRows))
+	}
 	seen := map[string]bool{}
 	for _, h := range src.Header {
 		colName, unitText, _ := strings.Cut(strings.TrimSpace(h.Text), "[")
@@ -186,14 +190,50 @@ func (ip *interpolator) at(x float64) float64 {
 	return ip.ys[n-1] + (x-ip.xs[n-1])*(ip.ys[n-1]-ip.ys[n-2])/(ip.xs[n-1]-ip.xs[n-2])
 }
 
-// lookupIndex finds the row whose x equals key, within a relative 1e-9.
-func lookupIndex(x *Column, key float64) int {
-	for i, v := range x.Values {
-		if v == key || math.Abs(v-key) <= 1e-9*math.Max(math.Abs(v), math.Abs(key)) {
-			return i
+// exactIndex finds rows by their x: the column's values sorted, with the
+// rows they are on, so that pick inside a search costs a binary search,
+// not a scan of every row.
+type exactIndex struct {
+	vals []float64
+	rows []int
+}
+
+func newExactIndex(x *Column) *exactIndex {
+	ix := &exactIndex{vals: append([]float64(nil), x.Values...), rows: make([]int, len(x.Values))}
+	for i := range ix.rows {
+		ix.rows[i] = i
+	}
+	sort.Sort(ix)
+	return ix
+}
+
+func (ix *exactIndex) Len() int { return len(ix.vals) }
+func (ix *exactIndex) Less(i, j int) bool {
+	return ix.vals[i] < ix.vals[j] || ix.vals[i] == ix.vals[j] && ix.rows[i] < ix.rows[j]
+}
+func (ix *exactIndex) Swap(i, j int) {
+	ix.vals[i], ix.vals[j] = ix.vals[j], ix.vals[i]
+	ix.rows[i], ix.rows[j] = ix.rows[j], ix.rows[i]
+}
+
+// find returns the first row whose x equals key within a relative 1e-9,
+// or -1. Every such x lies within 2e-9·|key| of key.
+func (ix *exactIndex) find(key float64) int {
+	tol := 2e-9 * math.Abs(key)
+	lo := sort.Search(len(ix.vals), func(i int) bool { return ix.vals[i] >= key-tol })
+	best := -1
+	for j := lo; j < len(ix.vals) && ix.vals[j] <= key+tol; j++ {
+		if sameX(ix.vals[j], key) && (best < 0 || ix.rows[j] < best) {
+			best = ix.rows[j]
 		}
 	}
-	return -1
+	return best
+}
+
+// sameX reports whether a table's x and a key are equal within a
+// relative 1e-9.
+func sameX(v, key float64) bool {
+	return v == key || math.Abs(v-key) <= 1e-9*math.Max(math.Abs(v), math.Abs(key))
 }
 
 // rangeText writes a column's range in its own unit: "0 … 10 kA/m".

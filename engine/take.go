@@ -122,7 +122,7 @@ func (s *Sheet) resolveTakes(find func(ref, from string) (*Sheet, string, error)
 		target := other.Lookup(st.Remote)
 		if target == nil || target.Kind != Definition && target.Kind != Take {
 			hint := "take a result that sheet defines"
-			if c := closest(st.Remote, other.names()); c != "" {
+			if c := closest(st.Remote, other.definedNames()); c != "" {
 				hint = "did you mean " + c + "? " + hint
 			}
 			s.fail(st, errAt(st.DisplayPos, hint, "%s defines no result %s", path, st.Remote))
@@ -139,8 +139,9 @@ type TakeError struct{ Msg, Hint string }
 
 func (e *TakeError) Error() string { return e.Msg }
 
-// names lists the names a sheet defines, for suggestions.
-func (s *Sheet) names() []string {
+// definedNames lists the names a sheet defines, for suggestions. It
+// builds the list anew: sheets that take from one sheet may ask at once.
+func (s *Sheet) definedNames() []string {
 	var out []string
 	for n := range s.byName {
 		out = append(out, n)

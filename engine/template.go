@@ -29,6 +29,11 @@ type Options struct {
 // MaxTemplateDepth bounds templates that use templates.
 const MaxTemplateDepth = 16
 
+// MaxInstances bounds the template instances of one sheet, counting those
+// inside other instances. Templates that each use the next twice double
+// at every level: thirty levels would make a billion instances.
+const MaxInstances = 2000
+
 // parseParam reads `param name [unit]`.
 func parseParam(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	r := t.runes
@@ -162,6 +167,11 @@ type expander struct {
 	// instance's name: "coil_a.uniform-gap", "coil_a.BH".
 	assumptions []AssumptionSource
 	tables      []TableSource
+	// instances and statements count what the sheet has grown to so far;
+	// over counts the limit they reached, when they reached one.
+	instances, statements int
+	over                  *diag.Diagnostic
+	overOnce              bool // over concerns one use only, not the whole sheet
 }
 
 // expand returns the statements of a sheet with every instance's
@@ -188,8 +198,9 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 	if x.resolve == nil {
 		return fail(errAt(use.DisplayPos, "templates are read from the package folder or the built-in library", "templates are not available here"))
 	}
-	if len(x.stack) >= MaxTemplateDepth {
-		return fail(errAt(use.DisplayPos, "", "templates nested more than %d deep", MaxTemplateDepth))
+	top := len(x.stack) == 1 // a use written in the sheet itself
+	if body, limited := x.limit(use, top); limited {
+		return body
 	}
 	src, key, err := x.resolve(use.Template, from)
 	if err != nil {
@@ -207,17 +218,29 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 	use.TemplateTitle, use.TemplateCaution = src.Title, src.Caution
 
 	// Parse the template afresh: every instance has statements of its own.
-	var body []*Statement
+	var texts []*text
 	for _, b := range src.Blocks {
-		for _, t := range splitStatements(b) {
-			st, perr := parseStatement(t)
-			if perr != nil {
-				return fail(errAt(use.DisplayPos, "fix the template first", "template %s has an error at %s: %s", use.Template, perr.Pos, perr.Message))
-			}
-			body = append(body, st)
+		texts = append(texts, splitStatements(b)...)
+	}
+	if x.statements += len(texts); x.statements > MaxStatements {
+		x.over = errAt(use.DisplayPos, "split the sheet, or use fewer or smaller templates",
+			"the templates expand to more than %d statements, the limit for one sheet", MaxStatements)
+		return x.refuse(use, top)
+	}
+	var body []*Statement
+	for _, t := range texts {
+		st, perr := parseStatement(t)
+		if perr != nil {
+			return fail(errAt(use.DisplayPos, "fix the template first", "template %s has an error at %s: %s", use.Template, perr.Pos, perr.Message))
 		}
+		body = append(body, st)
 	}
 	body = x.expand(body, src.Path)
+	if x.over != nil {
+		// A limit was reached inside: the instance is refused whole, and
+		// the error goes to the using sheet's own statement.
+		return x.refuse(use, top)
+	}
 	for _, a := range src.Assumptions {
 		a.ID = use.Name + "." + a.ID
 		x.assumptions = append(x.assumptions, a)
@@ -317,6 +340,41 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 		st.Block = use.Block
 	}
 	return body
+}
+
+// limit counts an instance and reports whether the sheet has grown past
+// a limit, with what instantiate should return then.
+func (x *expander) limit(use *Statement, top bool) ([]*Statement, bool) {
+	x.instances++
+	switch {
+	case x.over != nil:
+	case len(x.stack) >= MaxTemplateDepth:
+		chain := append(append([]string{}, x.stack[1:]...), use.Template)
+		x.over = errAt(use.DisplayPos, "use fewer templates inside one another",
+			"templates nested more than %d deep: %s", MaxTemplateDepth, strings.Join(chain, " → "))
+		x.overOnce = true
+	case x.instances > MaxInstances:
+		x.over = errAt(use.DisplayPos, "use fewer instances; a template that uses others several times multiplies them",
+			"the templates expand to more than %d instances, the limit for one sheet", MaxInstances)
+	default:
+		return nil, false
+	}
+	return x.refuse(use, top), true
+}
+
+// refuse fails a use statement because the sheet reached a limit. Only a
+// use written in the sheet itself carries the error: the instances inside
+// it are dropped with it.
+func (x *expander) refuse(use *Statement, top bool) []*Statement {
+	if top {
+		d := *x.over
+		d.Pos = use.DisplayPos
+		x.sheet.fail(use, &d)
+		if x.overOnce {
+			x.over, x.overOnce = nil, false
+		}
+	}
+	return nil
 }
 
 // valueExpr is the template's own value of an input: its default when the

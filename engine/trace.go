@@ -1,6 +1,7 @@
 package engine
 
 import (
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -135,8 +136,91 @@ func closure(start []*Statement, next func(*Statement) []*Statement) []*Statemen
 // ultimately rests on, through every statement it uses, in the order
 // written. A statement that is itself an input or an assumption is among
 // them. A result taken from another sheet counts as an input here: the
-// page links to the sheet it comes from.
+// page links to the sheet it comes from. The first call works them out for
+// every statement at once, in evaluation order, so that a long chain costs
+// its length, not its square.
 func (s *Sheet) RestsOn(st *Statement) (inputs []*Statement, assumptions []*Assumption) {
+	s.traceOnce.Do(s.traceAll)
+	if t := s.traces[st.Index]; t.done {
+		return t.inputs, t.assumptions
+	}
+	return s.restsOnSlow(st)
+}
+
+// trace is what one statement rests on.
+type trace struct {
+	done        bool
+	inputs      []*Statement
+	assumptions []*Assumption
+}
+
+// traceAll works out every statement's trace from those of the statements
+// it uses, which come before it in evaluation order. A statement in a
+// cycle is left to restsOnSlow.
+func (s *Sheet) traceAll() {
+	s.traces = make([]trace, len(s.Statements))
+	rank := map[*Assumption]int{}
+	direct := map[*Statement][]*Assumption{}
+	for i, a := range s.Assumptions {
+		rank[a] = i
+		for _, d := range a.Direct {
+			if l := direct[d]; len(l) == 0 || l[len(l)-1] != a {
+				direct[d] = append(direct[d], a)
+			}
+		}
+	}
+	for _, st := range s.Order {
+		var ins [][]*Statement
+		var ass [][]*Assumption
+		if st.IsInput() || st.Kind == Take {
+			ins = append(ins, []*Statement{st})
+		}
+		if d := direct[st]; len(d) > 0 {
+			ass = append(ass, d)
+		}
+		ok := true
+		for _, d := range st.Deps {
+			t := s.traces[d.Index]
+			if !t.done {
+				ok = false
+				break
+			}
+			ins, ass = append(ins, t.inputs), append(ass, t.assumptions)
+		}
+		if ok {
+			s.traces[st.Index] = trace{done: true,
+				inputs:      union(ins, func(x *Statement) int { return x.Index }),
+				assumptions: union(ass, func(a *Assumption) int { return rank[a] })}
+		}
+	}
+}
+
+// union merges lists each sorted by key into one sorted list without
+// repeats. A single non-empty list is shared, not copied: a chain of
+// statements that each use the one before share one list.
+func union[T comparable](lists [][]T, key func(T) int) []T {
+	var nonEmpty [][]T
+	for _, l := range lists {
+		if len(l) > 0 {
+			nonEmpty = append(nonEmpty, l)
+		}
+	}
+	switch len(nonEmpty) {
+	case 0:
+		return nil
+	case 1:
+		return nonEmpty[0]
+	}
+	var out []T
+	for _, l := range nonEmpty {
+		out = append(out, l...)
+	}
+	sort.SliceStable(out, func(i, j int) bool { return key(out[i]) < key(out[j]) })
+	return slices.CompactFunc(out, func(a, b T) bool { return a == b })
+}
+
+// restsOnSlow walks a statement's dependencies afresh.
+func (s *Sheet) restsOnSlow(st *Statement) (inputs []*Statement, assumptions []*Assumption) {
 	all := closure([]*Statement{st}, func(x *Statement) []*Statement { return x.Deps })
 	in := map[*Statement]bool{}
 	for _, x := range all {

@@ -62,6 +62,9 @@ func LoadRevision(spec string) (*Package, error) {
 	if len(files) == 0 {
 		return nil, fmt.Errorf("%s holds no Markdown sheets at revision %s", folder, rev)
 	}
+	if err := distinctNames(mapKeys(files)); err != nil {
+		return nil, fmt.Errorf("%s: %w", spec, err)
+	}
 	return FromFiles(spec, files), nil
 }
 

@@ -5,6 +5,7 @@
 package project
 
 import (
+	"errors"
 	"fmt"
 	"io/fs"
 	"os"
@@ -59,8 +60,11 @@ func (s *Sheet) Title() string {
 // Every .md file below the folder is read, except in folders whose names
 // start with "."; files in folders whose names start with "_", and sheets
 // whose front matter says template: true, are templates: other sheets use
-// them, and they are not pages of their own. Load fails only when the
-// files cannot be read; problems inside the sheets are diagnostics of the
+// them, and they are not pages of their own. A single file is read with
+// the templates it uses, from the folder it lies in, and nothing else.
+// Nothing outside the folder is read: a symbolic link that resolves
+// outside it is an error. Load fails when the files cannot be read or
+// their names clash; problems inside the sheets are diagnostics of the
 // returned package.
 func Load(root string) (*Package, error) {
 	info, err := os.Stat(root)
@@ -68,59 +72,47 @@ func Load(root string) (*Package, error) {
 		return nil, fmt.Errorf("cannot read %s: %w", root, err)
 	}
 	if !info.IsDir() {
-		// One sheet, with the templates of the folder it lies in.
-		dir := filepath.Dir(root)
-		files, err := readFolder(dir)
-		if err != nil {
-			return nil, err
-		}
-		one := filepath.ToSlash(filepath.Base(root))
-		if _, ok := files[one]; !ok {
-			data, err := os.ReadFile(root)
-			if err != nil {
-				return nil, err
-			}
-			files[one] = data
-		}
-		return fromFiles(dir, files, func(p string) bool { return p == one }), nil
+		return loadOne(root)
 	}
-	files, err := readFolder(root)
+	f, err := openFolder(root)
+	if err != nil {
+		return nil, err
+	}
+	files, err := f.readAll()
 	if err != nil {
 		return nil, err
 	}
 	if len(files) == 0 {
 		return nil, fmt.Errorf("%s holds no Markdown sheets (*.md)", root)
 	}
+	if err := distinctNames(mapKeys(files)); err != nil {
+		return nil, err
+	}
 	return FromFiles(root, files), nil
 }
 
-// readFolder reads every .md file below a folder, skipping folders whose
-// names start with ".".
-func readFolder(root string) (map[string][]byte, error) {
-	files := map[string][]byte{}
-	err := filepath.WalkDir(root, func(p string, d fs.DirEntry, err error) error {
-		if err != nil {
-			return err
-		}
-		name := d.Name()
-		if d.IsDir() {
-			if p != root && strings.HasPrefix(name, ".") {
-				return filepath.SkipDir
-			}
-			return nil
-		}
-		if !strings.EqualFold(filepath.Ext(name), ".md") {
-			return nil
-		}
-		data, err := os.ReadFile(p)
-		if err != nil {
-			return err
-		}
-		rel, _ := filepath.Rel(root, p)
-		files[filepath.ToSlash(rel)] = data
-		return nil
-	})
-	return files, err
+// loadOne reads one sheet, and the templates it uses when it uses them.
+func loadOne(file string) (*Package, error) {
+	dir := filepath.Dir(file)
+	f, err := openFolder(dir)
+	if err != nil {
+		return nil, err
+	}
+	one := filepath.ToSlash(filepath.Base(file))
+	data, err := f.read(one)
+	if err != nil {
+		return nil, err
+	}
+	return build(dir, map[string][]byte{one: data}, func(p string) bool { return p == one }, f), nil
+}
+
+func mapKeys(files map[string][]byte) []string {
+	keys := make([]string, 0, len(files))
+	for k := range files {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys)
+	return keys
 }
 
 // isTemplatePath reports whether a file lies in a folder whose name starts
@@ -139,22 +131,19 @@ func isTemplatePath(p string) bool {
 // the package. Files are parsed and sheets compiled in parallel; the result
 // does not depend on the order in which they finish.
 func FromFiles(root string, files map[string][]byte) *Package {
-	return fromFiles(root, files, nil)
+	return build(root, files, nil, nil)
 }
 
-// fromFiles builds a package whose pages are the sheets page accepts (all
-// but templates when page is nil); every file is available as a template.
-func fromFiles(root string, files map[string][]byte, page func(string) bool) *Package {
-	paths := make([]string, 0, len(files))
-	for p := range files {
-		paths = append(paths, p)
-	}
-	sort.Strings(paths)
-	pkg := &Package{Root: root, Files: sourceFiles(files)}
+// build builds a package whose pages are the sheets page accepts (all but
+// templates when page is nil); every file is available as a template, and
+// so is every sheet of more, when more is not nil, read when it is used.
+func build(root string, files map[string][]byte, page func(string) bool, more *folder) *Package {
+	paths := mapKeys(files)
+	pkg := &Package{Root: root}
 
 	docs := make([]*sheets.Sheet, len(paths))
 	parallel(len(paths), func(i int) { docs[i] = sheets.Parse(paths[i], files[paths[i]]) })
-	r := &resolver{docs: map[string]*sheets.Sheet{}}
+	r := &resolver{docs: map[string]*sheets.Sheet{}, more: more, files: files}
 	var pages []*sheets.Sheet
 	for _, d := range docs {
 		r.docs[d.Path] = d
@@ -184,6 +173,7 @@ func fromFiles(root string, files map[string][]byte, page func(string) bool) *Pa
 		})
 	}
 
+	pkg.Files = sourceFiles(r.files)
 	for _, d := range pkg.Templates {
 		pkg.Diags = append(pkg.Diags, d.Diags...)
 	}
@@ -257,7 +247,36 @@ func sourceOf(doc *sheets.Sheet) engine.SheetSource {
 // package's files were read before compiling, and a path that leaves the
 // folder is refused.
 type resolver struct {
-	docs map[string]*sheets.Sheet
+	mu    sync.Mutex
+	docs  map[string]*sheets.Sheet
+	files map[string][]byte // every file read, for the package's list
+	more  *folder           // where to read templates not read yet, or nil
+}
+
+// doc finds a sheet of the package by its path, reading it from the
+// folder when the package reads templates as they are used.
+func (r *resolver) doc(p string) (*sheets.Sheet, error) {
+	r.mu.Lock()
+	defer r.mu.Unlock()
+	if doc, ok := r.docs[p]; ok || r.more == nil {
+		if !ok {
+			return nil, fmt.Errorf("no sheet %s in the package", p)
+		}
+		return doc, nil
+	}
+	if !Selected(p) {
+		return nil, fmt.Errorf("no sheet %s in the package", p)
+	}
+	data, err := r.more.read(p)
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil, fmt.Errorf("no sheet %s in the package", p)
+	}
+	if err != nil {
+		return nil, err
+	}
+	doc := sheets.Parse(p, data)
+	r.docs[p], r.files[p] = doc, data
+	return doc, nil
 }
 
 func (r *resolver) resolve(ref, from string) (engine.SheetSource, string, error) {
@@ -281,9 +300,9 @@ func (r *resolver) resolve(ref, from string) (engine.SheetSource, string, error)
 	if p == ".." || strings.HasPrefix(p, "../") {
 		return engine.SheetSource{}, "", fmt.Errorf("template %s leaves the package folder; templates must lie inside it", ref)
 	}
-	doc, ok := r.docs[p]
-	if !ok {
-		return engine.SheetSource{}, "", fmt.Errorf("no sheet %s in the package", p)
+	doc, err := r.doc(p)
+	if err != nil {
+		return engine.SheetSource{}, "", err
 	}
 	if doc.Diags.Errors() > 0 {
 		d := doc.Diags[0]

@@ -69,6 +69,11 @@ var (
 // Parse reads a sheet. It never fails: problems become diagnostics in
 // Sheet.Diags, and whatever could be read is kept.
 func Parse(path string, raw []byte) *Sheet {
+	if d := tooLarge(path, raw); d != nil {
+		s := &Sheet{Path: path, Diags: diag.List{*d}, index: newLineIndex(nil)}
+		s.Doc = plain.Parser().Parse(text.NewReader(nil))
+		return s
+	}
 	src, diags := cleanSource(path, raw)
 	src = tidyFrontMatterFences(src)
 	s := &Sheet{Path: path, Source: src, Diags: diags, index: newLineIndex(src)}

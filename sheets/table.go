@@ -73,8 +73,8 @@ func (s *Sheet) tableCaption(p *ast.Paragraph) *TableCaption {
 		}
 		if _, header := row.(*east.TableHeader); header {
 			t.Header = cells
-		} else {
-			t.Rows = append(t.Rows, cells)
+		} else if t.Rows = append(t.Rows, cells); len(t.Rows) > MaxTableRows {
+			break
 		}
 	}
 	s.Tables = append(s.Tables, t)
