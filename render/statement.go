@@ -4,7 +4,6 @@ import (
 	"math"
 	"strconv"
 
-
 	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
 	"github.com/sheaf-calc/sheaf/units"
