@@ -150,7 +150,7 @@ func statementFindings(st *engine.Statement) []Finding {
 	if st.Kind == engine.Check {
 		name = "check " + st.Formula
 	}
-	if st.Status == engine.Failed || st.Status == engine.Blocked || st.Status == engine.Pending {
+	if st.Status == engine.Errored || st.Status == engine.Blocked || st.Status == engine.Pending {
 		return nil // errors are reported as errors
 	}
 	if st.IsInput() && st.Overridden {

@@ -34,12 +34,12 @@ var benchExprs = map[string]string{
 	"E": "1.4142135623730951 * Pi * F * N * Kw * Phi",
 }
 
-func compileBench(tb testing.TB) *Sheet {
-	var lines []Line
+func compileBench(tb testing.TB) *Calc {
+	var lines []SourceLine
 	for i, l := range strings.Split(benchSheet, "\n") {
-		lines = append(lines, Line{Text: l, Pos: diag.Pos{File: "bench.md", Line: i + 1, Col: 1}})
+		lines = append(lines, SourceLine{Text: l, Pos: diag.Pos{File: "bench.md", Line: i + 1, Col: 1}})
 	}
-	s := Compile(SheetSource{Path: "bench.md", Blocks: []Block{{Lines: lines}}})
+	s := Compile(SheetSource{Path: "bench.md", Blocks: []SourceBlock{{Lines: lines}}})
 	s.Evaluate()
 	if len(s.Diags) != 0 {
 		tb.Fatal(s.Diags[0].Error())

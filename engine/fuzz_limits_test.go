@@ -22,7 +22,7 @@ func fuzzTemplates(text string) (engine.Resolver, map[string]int) {
 		body := strings.ReplaceAll(text, "NEXT", "t"+strconv.Itoa(k+1))
 		ls := strings.Split(body, "\n")
 		lines[name+".md"] = len(ls) + 1
-		srcs[name] = engine.SheetSource{Path: name + ".md", Title: name, Blocks: []engine.Block{block(name+".md", ls...)},
+		srcs[name] = engine.SheetSource{Path: name + ".md", Title: name, Blocks: []engine.SourceBlock{block(name+".md", ls...)},
 			Tables: []engine.TableSource{{Name: "BH", Pos: diag.Pos{File: name + ".md", Line: 1, Col: 1},
 				Header: []engine.CellSource{{Text: "H [A/m]"}, {Text: "B [T]"}},
 				Rows:   [][]engine.CellSource{{{Text: "0"}, {Text: "0"}}, {{Text: "100"}, {Text: "0.5"}}}}}}
@@ -62,7 +62,7 @@ func FuzzTemplateUse(f *testing.F) {
 		resolve, lines := fuzzTemplates(tmpl)
 		sl := strings.Split(sheet, "\n")
 		lines["s.md"] = len(sl) + 1
-		s := engine.CompileWith(engine.SheetSource{Path: "s.md", Blocks: []engine.Block{block("s.md", sl...)}}, engine.Options{Resolve: resolve})
+		s := engine.CompileWith(engine.SheetSource{Path: "s.md", Blocks: []engine.SourceBlock{block("s.md", sl...)}}, engine.Options{Resolve: resolve})
 		s.Evaluate()
 		instances := 0
 		for _, st := range s.Statements {
@@ -100,7 +100,7 @@ func checkOutcome(t *testing.T, st *engine.Statement) {
 		if !finite(st.Left) || !finite(st.Right) {
 			t.Fatalf("%q: %v with sides %v, %v", st.Text, st.Status, st.Left, st.Right)
 		}
-	case engine.Failed, engine.Blocked:
+	case engine.Errored, engine.Blocked:
 		if st.Err == nil {
 			t.Fatalf("%q: %v without a reason", st.Text, st.Status)
 		}
@@ -158,7 +158,7 @@ func FuzzTable(f *testing.F) {
 	f.Fuzz(func(t *testing.T, table string, x float64) {
 		ts := fuzzTable(table)
 		at := strconv.FormatFloat(x, 'g', -1, 64) + " A/m"
-		src := engine.SheetSource{Path: "s.md", Tables: []engine.TableSource{ts}, Blocks: []engine.Block{block("s.md",
+		src := engine.SheetSource{Path: "s.md", Tables: []engine.TableSource{ts}, Blocks: []engine.SourceBlock{block("s.md",
 			"x_r = "+at,
 			"y_i = interp(T.B, T.H, x_r)",
 			"y_e = interp(T.B, T.H, x_r, extrapolate)",

@@ -72,7 +72,7 @@ func FuzzStatement(f *testing.F) {
 				if st.Shown.Dim != st.Type.Dim {
 					t.Fatalf("%q: a %v compared in %s", st.Text, st.Type.Dim, st.Shown.Symbol)
 				}
-			case engine.Failed, engine.Blocked:
+			case engine.Errored, engine.Blocked:
 				if st.Err == nil {
 					t.Fatalf("%q: %v without a reason", st.Text, st.Status)
 				}

@@ -17,7 +17,7 @@ const quickly = 2 * time.Second
 
 // compileTimed compiles and evaluates a sheet and fails the test when it
 // takes longer than quickly.
-func compileTimed(t *testing.T, src engine.SheetSource, opt engine.Options) *engine.Sheet {
+func compileTimed(t *testing.T, src engine.SheetSource, opt engine.Options) *engine.Calc {
 	t.Helper()
 	start := time.Now()
 	s := engine.CompileWith(src, opt)
@@ -29,16 +29,16 @@ func compileTimed(t *testing.T, src engine.SheetSource, opt engine.Options) *eng
 }
 
 // block is a formula block of path whose first line is line 2.
-func block(path string, lines ...string) engine.Block {
-	b := engine.Block{Fence: diag.Pos{File: path, Line: 1, Col: 1}}
+func block(path string, lines ...string) engine.SourceBlock {
+	b := engine.SourceBlock{Fence: diag.Pos{File: path, Line: 1, Col: 1}}
 	for i, l := range lines {
-		b.Lines = append(b.Lines, engine.Line{Text: l, Pos: diag.Pos{File: path, Line: i + 2, Col: 1}})
+		b.Lines = append(b.Lines, engine.SourceLine{Text: l, Pos: diag.Pos{File: path, Line: i + 2, Col: 1}})
 	}
 	return b
 }
 
 // wantError asserts one error diagnostic at pos whose message holds msg.
-func wantError(t *testing.T, s *engine.Sheet, pos, msg string) {
+func wantError(t *testing.T, s *engine.Calc, pos, msg string) {
 	t.Helper()
 	for _, d := range s.Diags {
 		if d.Pos.String() == pos && strings.Contains(d.Message, msg) {
@@ -49,7 +49,7 @@ func wantError(t *testing.T, s *engine.Sheet, pos, msg string) {
 }
 
 // wantValue asserts that an independent statement still has its result.
-func wantValue(t *testing.T, s *engine.Sheet, name string, si float64) {
+func wantValue(t *testing.T, s *engine.Calc, name string, si float64) {
 	t.Helper()
 	st := s.Lookup(name)
 	if st == nil || st.Status != engine.OK || st.Value != si {
@@ -72,7 +72,7 @@ func nestedSolves(n int) []string {
 // Twenty nested solves ran for minutes (about six times longer for every
 // level); the work of one solve statement, nesting included, is bounded.
 func TestNestedSolveWorkLimit(t *testing.T) {
-	src := engine.SheetSource{Path: "r.md", Blocks: []engine.Block{block("r.md", nestedSolves(20)...)}}
+	src := engine.SheetSource{Path: "r.md", Blocks: []engine.SourceBlock{block("r.md", nestedSolves(20)...)}}
 	s := compileTimed(t, src, engine.Options{})
 	// x_20 is the outermost search, on line 22; its formula starts at column 8.
 	wantError(t, s, "r.md:22:8", fmt.Sprintf("solving for x_20 stopped at the limit of %d evaluations", engine.MaxSolveWork))
@@ -197,7 +197,7 @@ func doubling(levels int) map[string]engine.SheetSource {
 			next := fmt.Sprintf("t%d", k+1)
 			lines = append(lines, "use a = "+next, "use b = "+next)
 		}
-		srcs[name] = engine.SheetSource{Path: name + ".md", Blocks: []engine.Block{block(name+".md", lines...)}}
+		srcs[name] = engine.SheetSource{Path: name + ".md", Blocks: []engine.SourceBlock{block(name+".md", lines...)}}
 	}
 	return srcs
 }
@@ -205,7 +205,7 @@ func doubling(levels int) map[string]engine.SheetSource {
 // usingSheet is a sheet with an independent input, a use of t0 on line 3
 // and another independent input.
 func usingSheet() engine.SheetSource {
-	return engine.SheetSource{Path: "s.md", Blocks: []engine.Block{block("s.md", "l = 2 m", "use top = t0", "k = 3")}}
+	return engine.SheetSource{Path: "s.md", Blocks: []engine.SourceBlock{block("s.md", "l = 2 m", "use top = t0", "k = 3")}}
 }
 
 // Templates that each use the next twice, 30 levels deep, grew to
@@ -243,14 +243,14 @@ func TestTemplateStatementLimit(t *testing.T) {
 	for i := range lines {
 		lines[i] = fmt.Sprintf("v_%d = %d", i, i)
 	}
-	big := engine.SheetSource{Path: "big.md", Blocks: []engine.Block{block("big.md", lines...)}}
+	big := engine.SheetSource{Path: "big.md", Blocks: []engine.SourceBlock{block("big.md", lines...)}}
 	var uses []string
 	n := engine.MaxStatements/1000 + 1
 	for i := range n {
 		uses = append(uses, fmt.Sprintf("use u_%d = big", i))
 	}
 	uses = append(uses, "k = 3")
-	src := engine.SheetSource{Path: "s.md", Blocks: []engine.Block{block("s.md", uses...)}}
+	src := engine.SheetSource{Path: "s.md", Blocks: []engine.SourceBlock{block("s.md", uses...)}}
 	s := compileTimed(t, src, engine.Options{Resolve: templates(map[string]engine.SheetSource{"big": big})})
 	// The sheet's own n+1 statements count too; u_i is on line i+2.
 	i, total := 0, n+1+1000
@@ -268,7 +268,7 @@ func TestSheetStatementLimit(t *testing.T) {
 	for i := range lines {
 		lines[i] = fmt.Sprintf("v_%d = %d", i, i)
 	}
-	s := compileTimed(t, engine.SheetSource{Path: "s.md", Blocks: []engine.Block{block("s.md", lines...)}}, engine.Options{})
+	s := compileTimed(t, engine.SheetSource{Path: "s.md", Blocks: []engine.SourceBlock{block("s.md", lines...)}}, engine.Options{})
 	wantError(t, s, fmt.Sprintf("s.md:%d:1", engine.MaxStatements+2), fmt.Sprintf("the sheet has more than %d statements", engine.MaxStatements))
 	if len(s.Statements) != engine.MaxStatements {
 		t.Errorf("%d statements compiled", len(s.Statements))
@@ -285,7 +285,7 @@ func TestTableRowLimit(t *testing.T) {
 		ts.Rows = append(ts.Rows, []engine.CellSource{{Text: fmt.Sprint(i)}, {Text: fmt.Sprint(float64(i) / 1e4)}})
 	}
 	src := engine.SheetSource{Path: "s.md", Tables: []engine.TableSource{ts},
-		Blocks: []engine.Block{block("s.md", "B = interp(BH.B, BH.H, 5 A/m)", "k = 3")}}
+		Blocks: []engine.SourceBlock{block("s.md", "B = interp(BH.B, BH.H, 5 A/m)", "k = 3")}}
 	s := compileTimed(t, src, engine.Options{})
 	wantError(t, s, "s.md:3:1", fmt.Sprintf("table BH has more than %d rows", engine.MaxTableRows))
 	wantValue(t, s, "k", 3)
@@ -313,7 +313,7 @@ func lines(n int, f func(i int) string) []string {
 // A sheet of thousands of unknown names looked for a close name to each
 // among all the others: 15 s for 5,000. The first few get a suggestion.
 func TestManyUnknownNamesQuick(t *testing.T) {
-	src := engine.SheetSource{Path: "r.md", Blocks: []engine.Block{block("r.md", lines(5000, func(i int) string {
+	src := engine.SheetSource{Path: "r.md", Blocks: []engine.SourceBlock{block("r.md", lines(5000, func(i int) string {
 		return fmt.Sprintf("x_%d = y_%d", i, i)
 	})...)}}
 	s := compileTimed(t, src, engine.Options{})
@@ -328,7 +328,7 @@ func TestManyUnknownNamesQuick(t *testing.T) {
 // minutes and gigabytes. The message lists the first few and the count.
 func TestLongCycleQuick(t *testing.T) {
 	n := engine.MaxStatements - 1
-	src := engine.SheetSource{Path: "r.md", Blocks: []engine.Block{block("r.md", lines(n, func(i int) string {
+	src := engine.SheetSource{Path: "r.md", Blocks: []engine.SourceBlock{block("r.md", lines(n, func(i int) string {
 		return fmt.Sprintf("a_%d = a_%d + 1 m", i, (i+n-1)%n)
 	})...)}}
 	s := compileTimed(t, src, engine.Options{})
@@ -340,7 +340,7 @@ func TestLongCycleQuick(t *testing.T) {
 // Past MaxSolves, solve statements are refused at their formula; the
 // ones before keep their results, and so do statements that use none.
 func TestSolveCountLimit(t *testing.T) {
-	src := engine.SheetSource{Path: "r.md", Blocks: []engine.Block{block("r.md", append([]string{"x_0 = 1"}, lines(engine.MaxSolves+50, func(i int) string {
+	src := engine.SheetSource{Path: "r.md", Blocks: []engine.SourceBlock{block("r.md", append([]string{"x_0 = 1"}, lines(engine.MaxSolves+50, func(i int) string {
 		return fmt.Sprintf("x_%d = solve(x_%d^2 == x_%d + 1, 0, 100)", i+1, i+1, i)
 	})...)...)}}
 	s := compileTimed(t, src, engine.Options{})

@@ -24,7 +24,7 @@ func TestQuantityLiteralPowers(t *testing.T) {
 		}
 	}
 	d := s.Lookup("D")
-	if d.Status != engine.Failed || d.Err.Pos.Line != 5 || d.Err.Pos.Col != 11 ||
+	if d.Status != engine.Errored || d.Err.Pos.Line != 5 || d.Err.Pos.Col != 11 ||
 		!strings.Contains(d.Err.Message, "ambiguous") || !strings.Contains(d.Err.Hint, "(60 cm)^") {
 		t.Errorf("D: %v %+v", d.Status, d.Err)
 	}
@@ -34,7 +34,7 @@ func TestReservedWordsAsNames(t *testing.T) {
 	s := compileLines("check = 2", "use = 3", "param = 4", "x = 1")
 	for i, word := range []string{"check", "use", "param"} {
 		st := s.Statements[i]
-		if st.Status != engine.Failed || st.Err.Message != word+" is a reserved word" || st.Err.Pos.Col != 1 {
+		if st.Status != engine.Errored || st.Err.Message != word+" is a reserved word" || st.Err.Pos.Col != 1 {
 			t.Errorf("%s = ...: %v %+v", word, st.Status, st.Err)
 		}
 	}

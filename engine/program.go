@@ -55,7 +55,7 @@ type Set struct {
 }
 
 // buildProgram collects the compiled statements of a checked sheet.
-func (s *Sheet) buildProgram() *Program {
+func (s *Calc) buildProgram() *Program {
 	n := len(s.Statements)
 	p := &Program{stmts: s.Statements, initial: make([]Status, n), inputs: map[string]int{}, stepOf: make([]int32, n), after: make([][]int32, n)}
 	for i, st := range s.Statements {
@@ -214,7 +214,7 @@ func (p *Program) block(f *Frame, k *step, dep int) {
 }
 
 func (p *Program) fail(f *Frame, slot int, d *diag.Diagnostic) {
-	p.setStatus(f, slot, Failed)
+	p.setStatus(f, slot, Errored)
 	f.Errs[slot] = d
 }
 

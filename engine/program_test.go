@@ -27,7 +27,7 @@ var circuit = []string{
 	"W [N] = m*9.81 m/s^2",
 }
 
-func program(t *testing.T, lines ...string) (*engine.Sheet, *engine.Program) {
+func program(t *testing.T, lines ...string) (*engine.Calc, *engine.Program) {
 	t.Helper()
 	s := compileLines(lines...)
 	for _, d := range s.Diags {
@@ -89,7 +89,7 @@ func TestRunFailsAndRecovers(t *testing.T) {
 	f := p.NewFrame()
 	p.Run(f, []engine.Set{{Slot: slot(t, p, "g"), SI: 0}})
 	at := func(n string) int { return s.Lookup(n).Index }
-	if f.Status[at("Phi")] != engine.Failed || !strings.Contains(f.Errs[at("Phi")].Message, "division by zero") {
+	if f.Status[at("Phi")] != engine.Errored || !strings.Contains(f.Errs[at("Phi")].Message, "division by zero") {
 		t.Errorf("Φ with no gap: %s %v", f.Status[at("Phi")], f.Errs[at("Phi")])
 	}
 	if f.Status[at("B")] != engine.Blocked || f.Status[at("W")] != engine.OK {
@@ -168,11 +168,11 @@ func benchLines(statements int) []string {
 // 1 µs. See BENCHMARKS.md.
 func BenchmarkRerun(b *testing.B) {
 	lines := benchLines(50)
-	block := engine.Block{}
+	block := engine.SourceBlock{}
 	for i, l := range lines {
-		block.Lines = append(block.Lines, engine.Line{Text: l, Pos: diag.Pos{File: "b.md", Line: i + 1, Col: 1}})
+		block.Lines = append(block.Lines, engine.SourceLine{Text: l, Pos: diag.Pos{File: "b.md", Line: i + 1, Col: 1}})
 	}
-	s := engine.Compile(engine.SheetSource{Path: "b.md", Blocks: []engine.Block{block}})
+	s := engine.Compile(engine.SheetSource{Path: "b.md", Blocks: []engine.SourceBlock{block}})
 	if len(s.Diags) != 0 || len(s.Statements) != 50 {
 		b.Fatalf("%d statements, %v", len(s.Statements), s.Diags)
 	}

@@ -12,12 +12,12 @@ import (
 
 // compileLines compiles and evaluates one formula block whose first line is
 // line 2 of r.md (the fence is line 1).
-func compileLines(lines ...string) *engine.Sheet {
-	b := engine.Block{Fence: diag.Pos{File: "r.md", Line: 1, Col: 1}}
+func compileLines(lines ...string) *engine.Calc {
+	b := engine.SourceBlock{Fence: diag.Pos{File: "r.md", Line: 1, Col: 1}}
 	for i, l := range lines {
-		b.Lines = append(b.Lines, engine.Line{Text: l, Pos: diag.Pos{File: "r.md", Line: i + 2, Col: 1}})
+		b.Lines = append(b.Lines, engine.SourceLine{Text: l, Pos: diag.Pos{File: "r.md", Line: i + 2, Col: 1}})
 	}
-	s := engine.Compile(engine.SheetSource{Path: "r.md", Blocks: []engine.Block{b}})
+	s := engine.Compile(engine.SheetSource{Path: "r.md", Blocks: []engine.SourceBlock{b}})
 	s.Evaluate()
 	return s
 }

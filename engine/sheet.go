@@ -12,9 +12,9 @@ import (
 	"github.com/sheaf-calc/sheaf/units"
 )
 
-// Sheet is a compiled sheet: its statements in the order written, the order
+// Calc is a compiled sheet: its statements in the order written, the order
 // in which they are evaluated, and every diagnostic.
-type Sheet struct {
+type Calc struct {
 	Path       string
 	Statements []*Statement
 	// Order lists the statements in evaluation order: every statement after
@@ -26,7 +26,7 @@ type Sheet struct {
 	Assumptions []*Assumption
 	// Tables are the sheet's named tables, and those of its instances
 	// under the instance's name (coil_a.BH).
-	Tables []*Table
+	Tables []*LookupTable
 
 	byName map[string]*Statement
 	prog   *Program
@@ -40,18 +40,18 @@ type Sheet struct {
 }
 
 // Lookup finds the definition of a name.
-func (s *Sheet) Lookup(name string) *Statement { return s.byName[name] }
+func (s *Calc) Lookup(name string) *Statement { return s.byName[name] }
 
 // Compile parses, resolves, orders and checks every statement of a sheet,
 // and compiles the ones that are sound. A bad statement is reported and
 // skipped; statements that do not depend on it are unaffected. Use
 // statements are errors: CompileWith reads templates.
-func Compile(src SheetSource) *Sheet { return CompileWith(src, Options{}) }
+func Compile(src SheetSource) *Calc { return CompileWith(src, Options{}) }
 
 // CompileWith compiles a sheet whose use statements find their templates
 // through opt.Resolve.
-func CompileWith(src SheetSource, opt Options) *Sheet {
-	s := &Sheet{Path: src.Path, byName: map[string]*Statement{}}
+func CompileWith(src SheetSource, opt Options) *Calc {
+	s := &Calc{Path: src.Path, byName: map[string]*Statement{}}
 	var parsed []*Statement
 	for bi, b := range src.Blocks {
 		texts := splitStatements(b)
@@ -92,7 +92,7 @@ func CompileWith(src SheetSource, opt Options) *Sheet {
 	solves := 0
 	for i, st := range s.Statements {
 		st.Index, st.slot = i, i
-		if st.Status == Failed || st.Expr == nil {
+		if st.Status == Errored || st.Expr == nil {
 			continue
 		}
 		if err := solveOutside(st); err != nil {
@@ -120,17 +120,17 @@ func CompileWith(src SheetSource, opt Options) *Sheet {
 	return s
 }
 
-func (s *Sheet) fail(st *Statement, d *diag.Diagnostic) {
-	if st.Status == Failed {
+func (s *Calc) fail(st *Statement, d *diag.Diagnostic) {
+	if st.Status == Errored {
 		return
 	}
-	st.Status = Failed
+	st.Status = Errored
 	st.Err = d
 	s.Diags = append(s.Diags, *d)
 }
 
 // define records every name; a second definition of a name is an error.
-func (s *Sheet) define() {
+func (s *Calc) define() {
 	instances := map[string]*Statement{}
 	for _, st := range s.Statements {
 		if st.Kind == Use && st.Instance == "" {
@@ -158,7 +158,7 @@ func (s *Sheet) define() {
 }
 
 // resolve ties every name in a formula to its statement or constant.
-func (s *Sheet) resolve() {
+func (s *Calc) resolve() {
 	for _, st := range s.Statements {
 		if st.Expr == nil {
 			continue
@@ -172,7 +172,7 @@ func (s *Sheet) resolve() {
 		}
 		Walk(st.Expr, func(e Expr) {
 			r, ok := e.(*Ref)
-			if !ok || st.Status == Failed {
+			if !ok || st.Status == Errored {
 				return
 			}
 			if target, ok := s.byName[r.Name]; ok {
@@ -212,7 +212,7 @@ func (s *Sheet) resolve() {
 // resolveColumn ties T.col to a column of table T. It returns an error
 // when the name starts with a table's name but is not one of its columns;
 // nil with r.Column unset when the name is not a table's.
-func (s *Sheet) resolveColumn(r *Ref) *diag.Diagnostic {
+func (s *Calc) resolveColumn(r *Ref) *diag.Diagnostic {
 	for _, t := range s.Tables {
 		if r.Name == t.Name {
 			return errAt(r.Pos(), "read a table with interp(T.y, T.x, x), spline(...) or pick(...)", "%s is a table, not a value", t.Name)
@@ -239,7 +239,7 @@ func (s *Sheet) resolveColumn(r *Ref) *diag.Diagnostic {
 // so a sheet of thousands of unknown names would take minutes.
 const maxSuggestions = 50
 
-func (s *Sheet) unknownName(r *Ref) *diag.Diagnostic {
+func (s *Calc) unknownName(r *Ref) *diag.Diagnostic {
 	if s.names == nil {
 		s.names = make([]string, 0, len(s.byName)+len(units.Constants))
 		for n := range s.byName {
@@ -267,7 +267,7 @@ func (s *Sheet) unknownName(r *Ref) *diag.Diagnostic {
 
 // order sorts the statements so that each comes after what it uses, and
 // reports cycles by naming their members.
-func (s *Sheet) order() {
+func (s *Calc) order() {
 	const (
 		unvisited = iota
 		active
@@ -308,8 +308,8 @@ func (s *Sheet) order() {
 // take memory in the square of its length.
 const maxCycleNames = 8
 
-func (s *Sheet) cycle(members []*Statement) {
-	if !slices.ContainsFunc(members, func(m *Statement) bool { return m.Status != Failed }) {
+func (s *Calc) cycle(members []*Statement) {
+	if !slices.ContainsFunc(members, func(m *Statement) bool { return m.Status != Errored }) {
 		return // reported already, through another statement that uses it
 	}
 	names := make([]string, 0, maxCycleNames+2)
@@ -329,8 +329,8 @@ func (s *Sheet) cycle(members []*Statement) {
 
 // check infers the dimensions of a statement whose dependencies are sound,
 // checks its display unit and compiles it.
-func (s *Sheet) check(st *Statement) {
-	if st.Status == Failed {
+func (s *Calc) check(st *Statement) {
+	if st.Status == Errored {
 		return
 	}
 	switch st.Kind {
@@ -403,7 +403,7 @@ func (s *Sheet) check(st *Statement) {
 
 // checkTake readies a result taken from another sheet: its value is that
 // sheet's, fixed for this sheet's runs.
-func (s *Sheet) checkTake(st *Statement) {
+func (s *Calc) checkTake(st *Statement) {
 	if t := st.Taken; t.Status != OK {
 		st.Status = Blocked
 		st.Err = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: %s in %s has no value", st.Remote, st.TakenPath)}
@@ -436,7 +436,7 @@ func shownKind(have, unit units.Kind) units.Kind {
 // for the renderers. A statement whose result is not a finite number fails
 // with the reason at the operation that produced it; statements that use
 // it are blocked.
-func (s *Sheet) Evaluate() {
+func (s *Calc) Evaluate() {
 	p := s.Program()
 	f := p.NewFrame()
 	p.Run(f, nil)
@@ -444,7 +444,7 @@ func (s *Sheet) Evaluate() {
 }
 
 // Program returns the sheet's compiled program, built on first use.
-func (s *Sheet) Program() *Program {
+func (s *Calc) Program() *Program {
 	if s.prog == nil {
 		s.prog = s.buildProgram()
 	}
@@ -455,7 +455,7 @@ func (s *Sheet) Program() *Program {
 // the units they are shown in, and the diagnostics of those that failed.
 // A value that cannot be shown in its unit (1e306 m in nm) fails here, and
 // what uses it is blocked.
-func (s *Sheet) publish(p *Program, f *Frame) {
+func (s *Calc) publish(p *Program, f *Frame) {
 	for _, k := range p.steps {
 		st, slot := k.st, k.slot
 		st.Status, st.Err = f.Status[slot], f.Errs[slot]
@@ -478,7 +478,7 @@ func (s *Sheet) publish(p *Program, f *Frame) {
 			}
 		case Pass, Fail:
 			s.publishCheck(st, f.Left[slot], f.Right[slot])
-		case Failed:
+		case Errored:
 			s.Diags = append(s.Diags, *st.Err)
 		}
 	}
@@ -497,7 +497,7 @@ func failedDep(st *Statement) *Statement {
 
 // publishCheck records a check's sides in the unit they are shown in, and
 // its utilisation there (a check on °C values uses the °C values).
-func (s *Sheet) publishCheck(st *Statement, l, r float64) {
+func (s *Calc) publishCheck(st *Statement, l, r float64) {
 	st.Left, st.Right = l, r
 	st.Shown = checkUnit(st)
 	for _, side := range []float64{l, r} {
@@ -513,7 +513,7 @@ func (s *Sheet) publishCheck(st *Statement, l, r float64) {
 // has its value. A package keeps its sheets for rendering, where the
 // closures would only hold memory; after Release the sheet cannot be
 // evaluated again.
-func (s *Sheet) Release() {
+func (s *Calc) Release() {
 	s.prog = nil
 	for _, st := range s.Statements {
 		st.fn, st.right = nil, nil

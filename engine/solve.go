@@ -91,10 +91,10 @@ func solveOutside(st *Statement) *diag.Diagnostic {
 // solve inside it, so solves are linked innermost first: those whose
 // relation reaches their unknown through ordinary formulas, then, with
 // their links in place, the ones around them, until none is left.
-func (s *Sheet) linkSolves() {
+func (s *Calc) linkSolves() {
 	var pending []*Statement
 	for _, st := range s.Statements {
-		if st.solve != nil && st.Status != Failed {
+		if st.solve != nil && st.Status != Errored {
 			pending = append(pending, st)
 		}
 	}
@@ -127,7 +127,7 @@ func (s *Sheet) linkSolves() {
 		pending = rest
 	}
 	for _, st := range s.Statements {
-		if st.solve == nil || st.Status == Failed {
+		if st.solve == nil || st.Status == Errored {
 			continue
 		}
 		inner := s.innerOf(st)
@@ -143,7 +143,7 @@ func (s *Sheet) linkSolves() {
 // givens lists the statements a solve's search takes as given: those its
 // relation names, and those its inner statements use, that do not depend
 // on the unknown.
-func (s *Sheet) givens(st *Statement, inner func(*Statement) bool) []*Statement {
+func (s *Calc) givens(st *Statement, inner func(*Statement) bool) []*Statement {
 	var out []*Statement
 	seen := map[*Statement]bool{st: true}
 	var walk func(x *Statement)
@@ -171,7 +171,7 @@ func (s *Sheet) givens(st *Statement, inner func(*Statement) bool) []*Statement 
 // asked about: a search needs to know this of the statements its relation
 // reaches, which are few, not of everything that uses the unknown, which
 // may be most of the sheet.
-func (s *Sheet) innerOf(st *Statement) func(*Statement) bool {
+func (s *Calc) innerOf(st *Statement) func(*Statement) bool {
 	const (
 		unknown = iota
 		visiting
@@ -206,7 +206,7 @@ func (s *Sheet) innerOf(st *Statement) func(*Statement) bool {
 
 // relationReaches reports whether a solve's relation names its unknown or
 // a statement that depends on it.
-func (s *Sheet) relationReaches(st *Statement, inner func(*Statement) bool) bool {
+func (s *Calc) relationReaches(st *Statement, inner func(*Statement) bool) bool {
 	for _, r := range st.solve.refs {
 		if r == st || inner(r) {
 			return true
@@ -225,7 +225,7 @@ func containsStmt(list []*Statement, st *Statement) bool {
 }
 
 // checkSolveBounds infers the unknown's dimension from its bounds.
-func (s *Sheet) checkSolveBounds(st *Statement) *diag.Diagnostic {
+func (s *Calc) checkSolveBounds(st *Statement) *diag.Diagnostic {
 	sv := st.solve
 	for _, b := range []Expr{sv.lo, sv.hi} {
 		if err := infer(b); err != nil {
@@ -245,7 +245,7 @@ func (s *Sheet) checkSolveBounds(st *Statement) *diag.Diagnostic {
 
 // checkSolveRelations checks and compiles every relation once the
 // statements it uses are checked.
-func (s *Sheet) checkSolveRelations() {
+func (s *Calc) checkSolveRelations() {
 	for _, st := range s.Statements {
 		if st.solve == nil || !st.compiled {
 			continue

@@ -7,18 +7,18 @@ import (
 	"github.com/sheaf-calc/sheaf/diag"
 )
 
-// Line is one line of a formula block with the position of its first
-// character; Block is the lines of one block; SheetSource is a sheet as the
+// SourceLine is one line of a formula block with the position of its first
+// character; SourceBlock is the lines of one block; SheetSource is a sheet as the
 // engine sees it.
-type Line struct {
+type SourceLine struct {
 	Text string
 	Pos  diag.Pos
 }
 
-// Block is one formula block.
-type Block struct {
+// SourceBlock is one formula block.
+type SourceBlock struct {
 	Fence diag.Pos // where the block opens, for errors about the block
-	Lines []Line
+	Lines []SourceLine
 }
 
 // SheetSource is everything the engine needs from one sheet.
@@ -27,7 +27,7 @@ type SheetSource struct {
 	// Title and Caution come from the front matter; when the sheet is used
 	// as a template they go to the use statement, for the page to show.
 	Title, Caution string
-	Blocks         []Block
+	Blocks         []SourceBlock
 	Assumptions    []AssumptionSource // prose assumptions, in the order written
 	Tables         []TableSource      // named tables, in the order written
 }
@@ -67,7 +67,7 @@ func (t *text) String() string { return string(t.runes) }
 // lines starting with # are comments. A statement continues on the next
 // line when that line is indented and the statement so far has an open
 // parenthesis or ends with a comma (as a long use ... with list does).
-func splitStatements(b Block) []*text {
+func splitStatements(b SourceBlock) []*text {
 	var out []*text
 	var cur *text
 	depth, comma := 0, false

@@ -41,8 +41,8 @@ const (
 	// Pass and Fail are the outcomes of checks.
 	Pass
 	Fail
-	// Failed statements have an error of their own.
-	Failed
+	// Errored statements have an error of their own.
+	Errored
 	// Blocked statements were not evaluated because something they use failed.
 	Blocked
 )

@@ -29,8 +29,8 @@ type TableSource struct {
 	Rows    [][]CellSource
 }
 
-// Table is named data that formulas read through interp, spline and pick.
-type Table struct {
+// LookupTable is named data that formulas read through interp, spline and pick.
+type LookupTable struct {
 	Name    string
 	Caption string
 	Pos     diag.Pos
@@ -40,7 +40,7 @@ type Table struct {
 
 // Column is one column of a table: its values in coherent SI.
 type Column struct {
-	Table  *Table
+	Table  *LookupTable
 	Name   string
 	Unit   units.Unit
 	Pos    diag.Pos
@@ -50,9 +50,9 @@ type Column struct {
 
 // readTable turns a table's cells into columns of numbers, checking the
 // units in the header and every cell.
-func readTable(src TableSource, name string) *Table {
-	t := &Table{Name: name, Caption: src.Caption, Pos: src.Pos}
-	fail := func(d *diag.Diagnostic) *Table {
+func readTable(src TableSource, name string) *LookupTable {
+	t := &LookupTable{Name: name, Caption: src.Caption, Pos: src.Pos}
+	fail := func(d *diag.Diagnostic) *LookupTable {
 		if t.Err == nil {
 			t.Err = d
 		}
@@ -111,7 +111,7 @@ func readTable(src TableSource, name string) *Table {
 }
 
 // Column finds a column by name.
-func (t *Table) Column(name string) *Column {
+func (t *LookupTable) Column(name string) *Column {
 	for _, c := range t.Columns {
 		if c.Name == name {
 			return c
@@ -120,7 +120,7 @@ func (t *Table) Column(name string) *Column {
 	return nil
 }
 
-func (t *Table) columnNames() string {
+func (t *LookupTable) columnNames() string {
 	var names []string
 	for _, c := range t.Columns {
 		names = append(names, c.Name)

@@ -96,9 +96,9 @@ func isBlank(c rune) bool { return c == ' ' || c == '\t' }
 
 // resolveTakes finds, for every take statement, the other sheet's result,
 // and gives the statement its type.
-func (s *Sheet) resolveTakes(find func(ref, from string) (*Sheet, string, error)) {
+func (s *Calc) resolveTakes(find func(ref, from string) (*Calc, string, error)) {
 	for _, st := range s.Statements {
-		if st.Kind != Take || st.Status == Failed {
+		if st.Kind != Take || st.Status == Errored {
 			continue
 		}
 		if st.Instance != "" {
@@ -141,7 +141,7 @@ func (e *TakeError) Error() string { return e.Msg }
 
 // definedNames lists the names a sheet defines, for suggestions. It
 // builds the list anew: sheets that take from one sheet may ask at once.
-func (s *Sheet) definedNames() []string {
+func (s *Calc) definedNames() []string {
 	var out []string
 	for n := range s.byName {
 		out = append(out, n)

@@ -23,7 +23,7 @@ type Options struct {
 	// Take finds the compiled, evaluated sheet that a take statement
 	// names, written as ref in the sheet at path from, and that sheet's
 	// path; nil means take statements are errors.
-	Take func(ref, from string) (*Sheet, string, error)
+	Take func(ref, from string) (*Calc, string, error)
 }
 
 // MaxTemplateDepth bounds templates that use templates.
@@ -160,7 +160,7 @@ func parseUse(st *Statement, t *text, i, end int) *diag.Diagnostic {
 
 // expander turns use statements into the statements of their instances.
 type expander struct {
-	sheet   *Sheet
+	sheet   *Calc
 	resolve Resolver
 	stack   []string // template keys being expanded, for cycles
 	// assumptions and tables are those of the templates, under the
@@ -180,7 +180,7 @@ func (x *expander) expand(sts []*Statement, from string) []*Statement {
 	var out []*Statement
 	for _, st := range sts {
 		out = append(out, st)
-		if st.Kind != Use || st.Status == Failed {
+		if st.Kind != Use || st.Status == Errored {
 			continue
 		}
 		out = append(out, x.instantiate(st, from)...)

@@ -36,7 +36,7 @@ type AssumptionSource struct {
 // turns `assume:` statements into assumptions, and works out what rests on
 // each. An unknown id is an error at its annotation; it does not stop the
 // calculation.
-func (s *Sheet) linkAssumptions(prose []AssumptionSource) {
+func (s *Calc) linkAssumptions(prose []AssumptionSource) {
 	byID := map[string]*Assumption{}
 	for _, p := range prose {
 		if first, dup := byID[p.ID]; dup {
@@ -75,7 +75,7 @@ func (s *Sheet) linkAssumptions(prose []AssumptionSource) {
 
 // instanceStatements lists the statements of a use's instance, nested
 // instances included.
-func (s *Sheet) instanceStatements(use *Statement) []*Statement {
+func (s *Calc) instanceStatements(use *Statement) []*Statement {
 	var out []*Statement
 	for _, st := range s.Statements {
 		for u := st.Use; u != nil; u = u.Use {
@@ -88,7 +88,7 @@ func (s *Sheet) instanceStatements(use *Statement) []*Statement {
 	return out
 }
 
-func (s *Sheet) assumptionHint(byID map[string]*Assumption) string {
+func (s *Calc) assumptionHint(byID map[string]*Assumption) string {
 	if len(byID) == 0 {
 		return "declare it in the prose with a paragraph that starts: Assumption " + "<id>: ..."
 	}
@@ -139,7 +139,7 @@ func closure(start []*Statement, next func(*Statement) []*Statement) []*Statemen
 // page links to the sheet it comes from. The first call works them out for
 // every statement at once, in evaluation order, so that a long chain costs
 // its length, not its square.
-func (s *Sheet) RestsOn(st *Statement) (inputs []*Statement, assumptions []*Assumption) {
+func (s *Calc) RestsOn(st *Statement) (inputs []*Statement, assumptions []*Assumption) {
 	s.traceOnce.Do(s.traceAll)
 	if t := s.traces[st.Index]; t.done {
 		return t.inputs, t.assumptions
@@ -157,7 +157,7 @@ type trace struct {
 // traceAll works out every statement's trace from those of the statements
 // it uses, which come before it in evaluation order. A statement in a
 // cycle is left to restsOnSlow.
-func (s *Sheet) traceAll() {
+func (s *Calc) traceAll() {
 	s.traces = make([]trace, len(s.Statements))
 	rank := map[*Assumption]int{}
 	direct := map[*Statement][]*Assumption{}
@@ -220,7 +220,7 @@ func union[T comparable](lists [][]T, key func(T) int) []T {
 }
 
 // restsOnSlow walks a statement's dependencies afresh.
-func (s *Sheet) restsOnSlow(st *Statement) (inputs []*Statement, assumptions []*Assumption) {
+func (s *Calc) restsOnSlow(st *Statement) (inputs []*Statement, assumptions []*Assumption) {
 	all := closure([]*Statement{st}, func(x *Statement) []*Statement { return x.Deps })
 	in := map[*Statement]bool{}
 	for _, x := range all {

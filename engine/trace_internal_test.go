@@ -10,12 +10,12 @@ import (
 	"github.com/sheaf-calc/sheaf/diag"
 )
 
-func compileText(text string, prose ...AssumptionSource) *Sheet {
-	var lines []Line
+func compileText(text string, prose ...AssumptionSource) *Calc {
+	var lines []SourceLine
 	for i, l := range strings.Split(text, "\n") {
-		lines = append(lines, Line{Text: l, Pos: diag.Pos{File: "t.md", Line: i + 2, Col: 1}})
+		lines = append(lines, SourceLine{Text: l, Pos: diag.Pos{File: "t.md", Line: i + 2, Col: 1}})
 	}
-	s := Compile(SheetSource{Path: "t.md", Assumptions: prose, Blocks: []Block{{Fence: diag.Pos{File: "t.md", Line: 1, Col: 1}, Lines: lines}}})
+	s := Compile(SheetSource{Path: "t.md", Assumptions: prose, Blocks: []SourceBlock{{Fence: diag.Pos{File: "t.md", Line: 1, Col: 1}, Lines: lines}}})
 	s.Evaluate()
 	return s
 }

@@ -31,15 +31,15 @@ type Package struct {
 	Sheets []*Sheet // the pages of the package, sorted by path
 	// Templates are the package's sheets that other sheets use and that
 	// are not pages themselves, sorted by path.
-	Templates []*sheets.Sheet
+	Templates []*sheets.Document
 	Files     []SourceFile // every source file with its hash, sorted by path
 	Diags     diag.List
 }
 
 // Sheet pairs a parsed Markdown sheet with its compiled calculation.
 type Sheet struct {
-	Doc  *sheets.Sheet
-	Calc *engine.Sheet
+	Doc  *sheets.Document
+	Calc *engine.Calc
 	// Page is the path of the sheet's page inside a built package, with
 	// forward slashes: "sheets/field-coil.html".
 	Page string
@@ -141,10 +141,10 @@ func build(root string, files map[string][]byte, page func(string) bool, more *f
 	paths := mapKeys(files)
 	pkg := &Package{Root: root}
 
-	docs := make([]*sheets.Sheet, len(paths))
+	docs := make([]*sheets.Document, len(paths))
 	parallel(len(paths), func(i int) { docs[i] = sheets.Parse(paths[i], files[paths[i]]) })
-	r := &resolver{docs: map[string]*sheets.Sheet{}, more: more, files: files}
-	var pages []*sheets.Sheet
+	r := &resolver{docs: map[string]*sheets.Document{}, more: more, files: files}
+	var pages []*sheets.Document
 	for _, d := range docs {
 		r.docs[d.Path] = d
 		switch {
@@ -212,7 +212,7 @@ func parallel(n int, f func(i int)) {
 }
 
 // sourceOf gives the engine a sheet's formula blocks and assumptions.
-func sourceOf(doc *sheets.Sheet) engine.SheetSource {
+func sourceOf(doc *sheets.Document) engine.SheetSource {
 	src := engine.SheetSource{Path: doc.Path, Title: doc.Meta.Title, Caution: doc.Meta.Caution}
 	for _, a := range doc.Assumptions {
 		src.Assumptions = append(src.Assumptions, engine.AssumptionSource{ID: a.ID, Text: a.Text, Pos: a.Pos})
@@ -232,9 +232,9 @@ func sourceOf(doc *sheets.Sheet) engine.SheetSource {
 		src.Tables = append(src.Tables, ts)
 	}
 	for _, b := range doc.Blocks {
-		eb := engine.Block{Fence: b.Fence}
+		eb := engine.SourceBlock{Fence: b.Fence}
 		for _, l := range b.Lines {
-			eb.Lines = append(eb.Lines, engine.Line{Text: l.Text, Pos: l.Pos})
+			eb.Lines = append(eb.Lines, engine.SourceLine{Text: l.Text, Pos: l.Pos})
 		}
 		src.Blocks = append(src.Blocks, eb)
 	}
@@ -248,14 +248,14 @@ func sourceOf(doc *sheets.Sheet) engine.SheetSource {
 // folder is refused.
 type resolver struct {
 	mu    sync.Mutex
-	docs  map[string]*sheets.Sheet
+	docs  map[string]*sheets.Document
 	files map[string][]byte // every file read, for the package's list
 	more  *folder           // where to read templates not read yet, or nil
 }
 
 // doc finds a sheet of the package by its path, reading it from the
 // folder when the package reads templates as they are used.
-func (r *resolver) doc(p string) (*sheets.Sheet, error) {
+func (r *resolver) doc(p string) (*sheets.Document, error) {
 	r.mu.Lock()
 	defer r.mu.Unlock()
 	if doc, ok := r.docs[p]; ok || r.more == nil {

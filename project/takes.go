@@ -23,7 +23,7 @@ type takes struct {
 	cyclic map[int]string
 
 	mu   sync.Mutex
-	calc map[int]*engine.Sheet
+	calc map[int]*engine.Calc
 }
 
 // takeTarget resolves a sheet named by a take statement in the sheet at
@@ -42,8 +42,8 @@ func takeTarget(ref, from string) (string, error) {
 	return p, nil
 }
 
-func newTakes(pages []*sheets.Sheet) *takes {
-	t := &takes{index: map[string]int{}, cyclic: map[int]string{}, calc: map[int]*engine.Sheet{}}
+func newTakes(pages []*sheets.Document) *takes {
+	t := &takes{index: map[string]int{}, cyclic: map[int]string{}, calc: map[int]*engine.Calc{}}
 	for i, d := range pages {
 		t.index[d.Path] = i
 	}
@@ -63,7 +63,7 @@ func newTakes(pages []*sheets.Sheet) *takes {
 
 // findCycles marks the sheets on a cycle of takes, and reports each cycle
 // once, at the take statements that close it.
-func (t *takes) findCycles(pages []*sheets.Sheet, uses [][]int) {
+func (t *takes) findCycles(pages []*sheets.Document, uses [][]int) {
 	state := make([]int, len(uses)) // 0 new, 1 on the path, 2 done
 	var stack []int
 	var visit func(i int)
@@ -139,14 +139,14 @@ func (t *takes) order(uses [][]int) {
 	}
 }
 
-func (t *takes) done(i int, calc *engine.Sheet) {
+func (t *takes) done(i int, calc *engine.Calc) {
 	t.mu.Lock()
 	t.calc[i] = calc
 	t.mu.Unlock()
 }
 
 // find returns the compiled sheet a take statement names.
-func (t *takes) find(ref, from string) (*engine.Sheet, string, error) {
+func (t *takes) find(ref, from string) (*engine.Calc, string, error) {
 	p, err := takeTarget(ref, from)
 	if err != nil {
 		return nil, "", err

@@ -18,7 +18,7 @@ type TemplateInput struct {
 }
 
 // TemplateInputs lists the inputs of a parsed template, in the order written.
-func TemplateInputs(doc *sheets.Sheet) []TemplateInput {
+func TemplateInputs(doc *sheets.Document) []TemplateInput {
 	calc := engine.Compile(sourceOf(doc))
 	var out []TemplateInput
 	for _, st := range calc.Statements {

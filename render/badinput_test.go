@@ -246,7 +246,7 @@ func badCases() []badCase {
 				{pos: "s.md:8:11", msg: "division by zero"},
 				{pos: "s.md:9:1", msg: "not evaluated: it uses x_1, which has an error"},
 			},
-			status: map[string]engine.Status{"x_1": engine.Failed, "y_1": engine.Blocked}},
+			status: map[string]engine.Status{"x_1": engine.Errored, "y_1": engine.Blocked}},
 		// The flow sequence on line 3 is never closed. yaml.v3 itself names
 		// line 2, where the mapping began; sheaf names the line to fix.
 		{name: "bad YAML in front matter", front: "---\ntitle: Fine\nrevision: [A\ndate: 2024-05-01\n---",
@@ -405,9 +405,9 @@ func clip(s string) string {
 }
 
 // find returns the definition of a name, or the check written as text.
-func find(s *engine.Sheet, name string) *engine.Statement {
+func find(s *engine.Calc, name string) *engine.Statement {
 	for _, st := range s.Statements {
-		if st.Kind == engine.Definition && st.Name == name && st.Status != engine.Failed {
+		if st.Kind == engine.Definition && st.Name == name && st.Status != engine.Errored {
 			return st
 		}
 		if st.Kind == engine.Check && st.Text == name {

@@ -21,7 +21,7 @@ func (r *blockRenderer) formulaBlock(w util.BufWriter, source []byte, n ast.Node
 	return ast.WalkSkipChildren, nil
 }
 
-func (r *blockRenderer) block(w sink, b *sheets.Block, bi int) {
+func (r *blockRenderer) block(w sink, b *sheets.FormulaText, bi int) {
 	byLine := map[int]*engine.Statement{}
 	for _, st := range r.sheet.Calc.Statements {
 		if st.Block == bi && st.Instance == "" {

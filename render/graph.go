@@ -33,7 +33,7 @@ type nodeStyle struct {
 
 func styleOf(st *engine.Statement) nodeStyle {
 	switch {
-	case st.Status == engine.Failed || st.Status == engine.Blocked:
+	case st.Status == engine.Errored || st.Status == engine.Blocked:
 		return nodeStyle{fill: "#fbe9e7", stroke: "#9b1c1c", dashed: true}
 	case st.Kind == engine.Check && st.Status == engine.Pass:
 		return nodeStyle{fill: "#e6f2ea", stroke: "#1f6f43", hexagon: true}

@@ -130,7 +130,7 @@ func TestGraphShowsStatusTemplatesAndLinks(t *testing.T) {
 	page := pages[s.Page]
 	svg := page[strings.Index(page, "<svg") : strings.Index(page, "</svg>")+len("</svg>")]
 	want := map[engine.Status]string{engine.OK: "", engine.Pass: `fill="#e6f2ea" stroke="#1f6f43"`,
-		engine.Fail: `fill="#fbe9e7" stroke="#9b1c1c" points=`, engine.Failed: `stroke-dasharray="4,2"`, engine.Blocked: `stroke-dasharray="4,2"`}
+		engine.Fail: `fill="#fbe9e7" stroke="#9b1c1c" points=`, engine.Errored: `stroke-dasharray="4,2"`, engine.Blocked: `stroke-dasharray="4,2"`}
 	seen := map[engine.Status]bool{}
 	for _, st := range s.Calc.Statements {
 		if st.Kind == engine.Use {

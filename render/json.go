@@ -384,7 +384,7 @@ type JSONTaken struct {
 	Name  string `json:"name"`
 }
 
-func jsonStatement(calc *engine.Sheet, st *engine.Statement, digits int) JSONStatement {
+func jsonStatement(calc *engine.Calc, st *engine.Statement, digits int) JSONStatement {
 	j := JSONStatement{
 		Kind: "definition", Name: st.Name, Pos: st.Pos, Text: st.Text, Status: st.Status.String(),
 		Input: st.IsInput(), Description: st.Description, Source: st.Source,

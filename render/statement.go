@@ -21,13 +21,13 @@ func anchor(st *engine.Statement) string {
 
 // writeStatement draws one statement as the checker reads it: the formula
 // with symbols, the same with values, and the result.
-func writeStatement(w sink, calc *engine.Sheet, st *engine.Statement, digits int) {
+func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
 	if st.Kind == engine.Use && st.Status == engine.OK {
 		writeUse(w, calc, st, digits)
 		return
 	}
 	switch st.Status {
-	case engine.Failed, engine.Blocked, engine.Pending:
+	case engine.Errored, engine.Blocked, engine.Pending:
 		writeProblem(w, st)
 		return
 	case engine.Pass, engine.Fail:
@@ -72,7 +72,7 @@ func writeStatement(w sink, calc *engine.Sheet, st *engine.Statement, digits int
 
 // writeTake draws a result taken from another sheet: its value, and a
 // link to the statement it comes from.
-func writeTake(w sink, calc *engine.Sheet, st *engine.Statement, digits int) {
+func writeTake(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
 	w.WriteString(`<div class="row take" id="` + anchor(st) + `">` + "\n" + `<div class="eq"><math class="f"><mrow>`)
 	w.WriteString(symbolMathML(st.Name) + "<mo>=</mo>" + valueMathML(st.Value, st.Shown, st.Digits(digits)))
 	w.WriteString("</mrow></math></div>\n<p class=\"from\">taken from " + takenLink(calc.Path, st) + "</p>\n")
@@ -88,7 +88,7 @@ func takenLink(from string, st *engine.Statement) string {
 
 // writeUse draws a use statement and, under it, the statements of its
 // instance, each with its value.
-func writeUse(w sink, calc *engine.Sheet, use *engine.Statement, digits int) {
+func writeUse(w sink, calc *engine.Calc, use *engine.Statement, digits int) {
 	w.WriteString(`<div class="row use" id="` + anchor(use) + `">` + "\n" + `<p class="usehead"><span class="kw">use</span> `)
 	w.WriteString(`<strong>` + esc(use.Name) + `</strong> = template <code>` + esc(use.Template) + `</code>`)
 	if len(use.Overrides) > 0 {
@@ -128,7 +128,7 @@ func exprText(e engine.Expr) string {
 // writeNote writes what a checker wants beside a result: its description,
 // its source, its assumption, its place in the sheet, what it uses and what
 // uses it, and what it ultimately rests on.
-func writeNote(w sink, calc *engine.Sheet, st *engine.Statement) {
+func writeNote(w sink, calc *engine.Calc, st *engine.Statement) {
 	w.WriteString("<div class=\"note\">")
 	if st.Description != "" {
 		w.WriteString("<span class=\"desc\">" + esc(st.Description) + "</span>")
@@ -232,7 +232,7 @@ func assumptionAnchor(a *engine.Assumption) string {
 	return "A-" + a.ID
 }
 
-func writeCheck(w sink, calc *engine.Sheet, st *engine.Statement, digits int) {
+func writeCheck(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
 	cls, verdict := "pass", "PASS"
 	if st.Status == engine.Fail {
 		cls, verdict = "fail", "FAIL"
@@ -285,7 +285,7 @@ func writeProblem(w sink, st *engine.Statement) {
 func markColumn(st *engine.Statement) string {
 	text := st.Text
 	const limit = 400
-	if st.Err == nil || st.Status != engine.Failed || st.Err.Pos.Line != st.Pos.Line {
+	if st.Err == nil || st.Status != engine.Errored || st.Err.Pos.Line != st.Pos.Line {
 		return esc(clip(text, limit))
 	}
 	r := []rune(text)

@@ -115,7 +115,7 @@ func TerminalLine(st *engine.Statement, digits int) string {
 			name = "check"
 		}
 		return fmt.Sprintf("%s: %s", name, st.Err.Message)
-	case engine.Failed:
+	case engine.Errored:
 		name := st.Name
 		if name == "" {
 			name = "statement"

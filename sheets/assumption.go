@@ -8,9 +8,9 @@ import (
 	"github.com/sheaf-calc/sheaf/diag"
 )
 
-// Assumption is a paragraph of prose that starts "Assumption <id>:". The
+// AssumptionText is a paragraph of prose that starts "Assumption <id>:". The
 // statements that rest on it cite its id with `; assumes: <id>`.
-type Assumption struct {
+type AssumptionText struct {
 	ID   string
 	Text string // the paragraph after "Assumption <id>:", lines joined
 	Pos  diag.Pos
@@ -26,7 +26,7 @@ var KindAssumption = ast.NewNodeKind("Assumption")
 // written; its children are the paragraph's text.
 type AssumptionNode struct {
 	ast.BaseBlock
-	Assumption *Assumption
+	Assumption *AssumptionText
 }
 
 // Kind implements ast.Node.
@@ -39,7 +39,7 @@ func (n *AssumptionNode) Dump(source []byte, level int) {
 
 // assumption turns a paragraph that starts "Assumption <id>:" into an
 // assumption node, or returns nil.
-func (s *Sheet) assumption(p *ast.Paragraph) *AssumptionNode {
+func (s *Document) assumption(p *ast.Paragraph) *AssumptionNode {
 	lines := p.Lines()
 	if lines.Len() == 0 {
 		return nil
@@ -49,7 +49,7 @@ func (s *Sheet) assumption(p *ast.Paragraph) *AssumptionNode {
 	if m == nil {
 		return nil
 	}
-	a := &Assumption{ID: m[1], Text: text[len(m[0]):], Pos: s.Pos(lines.At(0).Start)}
+	a := &AssumptionText{ID: m[1], Text: text[len(m[0]):], Pos: s.Pos(lines.At(0).Start)}
 	s.Assumptions = append(s.Assumptions, a)
 	n := &AssumptionNode{Assumption: a}
 	adopt(n, p)

@@ -14,7 +14,7 @@ var KindFormulaBlock = ast.NewNodeKind("FormulaBlock")
 // the renderer draws the block's statements there.
 type FormulaBlock struct {
 	ast.BaseBlock
-	Block *Block
+	Block *FormulaText
 	// Index is the block's place among the sheet's formula blocks.
 	Index int
 }
@@ -27,11 +27,11 @@ func (n *FormulaBlock) Dump(source []byte, level int) { ast.DumpHelper(n, source
 
 // formulaBlock turns a fenced code block into a formula block, recording
 // its lines with their positions, or returns nil for other code.
-func (s *Sheet) formulaBlock(fc *ast.FencedCodeBlock) *FormulaBlock {
+func (s *Document) formulaBlock(fc *ast.FencedCodeBlock) *FormulaBlock {
 	if !IsFormulaBlock(fc, s.Source) {
 		return nil
 	}
-	b := &Block{}
+	b := &FormulaText{}
 	if fc.Info != nil {
 		b.Fence = s.Pos(fc.Info.Segment.Start)
 		// Point at the fence itself, not at the info word.
@@ -47,7 +47,7 @@ func (s *Sheet) formulaBlock(fc *ast.FencedCodeBlock) *FormulaBlock {
 		txt := strings.TrimRight(string(seg.Value(s.Source)), "\n")
 		pos := s.Pos(seg.Start)
 		pos.Col -= seg.Padding
-		b.Lines = append(b.Lines, Line{Text: txt, Pos: pos})
+		b.Lines = append(b.Lines, TextLine{Text: txt, Pos: pos})
 	}
 	s.Blocks = append(s.Blocks, b)
 	n := &FormulaBlock{Block: b, Index: len(s.Blocks) - 1}

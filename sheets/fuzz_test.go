@@ -71,7 +71,7 @@ func FuzzSheet(f *testing.F) {
 // checkBody parses the sheet again with its front matter blanked out, line
 // for line, and asserts that the formula blocks come out the same: front
 // matter must never swallow, move or add a block.
-func checkBody(t *testing.T, s *sheets.Sheet) {
+func checkBody(t *testing.T, s *sheets.Document) {
 	lines := strings.Split(string(s.Source), "\n")
 	end := frontMatterEnd(lines)
 	if end < 0 {
@@ -125,7 +125,7 @@ func TestFrontMatterFenceWithTrailingSpace(t *testing.T) {
 
 // checkMeta decodes closed front matter on its own, as a map, and compares
 // every text field with what Parse put in Meta.
-func checkMeta(t *testing.T, s *sheets.Sheet) {
+func checkMeta(t *testing.T, s *sheets.Document) {
 	lines := strings.Split(string(s.Source), "\n")
 	end := frontMatterEnd(lines)
 	if end < 0 {

@@ -34,12 +34,12 @@ func LibrarySource(name string) ([]byte, bool) {
 
 var (
 	libraryMu     sync.Mutex
-	libraryParsed = map[string]*Sheet{}
+	libraryParsed = map[string]*Document{}
 )
 
 // LibraryTemplate returns a built-in template, parsed once. Its path is
 // lib/<name>.md, the name errors inside it show.
-func LibraryTemplate(name string) (*Sheet, error) {
+func LibraryTemplate(name string) (*Document, error) {
 	name = strings.TrimSuffix(name, ".md")
 	libraryMu.Lock()
 	defer libraryMu.Unlock()

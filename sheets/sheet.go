@@ -22,32 +22,32 @@ import (
 // InfoWord marks a fenced code block as a formula block: ```sheaf.
 const InfoWord = "sheaf"
 
-// Sheet is one parsed Markdown file.
-type Sheet struct {
+// Document is one parsed Markdown file.
+type Document struct {
 	Path   string // as shown in messages, relative to the package folder
 	Source []byte // the cleaned source the positions refer to
 	Meta   Meta
-	Doc    ast.Node // the goldmark document, for rendering prose
-	Blocks []*Block // formula blocks in document order
+	Doc    ast.Node       // the goldmark document, for rendering prose
+	Blocks []*FormulaText // formula blocks in document order
 	// Assumptions are the paragraphs marked as assumptions, in order.
-	Assumptions []*Assumption
+	Assumptions []*AssumptionText
 	// Tables are the pipe tables introduced by a caption paragraph
 	// "Table <name>: ...", in order.
-	Tables []*Table
+	Tables []*TableText
 	Diags  diag.List
 
 	index lineIndex
 }
 
-// Block is one formula block.
-type Block struct {
+// FormulaText is one formula block.
+type FormulaText struct {
 	Fence diag.Pos // where the opening fence is
-	Lines []Line
+	Lines []TextLine
 }
 
-// Line is one line of a formula block with the position of its first
+// TextLine is one line of a formula block with the position of its first
 // character.
-type Line struct {
+type TextLine struct {
 	Text string
 	Pos  diag.Pos
 }
@@ -68,15 +68,15 @@ var (
 
 // Parse reads a sheet. It never fails: problems become diagnostics in
 // Sheet.Diags, and whatever could be read is kept.
-func Parse(path string, raw []byte) *Sheet {
+func Parse(path string, raw []byte) *Document {
 	if d := tooLarge(path, raw); d != nil {
-		s := &Sheet{Path: path, Diags: diag.List{*d}, index: newLineIndex(nil)}
+		s := &Document{Path: path, Diags: diag.List{*d}, index: newLineIndex(nil)}
 		s.Doc = plain.Parser().Parse(text.NewReader(nil))
 		return s
 	}
 	src, diags := cleanSource(path, raw)
 	src = tidyFrontMatterFences(src)
-	s := &Sheet{Path: path, Source: src, Diags: diags, index: newLineIndex(src)}
+	s := &Document{Path: path, Source: src, Diags: diags, index: newLineIndex(src)}
 
 	md := plain
 	if opensFrontMatter(src) {
@@ -153,19 +153,19 @@ func isFence(l []byte) bool {
 }
 
 // Pos returns the position of a byte offset into Source.
-func (s *Sheet) Pos(offset int) diag.Pos {
+func (s *Document) Pos(offset int) diag.Pos {
 	line, col := s.index.pos(offset)
 	return diag.Pos{File: s.Path, Line: line, Col: col}
 }
 
 // LineText returns line n of the source, for snippets under errors.
-func (s *Sheet) LineText(n int) string { return s.index.lineText(n) }
+func (s *Document) LineText(n int) string { return s.index.lineText(n) }
 
 // collectBlocks replaces the constructs of a sheet in its document with
 // node kinds of sheaf's own, recording what each holds: formula blocks,
 // assumption paragraphs and the captions of named tables. The renderer
 // has one renderer for each kind.
-func (s *Sheet) collectBlocks() {
+func (s *Document) collectBlocks() {
 	var swaps [][2]ast.Node
 	_ = ast.Walk(s.Doc, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
 		if !entering {
@@ -197,7 +197,7 @@ func (s *Sheet) collectBlocks() {
 }
 
 // paragraphText returns a paragraph's lines joined by spaces.
-func (s *Sheet) paragraphText(p *ast.Paragraph) string {
+func (s *Document) paragraphText(p *ast.Paragraph) string {
 	lines := p.Lines()
 	var parts []string
 	for i := 0; i < lines.Len(); i++ {

@@ -10,10 +10,10 @@ import (
 	"github.com/sheaf-calc/sheaf/diag"
 )
 
-// Table is a named table of data: a caption paragraph "Table <name>:
+// TableText is a named table of data: a caption paragraph "Table <name>:
 // caption" and the pipe table that follows it. Header cells are column
 // names with units in brackets: "H [A/m]".
-type Table struct {
+type TableText struct {
 	Name    string
 	Caption string
 	Pos     diag.Pos // of the caption
@@ -37,7 +37,7 @@ var KindTableCaption = ast.NewNodeKind("TableCaption")
 // written; its children are the caption's text. The pipe table follows it.
 type TableCaption struct {
 	ast.BaseBlock
-	Table *Table
+	Table *TableText
 }
 
 // Kind implements ast.Node.
@@ -50,7 +50,7 @@ func (n *TableCaption) Dump(source []byte, level int) {
 
 // tableCaption turns a caption paragraph "Table <name>: ..." and the pipe
 // table right after it into a named table, or returns nil.
-func (s *Sheet) tableCaption(p *ast.Paragraph) *TableCaption {
+func (s *Document) tableCaption(p *ast.Paragraph) *TableCaption {
 	if p.Lines().Len() == 0 {
 		return nil
 	}
@@ -59,7 +59,7 @@ func (s *Sheet) tableCaption(p *ast.Paragraph) *TableCaption {
 	if m == nil {
 		return nil
 	}
-	t := &Table{Name: m[1], Caption: text[len(m[0]):], Pos: s.Pos(p.Lines().At(0).Start)}
+	t := &TableText{Name: m[1], Caption: text[len(m[0]):], Pos: s.Pos(p.Lines().At(0).Start)}
 	next, ok := p.NextSibling().(*east.Table)
 	if !ok {
 		s.Diags.Add(t.Pos, "put the pipe table right after the caption line, with no other paragraph between",
@@ -84,7 +84,7 @@ func (s *Sheet) tableCaption(p *ast.Paragraph) *TableCaption {
 }
 
 // cell returns the raw text of a table cell and where it starts.
-func (s *Sheet) cell(c ast.Node) Cell {
+func (s *Document) cell(c ast.Node) Cell {
 	var b strings.Builder
 	start := -1
 	_ = ast.Walk(c, func(n ast.Node, entering bool) (ast.WalkStatus, error) {

@@ -94,7 +94,7 @@ func templatesCmd(stdout io.Writer) *cobra.Command {
 
 // starterSheet writes a sheet that uses a copied template, with the job's
 // title block to fill in and an example value for each input it must set.
-func starterSheet(name string, doc *sheets.Sheet) string {
+func starterSheet(name string, doc *sheets.Document) string {
 	var b strings.Builder
 	fmt.Fprintf(&b, "---\ntitle: %s\nproject: \njob: \nsubject: %s\nrevision: A\nprepared by: \nchecked by: \n---\n\n", doc.Meta.Title, doc.Meta.Subject)
 	fmt.Fprintf(&b, "# %s\n\nThis sheet uses the template `_templates/%s.md`, copied from sheaf's library. Replace the example\nvalues below with the job's, each with its source, and adapt the template if the job needs it.\n\n```sheaf\n", doc.Meta.Title, name)
