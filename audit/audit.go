@@ -137,20 +137,20 @@ func sheetFindings(s *project.Sheet) []Finding {
 			"the title block has no %s", strings.Join(missing, " and no ")))
 	}
 	for _, st := range s.Calc.Statements {
-		out = append(out, statementFindings(st)...)
+		out = append(out, statementFindings(st, s.Calc.Result(st))...)
 	}
 	return out
 }
 
 var openMarkers = []string{"tbc", "tbd", "tba", "to be confirmed", "to be decided", "preliminary", "example value", "?"}
 
-func statementFindings(st *engine.Statement) []Finding {
+func statementFindings(st *engine.Statement, r engine.Result) []Finding {
 	var out []Finding
 	name := st.Name
 	if st.Kind == engine.Check {
 		name = "check " + st.Formula
 	}
-	if st.Status == engine.Errored || st.Status == engine.Blocked || st.Status == engine.Pending {
+	if r.Status == engine.Errored || r.Status == engine.Blocked || r.Status == engine.Pending {
 		return nil // errors are reported as errors
 	}
 	if st.IsInput() && st.Overridden {
@@ -180,13 +180,13 @@ func statementFindings(st *engine.Statement) []Finding {
 	}
 	out = append(out, buried(st, name)...)
 	if st.Kind == engine.Check {
-		if st.Status == engine.Pass && st.Utilisation > ThinMargin && !math.IsNaN(st.Utilisation) {
-			out = append(out, finding("thin-margin", st.Pos, name, "%s passes at %.1f %% utilisation", name, st.Utilisation*100))
+		if r.Status == engine.Pass && r.Utilisation > ThinMargin && !math.IsNaN(r.Utilisation) {
+			out = append(out, finding("thin-margin", st.Pos, name, "%s passes at %.1f %% utilisation", name, r.Utilisation*100))
 		}
 	}
-	if st.Kind == engine.Definition && st.Display == nil && st.Status == engine.OK && readsBadly(st) {
+	if st.Kind == engine.Definition && st.Display == nil && r.Status == engine.OK && readsBadly(st, r) {
 		out = append(out, finding("awkward-magnitude", st.Pos, name, "%s shows as %s %s", name,
-			units.FormatNumber(st.Shown.FromSI(st.Value), 4), st.Shown.Symbol))
+			units.FormatNumber(r.Shown.FromSI(r.Value), 4), r.Shown.Symbol))
 	}
 	return out
 }
@@ -313,12 +313,12 @@ func plainQuantity(q *engine.Quantity) bool {
 
 // readsBadly reports whether a result shown in the unit sheaf picked needs
 // an exponent, or has a unit with no name.
-func readsBadly(st *engine.Statement) bool {
-	v := math.Abs(st.Shown.FromSI(st.Value))
+func readsBadly(st *engine.Statement, r engine.Result) bool {
+	v := math.Abs(r.Shown.FromSI(r.Value))
 	if v != 0 && (v < 1e-3 || v >= 1e6) {
 		return true
 	}
-	return strings.Contains(st.Shown.Symbol, "·") && st.Shown.Symbol == st.Type.Dim.SIUnits()
+	return strings.Contains(r.Shown.Symbol, "·") && r.Shown.Symbol == st.Type.Dim.SIUnits()
 }
 
 // inconsistentInputs finds inputs of the same name and dimension with
@@ -328,6 +328,7 @@ func readsBadly(st *engine.Statement) bool {
 func inconsistentInputs(pkg *project.Package) []Finding {
 	type seen struct {
 		st    *engine.Statement
+		value float64
 		sheet string
 	}
 	type key struct{ project, name string }
@@ -335,19 +336,20 @@ func inconsistentInputs(pkg *project.Package) []Finding {
 	var out []Finding
 	for _, s := range pkg.Sheets {
 		for _, st := range s.Calc.Statements {
-			if !st.IsInput() || st.Status != engine.OK {
+			r := s.Calc.Result(st)
+			if !st.IsInput() || r.Status != engine.OK {
 				continue
 			}
 			k := key{s.Doc.Meta.Project, st.Name}
 			f, ok := first[k]
 			if !ok {
-				first[k] = seen{st, s.Path()}
+				first[k] = seen{st, r.Value, s.Path()}
 				continue
 			}
 			if f.st.Type.Dim != st.Type.Dim {
 				continue // a different quantity that shares a symbol
 			}
-			if !same(f.st.Value, st.Value) {
+			if !same(f.value, r.Value) {
 				out = append(out, finding("inconsistent-input", st.Pos, st.Name, "%s is %s here but %s in %s:%d",
 					st.Name, inputText(st), inputText(f.st), f.sheet, f.st.Pos.Line))
 			}

@@ -54,7 +54,7 @@ func benchSheaf(b *testing.B, name string) {
 	f := p.NewFrame()
 	p.Run(f, nil)
 	fn, v := st.fn, f.Values
-	want := st.Value
+	want := s.Result(st).Value
 	b.ResetTimer()
 	var x float64
 	for i := 0; i < b.N; i++ {
@@ -69,16 +69,16 @@ func benchSheaf(b *testing.B, name string) {
 func benchExpr(b *testing.B, name string) {
 	s := compileBench(b)
 	env := benchEnv{
-		KC: s.Lookup("k_C").Value, G: s.Lookup("g").Value, Ap: s.Lookup("A_p").Value, Li: s.Lookup("l_i").Value,
-		MuR: s.Lookup("mu_r").Value, Ai: s.Lookup("A_i").Value, F: s.Lookup("f").Value, N: s.Lookup("N").Value,
-		Kw: s.Lookup("k_w").Value, Phi: s.Lookup("Phi").Value, Mu0: 1.25663706212e-6, Pi: 3.141592653589793,
+		KC: s.Result(s.Lookup("k_C")).Value, G: s.Result(s.Lookup("g")).Value, Ap: s.Result(s.Lookup("A_p")).Value, Li: s.Result(s.Lookup("l_i")).Value,
+		MuR: s.Result(s.Lookup("mu_r")).Value, Ai: s.Result(s.Lookup("A_i")).Value, F: s.Result(s.Lookup("f")).Value, N: s.Result(s.Lookup("N")).Value,
+		Kw: s.Result(s.Lookup("k_w")).Value, Phi: s.Result(s.Lookup("Phi")).Value, Mu0: 1.25663706212e-6, Pi: 3.141592653589793,
 	}
 	program, err := expr.Compile(benchExprs[name], expr.Env(benchEnv{}), expr.AsFloat64())
 	if err != nil {
 		b.Fatal(err)
 	}
 	var machine vm.VM
-	want := s.Lookup(name).Value
+	want := s.Result(s.Lookup(name)).Value
 	b.ResetTimer()
 	var out any
 	for i := 0; i < b.N; i++ {
@@ -97,14 +97,14 @@ func benchExpr(b *testing.B, name string) {
 // sheet holds, read through a slice so that the compiler cannot fold it.
 func benchNative(b *testing.B, name string) {
 	s := compileBench(b)
-	at := func(n string) float64 { return s.Lookup(n).Value }
+	at := func(n string) float64 { return s.Result(s.Lookup(n)).Value }
 	v := []float64{at("k_C"), at("g"), at("A_p"), at("l_i"), at("mu_r"), at("A_i"), at("f"), at("N"), at("k_w"), at("Phi"),
 		1.25663706212e-6, 3.141592653589793}
 	f := map[string]func([]float64) float64{
 		"R": func(v []float64) float64 { return v[0]*v[1]/(v[10]*v[2]) + v[3]/(v[4]*v[10]*v[5]) },
 		"E": func(v []float64) float64 { return 1.4142135623730951 * v[11] * v[6] * v[7] * v[8] * v[9] },
 	}[name]
-	want := s.Lookup(name).Value
+	want := s.Result(s.Lookup(name)).Value
 	b.ResetTimer()
 	var x float64
 	for i := 0; i < b.N; i++ {

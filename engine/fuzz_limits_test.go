@@ -83,29 +83,30 @@ func FuzzTemplateUse(f *testing.F) {
 			}
 		}
 		for _, st := range s.Statements {
-			checkOutcome(t, st)
+			checkOutcome(t, s, st)
 		}
 	})
 }
 
 // checkOutcome asserts that an evaluated statement has a sound outcome.
-func checkOutcome(t *testing.T, st *engine.Statement) {
+func checkOutcome(t *testing.T, calc *engine.Calc, st *engine.Statement) {
 	t.Helper()
-	switch st.Status {
+	r := calc.Result(st)
+	switch r.Status {
 	case engine.OK:
-		if st.Kind != engine.Use && (!finite(st.Value) || st.Shown.Dim != st.Type.Dim) {
-			t.Fatalf("%q: ok with value %v shown in %s", st.Text, st.Value, st.Shown.Symbol)
+		if st.Kind != engine.Use && (!finite(r.Value) || r.Shown.Dim != st.Type.Dim) {
+			t.Fatalf("%q: ok with value %v shown in %s", st.Text, r.Value, r.Shown.Symbol)
 		}
 	case engine.Pass, engine.Fail:
-		if !finite(st.Left) || !finite(st.Right) {
-			t.Fatalf("%q: %v with sides %v, %v", st.Text, st.Status, st.Left, st.Right)
+		if !finite(r.Left) || !finite(r.Right) {
+			t.Fatalf("%q: %v with sides %v, %v", st.Text, r.Status, r.Left, r.Right)
 		}
 	case engine.Errored, engine.Blocked:
-		if st.Err == nil {
-			t.Fatalf("%q: %v without a reason", st.Text, st.Status)
+		if r.Err == nil {
+			t.Fatalf("%q: %v without a reason", st.Text, r.Status)
 		}
 	default:
-		t.Fatalf("%q: status %v after Evaluate", st.Text, st.Status)
+		t.Fatalf("%q: status %v after Evaluate", st.Text, r.Status)
 	}
 }
 
@@ -189,10 +190,10 @@ func FuzzTable(f *testing.F) {
 			}
 		}
 		for _, st := range s.Statements {
-			checkOutcome(t, st)
+			checkOutcome(t, s, st)
 		}
-		if k := s.Lookup("k"); k == nil || k.Status != engine.OK || k.Value != 3 {
-			t.Fatalf("an independent statement lost its result: %+v", k)
+		if k := s.Lookup("k"); k == nil || s.Result(k).Status != engine.OK || s.Result(k).Value != 3 {
+			t.Fatalf("an independent statement lost its result: %+v", s.Result(k))
 		}
 	})
 }

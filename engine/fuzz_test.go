@@ -57,27 +57,28 @@ func FuzzStatement(f *testing.F) {
 			}
 		}
 		for _, st := range s.Statements {
-			switch st.Status {
+			r := s.Result(st)
+			switch r.Status {
 			case engine.OK:
-				if !finite(st.Value) || !finite(st.Shown.FromSI(st.Value)) {
-					t.Fatalf("%q: ok with value %v, shown as %v %s", st.Text, st.Value, st.Shown.FromSI(st.Value), st.Shown.Symbol)
+				if !finite(r.Value) || !finite(r.Shown.FromSI(r.Value)) {
+					t.Fatalf("%q: ok with value %v, shown as %v %s", st.Text, r.Value, r.Shown.FromSI(r.Value), r.Shown.Symbol)
 				}
-				if st.Shown.Dim != st.Type.Dim {
-					t.Fatalf("%q: a %v shown in %s", st.Text, st.Type.Dim, st.Shown.Symbol)
+				if r.Shown.Dim != st.Type.Dim {
+					t.Fatalf("%q: a %v shown in %s", st.Text, st.Type.Dim, r.Shown.Symbol)
 				}
 			case engine.Pass, engine.Fail:
-				if !finite(st.Left) || !finite(st.Right) || !finite(st.Shown.FromSI(st.Left)) || !finite(st.Shown.FromSI(st.Right)) {
-					t.Fatalf("%q: %v with sides %v, %v", st.Text, st.Status, st.Left, st.Right)
+				if !finite(r.Left) || !finite(r.Right) || !finite(r.Shown.FromSI(r.Left)) || !finite(r.Shown.FromSI(r.Right)) {
+					t.Fatalf("%q: %v with sides %v, %v", st.Text, r.Status, r.Left, r.Right)
 				}
-				if st.Shown.Dim != st.Type.Dim {
-					t.Fatalf("%q: a %v compared in %s", st.Text, st.Type.Dim, st.Shown.Symbol)
+				if r.Shown.Dim != st.Type.Dim {
+					t.Fatalf("%q: a %v compared in %s", st.Text, st.Type.Dim, r.Shown.Symbol)
 				}
 			case engine.Errored, engine.Blocked:
-				if st.Err == nil {
-					t.Fatalf("%q: %v without a reason", st.Text, st.Status)
+				if r.Err == nil {
+					t.Fatalf("%q: %v without a reason", st.Text, r.Status)
 				}
 			default:
-				t.Fatalf("%q: status %v after Evaluate", st.Text, st.Status)
+				t.Fatalf("%q: status %v after Evaluate", st.Text, r.Status)
 			}
 		}
 	})

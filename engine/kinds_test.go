@@ -161,11 +161,12 @@ func TestFormulasOfTheTrade(t *testing.T) {
 				t.Fatalf("unexpected error (%s): %v", c.source, own)
 			}
 			st := s.Statements[len(s.Statements)-1]
-			if st.Status != engine.OK {
-				t.Fatalf("status %s, want ok", st.Status)
+			r := s.Result(st)
+			if r.Status != engine.OK {
+				t.Fatalf("status %s, want ok", r.Status)
 			}
-			if !near(st.Value, c.si, 1e-9) {
-				t.Errorf("%s = %.12g in SI, want %.12g (%s)", st.Name, st.Value, c.si, c.source)
+			if !near(r.Value, c.si, 1e-9) {
+				t.Errorf("%s = %.12g in SI, want %.12g (%s)", st.Name, r.Value, c.si, c.source)
 			}
 			if st.Type.Kind != c.kind {
 				t.Errorf("%s has kind %s, want %s", st.Name, st.Type.Kind, c.kind)
@@ -183,8 +184,8 @@ func TestResultDigits(t *testing.T) {
 		t.Errorf("unexpected diagnostic: %s", d.Error())
 	}
 	for name, want := range map[string]string{"N_c": "144", "q": "3", "q_2": "1.500", "k": "3", "x": "18.00", "U": "1.234e+04"} {
-		st := s.Lookup(name)
-		if got := units.FormatNumber(st.Shown.FromSI(st.Value), st.Digits(4)); got != want {
+		r := s.Result(s.Lookup(name))
+		if got := units.FormatNumber(r.Shown.FromSI(r.Value), r.Digits(4)); got != want {
 			t.Errorf("%s shows %q, want %q", name, got, want)
 		}
 	}

@@ -51,9 +51,9 @@ func wantError(t *testing.T, s *engine.Calc, pos, msg string) {
 // wantValue asserts that an independent statement still has its result.
 func wantValue(t *testing.T, s *engine.Calc, name string, si float64) {
 	t.Helper()
-	st := s.Lookup(name)
-	if st == nil || st.Status != engine.OK || st.Value != si {
-		t.Fatalf("%s should be %v: %+v", name, si, st)
+	r := s.Result(s.Lookup(name))
+	if r.Status != engine.OK || r.Value != si {
+		t.Fatalf("%s should be %v: %+v", name, si, r)
 	}
 }
 
@@ -88,7 +88,7 @@ func TestNestedSolvesWithinLimit(t *testing.T) {
 	if len(s.Diags) != 0 {
 		t.Fatalf("unexpected diagnostics: %v", s.Diags)
 	}
-	x3, x4 := s.Lookup("x_3").Value, s.Lookup("x_4").Value
+	x3, x4 := s.Result(s.Lookup("x_3")).Value, s.Result(s.Lookup("x_4")).Value
 	if !near(x4, x3, 1e-9) {
 		t.Fatalf("x_4 = %v should equal x_3 = %v", x4, x3)
 	}
@@ -106,7 +106,7 @@ func TestNestedSolveMessage(t *testing.T) {
 		"P = solve(F == G * 5, 0, 10)",
 		"z = 1000",
 	)
-	d := s.Lookup("I").Err
+	d := s.Result(s.Lookup("I")).Err
 	if d == nil {
 		t.Fatal("I should fail")
 	}
@@ -130,7 +130,7 @@ func TestNestedSolveMessage(t *testing.T) {
 // numbers, and the hint names the unknown.
 func TestSolveBracketMessagePureNumbers(t *testing.T) {
 	s := compileLines("x = solve(x^2 == -1000, 0, 1000)")
-	d := s.Lookup("x").Err
+	d := s.Result(s.Lookup("x")).Err
 	if d == nil {
 		t.Fatal("x should fail")
 	}
@@ -154,10 +154,10 @@ func TestFlatSumIsNotNesting(t *testing.T) {
 		t.Fatalf("unexpected diagnostics: %v", s.Diags)
 	}
 	wantValue(t, s, "a", 1)
-	if v := s.Lookup("s").Value; v != 2400 {
+	if v := s.Result(s.Lookup("s")).Value; v != 2400 {
 		t.Errorf("s = %v", v)
 	}
-	if v := s.Lookup("d").Value; v != -2398 {
+	if v := s.Result(s.Lookup("d")).Value; v != -2398 {
 		t.Errorf("d = %v", v)
 	}
 }
@@ -291,7 +291,7 @@ func TestTableRowLimit(t *testing.T) {
 	wantValue(t, s, "k", 3)
 	ts.Rows = ts.Rows[:engine.MaxTableRows]
 	s = compileTimed(t, src2(src, ts), engine.Options{})
-	if b := s.Lookup("B"); b == nil || b.Status != engine.OK || !near(b.Value, 5e-4, 1e-12) {
+	if b := s.Result(s.Lookup("B")); b.Status != engine.OK || !near(b.Value, 5e-4, 1e-12) {
 		t.Fatalf("a table of %d rows: %v", engine.MaxTableRows, s.Diags)
 	}
 }
@@ -318,7 +318,7 @@ func TestManyUnknownNamesQuick(t *testing.T) {
 	})...)}}
 	s := compileTimed(t, src, engine.Options{})
 	wantError(t, s, "r.md:2:7", "unknown name y_0")
-	if h := s.Lookup("x_0").Err.Hint; !strings.Contains(h, "did you mean") {
+	if h := s.Result(s.Lookup("x_0")).Err.Hint; !strings.Contains(h, "did you mean") {
 		t.Errorf("the first unknown name gets no suggestion: %q", h)
 	}
 	wantValue(t, s, "k", 3)
@@ -346,7 +346,7 @@ func TestSolveCountLimit(t *testing.T) {
 	s := compileTimed(t, src, engine.Options{})
 	n := engine.MaxSolves + 1
 	wantError(t, s, fmt.Sprintf("r.md:%d:%d", n+2, len(fmt.Sprintf("x_%d = ", n))+1), fmt.Sprintf("the sheet has more than %d solve statements", engine.MaxSolves))
-	if x := s.Lookup("x_1"); x == nil || x.Status != engine.OK || !near(x.Value*x.Value, 2, 1e-9) {
+	if x := s.Result(s.Lookup("x_1")); x.Status != engine.OK || !near(x.Value*x.Value, 2, 1e-9) {
 		t.Fatalf("x_1: %+v", x)
 	}
 	wantValue(t, s, "k", 3)

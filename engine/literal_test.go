@@ -18,12 +18,12 @@ func TestQuantityLiteralPowers(t *testing.T) {
 	)
 	want := map[string]float64{"A": 60e-4, "B": 0.36, "C": 2, "E": 0.01}
 	for name, v := range want {
-		st := s.Lookup(name)
-		if st.Status != engine.OK || !near(st.Value, v, 1e-12) {
-			t.Errorf("%s: status %v value %g, want %g", name, st.Status, st.Value, v)
+		r := s.Result(s.Lookup(name))
+		if r.Status != engine.OK || !near(r.Value, v, 1e-12) {
+			t.Errorf("%s: status %v value %g, want %g", name, r.Status, r.Value, v)
 		}
 	}
-	d := s.Lookup("D")
+	d := s.Result(s.Lookup("D"))
 	if d.Status != engine.Errored || d.Err.Pos.Line != 5 || d.Err.Pos.Col != 11 ||
 		!strings.Contains(d.Err.Message, "ambiguous") || !strings.Contains(d.Err.Hint, "(60 cm)^") {
 		t.Errorf("D: %v %+v", d.Status, d.Err)
@@ -33,12 +33,12 @@ func TestQuantityLiteralPowers(t *testing.T) {
 func TestReservedWordsAsNames(t *testing.T) {
 	s := compileLines("check = 2", "use = 3", "param = 4", "x = 1")
 	for i, word := range []string{"check", "use", "param"} {
-		st := s.Statements[i]
-		if st.Status != engine.Errored || st.Err.Message != word+" is a reserved word" || st.Err.Pos.Col != 1 {
-			t.Errorf("%s = ...: %v %+v", word, st.Status, st.Err)
+		r := s.Result(s.Statements[i])
+		if r.Status != engine.Errored || r.Err.Message != word+" is a reserved word" || r.Err.Pos.Col != 1 {
+			t.Errorf("%s = ...: %v %+v", word, r.Status, r.Err)
 		}
 	}
-	if x := s.Lookup("x"); x == nil || x.Status != engine.OK {
+	if x := s.Result(s.Lookup("x")); x.Status != engine.OK {
 		t.Error("x must still evaluate")
 	}
 }

@@ -59,7 +59,7 @@ func (s *Calc) buildProgram() *Program {
 	n := len(s.Statements)
 	p := &Program{stmts: s.Statements, initial: make([]Status, n), inputs: map[string]int{}, stepOf: make([]int32, n), after: make([][]int32, n)}
 	for i, st := range s.Statements {
-		p.initial[i] = st.Status
+		p.initial[i] = st.Verdict
 		p.stepOf[i] = -1
 		if st.Kind == Definition && st.Name != "" && st.IsInput() && st.compiled {
 			p.inputs[st.Name] = i

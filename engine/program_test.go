@@ -77,8 +77,8 @@ func TestRunWithOverridesReevaluatesOnlyDependents(t *testing.T) {
 	}
 	// The sheet's own results are those of the base run.
 	s.Evaluate()
-	if st := s.Lookup("Phi"); !near(st.Value, want(5, 2e-3), 1e-6) {
-		t.Errorf("the sheet shows Φ = %g, want the base case %g", st.Value, want(5, 2e-3))
+	if r := s.Result(s.Lookup("Phi")); !near(r.Value, want(5, 2e-3), 1e-6) {
+		t.Errorf("the sheet shows Φ = %g, want the base case %g", r.Value, want(5, 2e-3))
 	}
 }
 

@@ -23,7 +23,7 @@ func compileLines(lines ...string) *engine.Calc {
 }
 
 // shown is a definition's value in the unit it is shown in.
-func shown(st *engine.Statement) float64 { return st.Shown.FromSI(st.Value) }
+func shown(r engine.Result) float64 { return r.Shown.FromSI(r.Value) }
 
 func near(a, b, rel float64) bool { return math.Abs(a-b) <= rel*math.Abs(b) }
 
@@ -77,21 +77,21 @@ func TestRotationalSpeedConvention(t *testing.T) {
 		{"f_60", 1.5, "kHz", units.Cycle, "arithmetic"},
 	} {
 		st := s.Lookup(w.name)
-		if st == nil || st.Status != engine.OK {
+		r := s.Result(st)
+		if st == nil || r.Status != engine.OK {
 			t.Errorf("%s: %+v", w.name, st)
 			continue
 		}
 		if st.Type.Kind != w.kind {
 			t.Errorf("%s: kind %v, want %v", w.name, st.Type.Kind, w.kind)
 		}
-		if st.Shown.Symbol != w.unit || !near(shown(st), w.value, 1e-12) {
-			t.Errorf("%s = %v %s, want %v %s (%s)", w.name, shown(st), st.Shown.Symbol, w.value, w.unit, w.source)
+		if r.Shown.Symbol != w.unit || !near(shown(r), w.value, 1e-12) {
+			t.Errorf("%s = %v %s, want %v %s (%s)", w.name, shown(r), r.Shown.Symbol, w.value, w.unit, w.source)
 		}
 	}
 	// The figures a reader sees, to four significant figures.
 	for name, text := range map[string]string{"v": "70.69", "omega": "157.1", "f": "125.0", "n_check": "1500"} {
-		st := s.Lookup(name)
-		if got := units.FormatNumber(shown(st), 4); got != text {
+		if got := units.FormatNumber(shown(s.Result(s.Lookup(name))), 4); got != text {
 			t.Errorf("%s shows %s, want %s", name, got, text)
 		}
 	}
@@ -130,8 +130,8 @@ func TestRotationalSpeedSlips(t *testing.T) {
 		t.Errorf("%d diagnostics, want 6: %v", len(s.Diags), s.Diags)
 	}
 	// The good ones are unaffected.
-	if st := s.Lookup("omega_0"); st.Status != engine.OK || st.Type.Kind != units.Angle {
-		t.Errorf("omega_0: %v %v", st.Status, st.Type.Kind)
+	if st := s.Lookup("omega_0"); s.Result(st).Status != engine.OK || st.Type.Kind != units.Angle {
+		t.Errorf("omega_0: %v %v", s.Result(st).Status, st.Type.Kind)
 	}
 }
 
@@ -149,27 +149,29 @@ func TestTemperatureConvention(t *testing.T) {
 		t.Errorf("unexpected diagnostic: %s", d.Error())
 	}
 	th := s.Lookup("T_h")
-	if th.Status != engine.OK || th.Shown.Symbol != "°C" || !near(shown(th), 120, 1e-12) || th.Type.Kind != units.AbsTemp {
-		t.Errorf("T_h = %v %s (%v), want 120 °C", shown(th), th.Shown.Symbol, th.Type.Kind)
+	thR := s.Result(th)
+	if thR.Status != engine.OK || thR.Shown.Symbol != "°C" || !near(shown(thR), 120, 1e-12) || th.Type.Kind != units.AbsTemp {
+		t.Errorf("T_h = %v %s (%v), want 120 °C", shown(thR), thR.Shown.Symbol, th.Type.Kind)
 	}
-	if !near(th.Value, 393.15, 1e-12) {
-		t.Errorf("T_h = %v K in SI, want 393.15 K", th.Value)
+	if !near(thR.Value, 393.15, 1e-12) {
+		t.Errorf("T_h = %v K in SI, want 393.15 K", thR.Value)
 	}
 	dt := s.Lookup("dT")
-	if dt.Status != engine.OK || dt.Shown.Symbol != "K" || !near(shown(dt), 80, 1e-12) || dt.Type.Kind != units.Plain {
-		t.Errorf("dT = %v %s (%v), want a difference of 80 K", shown(dt), dt.Shown.Symbol, dt.Type.Kind)
+	dtR := s.Result(dt)
+	if dtR.Status != engine.OK || dtR.Shown.Symbol != "K" || !near(shown(dtR), 80, 1e-12) || dt.Type.Kind != units.Plain {
+		t.Errorf("dT = %v %s (%v), want a difference of 80 K", shown(dtR), dtR.Shown.Symbol, dt.Type.Kind)
 	}
-	chk := s.Statements[3]
-	if chk.Status != engine.Pass {
-		t.Fatalf("check: %v %v", chk.Status, chk.Err)
+	chkR := s.Result(s.Statements[3])
+	if chkR.Status != engine.Pass {
+		t.Fatalf("check: %v %v", chkR.Status, chkR.Err)
 	}
 	// The utilisation is worked out on the values as shown, in °C:
 	// 120/155 = 77.4 %. On kelvin it would read 393.15/428.15 = 91.8 %;
 	// sheaf keeps the engineer's scale, so a margin reads as it is written.
-	if !near(chk.Utilisation, 120.0/155, 1e-12) {
-		t.Errorf("utilisation %v, want 120/155 = %v (on °C values)", chk.Utilisation, 120.0/155)
+	if !near(chkR.Utilisation, 120.0/155, 1e-12) {
+		t.Errorf("utilisation %v, want 120/155 = %v (on °C values)", chkR.Utilisation, 120.0/155)
 	}
-	if chk.Shown.Symbol != "°C" {
-		t.Errorf("check shown in %s, want °C", chk.Shown.Symbol)
+	if chkR.Shown.Symbol != "°C" {
+		t.Errorf("check shown in %s, want °C", chkR.Shown.Symbol)
 	}
 }

@@ -28,8 +28,9 @@ type Calc struct {
 	// under the instance's name (coil_a.BH).
 	Tables []*LookupTable
 
-	byName map[string]*Statement
-	prog   *Program
+	byName  map[string]*Statement
+	prog    *Program
+	results []Result // by slot, from Evaluate
 	// names are the sheet's names and the constants, sorted, once an
 	// unknown name needs them; suggested counts the looks for a close one.
 	names     []string
@@ -92,7 +93,7 @@ func CompileWith(src SheetSource, opt Options) *Calc {
 	solves := 0
 	for i, st := range s.Statements {
 		st.Index, st.slot = i, i
-		if st.Status == Errored || st.Expr == nil {
+		if st.Verdict == Errored || st.Expr == nil {
 			continue
 		}
 		if err := solveOutside(st); err != nil {
@@ -121,11 +122,11 @@ func CompileWith(src SheetSource, opt Options) *Calc {
 }
 
 func (s *Calc) fail(st *Statement, d *diag.Diagnostic) {
-	if st.Status == Errored {
+	if st.Verdict == Errored {
 		return
 	}
-	st.Status = Errored
-	st.Err = d
+	st.Verdict = Errored
+	st.Problem = d
 	s.Diags = append(s.Diags, *d)
 }
 
@@ -172,7 +173,7 @@ func (s *Calc) resolve() {
 		}
 		Walk(st.Expr, func(e Expr) {
 			r, ok := e.(*Ref)
-			if !ok || st.Status == Errored {
+			if !ok || st.Verdict == Errored {
 				return
 			}
 			if target, ok := s.byName[r.Name]; ok {
@@ -309,7 +310,7 @@ func (s *Calc) order() {
 const maxCycleNames = 8
 
 func (s *Calc) cycle(members []*Statement) {
-	if !slices.ContainsFunc(members, func(m *Statement) bool { return m.Status != Errored }) {
+	if !slices.ContainsFunc(members, func(m *Statement) bool { return m.Verdict != Errored }) {
 		return // reported already, through another statement that uses it
 	}
 	names := make([]string, 0, maxCycleNames+2)
@@ -330,12 +331,12 @@ func (s *Calc) cycle(members []*Statement) {
 // check infers the dimensions of a statement whose dependencies are sound,
 // checks its display unit and compiles it.
 func (s *Calc) check(st *Statement) {
-	if st.Status == Errored {
+	if st.Verdict == Errored {
 		return
 	}
 	switch st.Kind {
 	case Use:
-		st.Status = OK // the instance's own statements carry its results
+		st.Verdict = OK // the instance's own statements carry its results
 		return
 	case Param:
 		s.fail(st, errAt(st.NamePos, "this sheet is a template: use it from another sheet with use ... with "+st.Name+" = ...",
@@ -347,8 +348,8 @@ func (s *Calc) check(st *Statement) {
 	}
 	for _, d := range st.Deps {
 		if !d.compiled {
-			st.Status = Blocked
-			st.Err = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: it uses %s, which has an error", d.Name)}
+			st.Verdict = Blocked
+			st.Problem = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: it uses %s, which has an error", d.Name)}
 			return
 		}
 	}
@@ -404,9 +405,9 @@ func (s *Calc) check(st *Statement) {
 // checkTake readies a result taken from another sheet: its value is that
 // sheet's, fixed for this sheet's runs.
 func (s *Calc) checkTake(st *Statement) {
-	if t := st.Taken; t.Status != OK {
-		st.Status = Blocked
-		st.Err = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: %s in %s has no value", st.Remote, st.TakenPath)}
+	if st.taken.Status != OK {
+		st.Verdict = Blocked
+		st.Problem = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: %s in %s has no value", st.Remote, st.TakenPath)}
 		return
 	}
 	if st.Display != nil {
@@ -416,7 +417,7 @@ func (s *Calc) checkTake(st *Statement) {
 		}
 		st.Type.Kind = shownKind(st.Type.Kind, st.Display.Kind)
 	}
-	st.fn = constant(st.Taken.Value)
+	st.fn = constant(st.taken.Value)
 	st.compiled = true
 }
 
@@ -432,15 +433,21 @@ func shownKind(have, unit units.Kind) units.Kind {
 }
 
 // Evaluate computes every compiled statement in dependency order, as one
-// run of the sheet's Program, and records the results on the statements
-// for the renderers. A statement whose result is not a finite number fails
-// with the reason at the operation that produced it; statements that use
-// it are blocked.
+// run of the sheet's Program, and keeps that run's results for the
+// renderers (Result). A statement whose result is not a finite number
+// fails with the reason at the operation that produced it; statements
+// that use it are blocked.
 func (s *Calc) Evaluate() {
 	p := s.Program()
 	f := p.NewFrame()
 	p.Run(f, nil)
-	s.publish(p, f)
+	s.results = p.Results(f)
+	for _, st := range s.Statements {
+		if r := s.results[st.slot]; r.Status == Errored && st.Verdict != Errored {
+			s.Diags = append(s.Diags, *r.Err)
+		}
+	}
+	s.Diags.Sort()
 }
 
 // Program returns the sheet's compiled program, built on first use.
@@ -451,62 +458,74 @@ func (s *Calc) Program() *Program {
 	return s.prog
 }
 
-// publish records a frame's results on the statements: values, statuses,
-// the units they are shown in, and the diagnostics of those that failed.
-// A value that cannot be shown in its unit (1e306 m in nm) fails here, and
-// what uses it is blocked.
-func (s *Calc) publish(p *Program, f *Frame) {
+// Result returns what the sheet's evaluation gave st, a statement of this
+// sheet; before Evaluate, every statement that runs is pending.
+func (s *Calc) Result(st *Statement) Result {
+	if st == nil {
+		return Result{}
+	}
+	if st.slot < len(s.results) && s.Statements[st.slot] == st {
+		return s.results[st.slot]
+	}
+	return Result{Status: st.Verdict, Err: st.Problem}
+}
+
+// Results reads a frame as the pages show it: for each statement, by slot,
+// its status, its value or both sides, the unit they are shown in and
+// its error. A value that cannot be shown in its unit (1e306 m in nm)
+// fails here, and what uses it is blocked.
+func (p *Program) Results(f *Frame) []Result {
+	out := make([]Result, len(p.stmts))
+	for i, st := range p.stmts {
+		out[i] = Result{Status: st.Verdict, Err: st.Problem}
+	}
 	for _, k := range p.steps {
 		st, slot := k.st, k.slot
-		st.Status, st.Err = f.Status[slot], f.Errs[slot]
-		if settled(st.Status) {
-			if d := failedDep(st); d != nil {
-				st.Status = Blocked
-				st.Err = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: it uses %s, which has an error", d.Name)}
-				continue
-			}
+		r := Result{Status: f.Status[slot], Err: f.Errs[slot], count: st.Type.Count && st.Kind == Definition}
+		if d := failedDep(st, out); settled(r.Status) && d != nil {
+			r.Status = Blocked
+			r.Err = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: it uses %s, which has an error", d.Name)}
 		}
-		switch st.Status {
+		switch r.Status {
 		case OK:
-			st.Value = f.Values[slot]
-			st.Shown = shownUnit(st)
+			r.Value = f.Values[slot]
+			r.Shown = shownUnit(st, r.Value, out)
 			if sv := st.solve; sv != nil {
-				st.Shown = solveUnit(st, fnOf(sv.lo)(f.Values), fnOf(sv.hi)(f.Values))
+				r.Shown = solveUnit(st, fnOf(sv.lo)(f.Values), fnOf(sv.hi)(f.Values))
 			}
-			if !finite(st.Shown.FromSI(st.Value)) {
-				s.fail(st, unshowable(st, st.Value))
+			if !finite(r.Shown.FromSI(r.Value)) {
+				r = Result{Status: Errored, Err: unshowable(st, r.Value, r.Shown)}
 			}
 		case Pass, Fail:
-			s.publishCheck(st, f.Left[slot], f.Right[slot])
-		case Errored:
-			s.Diags = append(s.Diags, *st.Err)
+			r = checkResult(st, r, f.Left[slot], f.Right[slot], out)
 		}
+		out[slot] = r
 	}
-	s.Diags.Sort()
+	return out
 }
 
 // failedDep returns the first statement st uses that has no value.
-func failedDep(st *Statement) *Statement {
+func failedDep(st *Statement, res []Result) *Statement {
 	for _, d := range st.Deps {
-		if d.Status != OK {
+		if res[d.slot].Status != OK {
 			return d
 		}
 	}
 	return nil
 }
 
-// publishCheck records a check's sides in the unit they are shown in, and
+// checkResult gives a check's sides in the unit they are shown in, and
 // its utilisation there (a check on °C values uses the °C values).
-func (s *Calc) publishCheck(st *Statement, l, r float64) {
-	st.Left, st.Right = l, r
-	st.Shown = checkUnit(st)
-	for _, side := range []float64{l, r} {
-		if !finite(st.Shown.FromSI(side)) {
-			s.fail(st, unshowable(st, side))
-			return
+func checkResult(st *Statement, r Result, l, rt float64, res []Result) Result {
+	r.Left, r.Right = l, rt
+	r.Shown = checkUnit(st, l, rt, res)
+	for _, side := range []float64{l, rt} {
+		if !finite(r.Shown.FromSI(side)) {
+			return Result{Status: Errored, Err: unshowable(st, side, r.Shown)}
 		}
 	}
-	st.Utilisation = utilisation(st.Compare().Op, st.Shown.FromSI(l), st.Shown.FromSI(r))
+	r.Utilisation = utilisation(st.Compare().Op, r.Shown.FromSI(l), r.Shown.FromSI(rt))
+	return r
 }
 
 // Release drops the compiled program and closures once every statement
@@ -531,13 +550,13 @@ func (s *Calc) Release() {
 
 // unshowable reports a finite SI value that overflows in the unit it is to
 // be shown in, such as 1e306 m in nm.
-func unshowable(st *Statement, v float64) *diag.Diagnostic {
+func unshowable(st *Statement, v float64, shown units.Unit) *diag.Diagnostic {
 	at := st.Pos
 	if st.Display != nil {
 		at = st.DisplayPos
 	}
 	return errAt(at, "choose a larger unit", "%s %s is beyond the range of a number when shown in %s",
-		units.FormatNumber(v, 4), st.Type.Dim.SIUnits(), st.Shown.Symbol)
+		units.FormatNumber(v, 4), st.Type.Dim.SIUnits(), shown.Symbol)
 }
 
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
@@ -566,7 +585,7 @@ func utilisation(op string, l, r float64) float64 {
 }
 
 // shownUnit picks the unit a definition's value is shown in.
-func shownUnit(st *Statement) units.Unit {
+func shownUnit(st *Statement, v float64, res []Result) units.Unit {
 	if st.Display != nil {
 		return *st.Display
 	}
@@ -581,26 +600,26 @@ func shownUnit(st *Statement) units.Unit {
 		return units.One
 	case *Ref:
 		// An alias shows the way its target does.
-		if q.Target != nil && q.Target.Status == OK {
-			return q.Target.Shown
+		if q.Target != nil && res[q.Target.slot].Status == OK {
+			return res[q.Target.slot].Shown
 		}
 	}
 	if st.Taken != nil {
-		return st.Taken.Shown // as the sheet it comes from shows it
+		return st.taken.Shown // as the sheet it comes from shows it
 	}
-	return units.AutoUnit(st.Value, st.Type.Dim, st.Type.Kind)
+	return units.AutoUnit(v, st.Type.Dim, st.Type.Kind)
 }
 
 // checkUnit picks one unit for both sides of a check: the one asked for,
 // else the unit of a named side, else the unit of a literal side.
-func checkUnit(st *Statement) units.Unit {
+func checkUnit(st *Statement, l, r float64, res []Result) units.Unit {
 	if st.Display != nil {
 		return *st.Display
 	}
 	cmp := st.Compare()
 	for _, side := range []Expr{cmp.X, cmp.Y} {
-		if r, ok := side.(*Ref); ok && r.Target != nil && r.Target.Status == OK {
-			return r.Target.Shown
+		if ref, ok := side.(*Ref); ok && ref.Target != nil && res[ref.Target.slot].Status == OK {
+			return res[ref.Target.slot].Shown
 		}
 	}
 	for _, side := range []Expr{cmp.Y, cmp.X} {
@@ -608,7 +627,7 @@ func checkUnit(st *Statement) units.Unit {
 			return q.Unit
 		}
 	}
-	return units.AutoUnit(math.Max(math.Abs(st.Left), math.Abs(st.Right)), st.Type.Dim, st.Type.Kind)
+	return units.AutoUnit(math.Max(math.Abs(l), math.Abs(r)), st.Type.Dim, st.Type.Kind)
 }
 
 // diagnose finds the operation that first produced a non-finite value and

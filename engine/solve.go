@@ -94,7 +94,7 @@ func solveOutside(st *Statement) *diag.Diagnostic {
 func (s *Calc) linkSolves() {
 	var pending []*Statement
 	for _, st := range s.Statements {
-		if st.solve != nil && st.Status != Errored {
+		if st.solve != nil && st.Verdict != Errored {
 			pending = append(pending, st)
 		}
 	}
@@ -127,7 +127,7 @@ func (s *Calc) linkSolves() {
 		pending = rest
 	}
 	for _, st := range s.Statements {
-		if st.solve == nil || st.Status == Errored {
+		if st.solve == nil || st.Verdict == Errored {
 			continue
 		}
 		inner := s.innerOf(st)
@@ -253,8 +253,8 @@ func (s *Calc) checkSolveRelations() {
 		for _, r := range st.solve.refs {
 			if r != st && !r.compiled {
 				st.compiled = false
-				st.Status = Blocked
-				st.Err = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: its relation uses %s, which has an error", r.Name)}
+				st.Verdict = Blocked
+				st.Problem = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: its relation uses %s, which has an error", r.Name)}
 				break
 			}
 		}

@@ -93,10 +93,6 @@ type Statement struct {
 	Assumes    []string
 	Notes      []Note
 
-	// Type is what the checker inferred for a definition's value, or for
-	// the two sides of a check.
-	Type Type
-
 	// Template reuse. On a Use statement: Template is the template as
 	// named, and Overrides the inputs it sets. On a statement that comes
 	// from a template: Instance is the instance name ("coil_a"; nested
@@ -114,37 +110,43 @@ type Statement struct {
 	Default                        Expr
 	Declared                       *units.Unit
 
-	// A result taken from another sheet: From is the sheet as written,
-	// Remote the name there, Taken the other sheet's statement and
-	// TakenPath that sheet's path in the package.
+	// A result taken from another sheet: From is the sheet as written and
+	// Remote the name there.
 	From, Remote string
-	Taken        *Statement
-	TakenPath    string
 
-	// Deps are the statements this one uses directly, in order of first
-	// use; Users are those that use it.
-	Deps  []*Statement
-	Users []*Statement
-
-	// Results.
-	Status Status
-	Value  float64 // SI value of a definition
-	// Left and Right are the SI values of a check's two sides, and
-	// Utilisation is demand over capacity (below 1 passes for <, <=, >, >=).
-	Left, Right float64
-	Utilisation float64
-	// Shown is the unit the value is shown in: the display unit, the unit of
-	// an input as written, or one sheaf picked.
-	Shown units.Unit
-	// Err is the statement's own error, or for a blocked statement the
-	// reason it was not evaluated.
-	Err *diag.Diagnostic
+	// Info is what the checker learnt; the results of a run are in the
+	// run's Frame, read through Calc.Result.
+	Info
 
 	solve    *solveInfo // set for x = solve(...)
 	slot     int        // index into the sheet's value slots
 	compiled bool
 	fn       evalFn // a definition's value, or a check's left side
 	right    evalFn // a check's right side
+}
+
+// Info is what the checker learnt about a statement, apart from its
+// syntax: the type, what it uses and what uses it, where a taken result
+// comes from, and the verdict that holds before any run.
+type Info struct {
+	// Type is what the checker inferred for a definition's value, or for
+	// the two sides of a check.
+	Type Type
+	// Deps are the statements this one uses directly, in order of first
+	// use; Users are those that use it.
+	Deps  []*Statement
+	Users []*Statement
+	// Taken is the other sheet's statement a take reads, and TakenPath
+	// that sheet's path in the package.
+	Taken     *Statement
+	TakenPath string
+	// Verdict is Errored or Blocked, with Problem the reason, for a
+	// statement the checker stopped; OK for a use, whose instance carries
+	// the results; Pending for a statement that runs.
+	Verdict Status
+	Problem *diag.Diagnostic
+
+	taken Result // the taken statement's result, fixed for this sheet's runs
 }
 
 // Override is one `name = formula` after `with` in a use statement.
@@ -200,13 +202,33 @@ func LiteralString(e Expr) (string, bool) {
 	return v, ok
 }
 
-// Digits returns the significant figures to show the statement's value
-// with, given the sheet's: a whole-number count (turns, conductors,
-// slots, a result of round, floor or ceil) shows every digit and no
-// decimals, 288 rather than 288.0.
-func (s *Statement) Digits(sheet int) int {
-	v := math.Abs(s.Value)
-	if !s.Type.Count || s.Kind != Definition || s.Shown.Symbol != "1" || v != math.Trunc(v) || v >= 1e4 {
+// Result is what one run gave a statement, as a page shows it: the status,
+// a definition's SI value or a check's two sides, the unit they are shown
+// in, and for a check its utilisation there.
+type Result struct {
+	Status Status
+	Value  float64 // SI value of a definition
+	// Left and Right are the SI values of a check's two sides, and
+	// Utilisation is demand over capacity (below 1 passes for <, <=, >, >=).
+	Left, Right float64
+	Utilisation float64
+	// Shown is the unit the value is shown in: the display unit, the unit of
+	// an input as written, or one sheaf picked.
+	Shown units.Unit
+	// Err is the statement's own error, or for a blocked statement the
+	// reason it was not evaluated.
+	Err *diag.Diagnostic
+
+	count bool // a definition whose value is a whole-number count
+}
+
+// Digits returns the significant figures to show the value with, given
+// the sheet's: a whole-number count (turns, conductors, slots, a result of
+// round, floor or ceil) shows every digit and no decimals, 288 rather than
+// 288.0.
+func (r Result) Digits(sheet int) int {
+	v := math.Abs(r.Value)
+	if !r.count || r.Shown.Symbol != "1" || v != math.Trunc(v) || v >= 1e4 {
 		return sheet
 	}
 	n := 1

@@ -98,7 +98,7 @@ func isBlank(c rune) bool { return c == ' ' || c == '\t' }
 // and gives the statement its type.
 func (s *Calc) resolveTakes(find func(ref, from string) (*Calc, string, error)) {
 	for _, st := range s.Statements {
-		if st.Kind != Take || st.Status == Errored {
+		if st.Kind != Take || st.Verdict == Errored {
 			continue
 		}
 		if st.Instance != "" {
@@ -128,7 +128,7 @@ func (s *Calc) resolveTakes(find func(ref, from string) (*Calc, string, error)) 
 			s.fail(st, errAt(st.DisplayPos, hint, "%s defines no result %s", path, st.Remote))
 			continue
 		}
-		st.Taken, st.TakenPath = target, path
+		st.Taken, st.TakenPath, st.taken = target, path, other.Result(target)
 		st.Type = target.Type
 	}
 }

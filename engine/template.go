@@ -180,7 +180,7 @@ func (x *expander) expand(sts []*Statement, from string) []*Statement {
 	var out []*Statement
 	for _, st := range sts {
 		out = append(out, st)
-		if st.Kind != Use || st.Status == Errored {
+		if st.Kind != Use || st.Verdict == Errored {
 			continue
 		}
 		out = append(out, x.instantiate(st, from)...)

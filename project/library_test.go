@@ -244,10 +244,11 @@ func libraryValue(t *testing.T, s *project.Sheet, name string) float64 {
 	if st == nil {
 		t.Fatalf("%s: no result named %s", s.Path(), name)
 	}
-	if st.Status != engine.OK {
-		t.Fatalf("%s: %s did not evaluate: %v %v", s.Path(), name, st.Status, st.Err)
+	r := s.Calc.Result(st)
+	if r.Status != engine.OK {
+		t.Fatalf("%s: %s did not evaluate: %v %v", s.Path(), name, r.Status, r.Err)
 	}
-	return st.Value
+	return r.Value
 }
 
 // closeTo reports a relative difference above tol.
@@ -267,11 +268,12 @@ func closeTo(t *testing.T, what string, got, want, tol float64) {
 func allPass(t *testing.T, s *project.Sheet) {
 	t.Helper()
 	for _, st := range s.Calc.Statements {
+		r := s.Calc.Result(st)
 		switch {
-		case st.Kind == engine.Check && st.Status != engine.Pass:
-			t.Errorf("%v: check %s: %v", st.Pos, st.Formula, st.Status)
-		case st.Kind == engine.Definition && st.Status != engine.OK:
-			t.Errorf("%v: %s: %v %v", st.Pos, st.Name, st.Status, st.Err)
+		case st.Kind == engine.Check && r.Status != engine.Pass:
+			t.Errorf("%v: check %s: %v", st.Pos, st.Formula, r.Status)
+		case st.Kind == engine.Definition && r.Status != engine.OK:
+			t.Errorf("%v: %s: %v %v", st.Pos, st.Name, r.Status, r.Err)
 		}
 	}
 }

@@ -57,7 +57,7 @@ const otherSheet = "```sheaf\nl = 2 m\n```\n"
 func TestMillionRowTable(t *testing.T) {
 	pkg := loadTimed(t, map[string]string{"curve.md": tableSheet(1_000_000), "other.md": otherSheet})
 	wantDiag(t, pkg, "curve.md:5:1", fmt.Sprintf("the table here has more than %d rows, the limit for one table", sheets.MaxTableRows))
-	if st := sheet(t, pkg, "other.md").Calc.Lookup("l"); st == nil || st.Status != engine.OK || st.Value != 2 {
+	if st := sheet(t, pkg, "other.md").Calc.Lookup("l"); st == nil || sheet(t, pkg, "other.md").Calc.Result(st).Status != engine.OK || sheet(t, pkg, "other.md").Calc.Result(st).Value != 2 {
 		t.Fatalf("l: %+v", st)
 	}
 	if n := len(sheet(t, pkg, "curve.md").Calc.Statements); n != 0 {
@@ -71,7 +71,7 @@ func TestTableRowLimitInSheet(t *testing.T) {
 	pkg := loadTimed(t, map[string]string{"curve.md": tableSheet(sheets.MaxTableRows + 1)})
 	wantDiag(t, pkg, "curve.md:3:1", fmt.Sprintf("table BH has more than %d rows, the limit for one table", engine.MaxTableRows))
 	s := sheet(t, pkg, "curve.md")
-	if st := s.Calc.Lookup("y"); st == nil || st.Status != engine.OK || st.Value != 2 {
+	if st := s.Calc.Lookup("y"); st == nil || s.Calc.Result(st).Status != engine.OK || s.Calc.Result(st).Value != 2 {
 		t.Fatalf("y: %+v", st)
 	}
 	if rows := len(s.Doc.Tables[0].Rows); rows > sheets.MaxTableRows+1 {
@@ -96,7 +96,7 @@ func TestSheetSizeLimit(t *testing.T) {
 	big := "# Big\n\n" + strings.Repeat("Prose that goes on. ", sheets.MaxSheetBytes/20+1) + "\n"
 	pkg := loadTimed(t, map[string]string{"big.md": big, "other.md": otherSheet})
 	wantDiag(t, pkg, "big.md:1:1", fmt.Sprintf("the sheet is larger than %d MiB", sheets.MaxSheetBytes>>20))
-	if st := sheet(t, pkg, "other.md").Calc.Lookup("l"); st == nil || st.Status != engine.OK {
+	if st := sheet(t, pkg, "other.md").Calc.Lookup("l"); st == nil || sheet(t, pkg, "other.md").Calc.Result(st).Status != engine.OK {
 		t.Fatalf("l: %+v", st)
 	}
 }

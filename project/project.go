@@ -326,7 +326,7 @@ func (c Counts) Add(o Counts) Counts {
 func (s *Sheet) Counts() Counts {
 	var c Counts
 	for _, st := range s.Calc.Statements {
-		switch st.Status {
+		switch s.Calc.Result(st).Status {
 		case engine.OK:
 			if st.Kind == engine.Use {
 				continue // an instance's results are its own statements

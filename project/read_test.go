@@ -97,7 +97,7 @@ func TestSymlinkedTemplateAndFolderOutsideRefused(t *testing.T) {
 	if strings.Contains(fmt.Sprint(one.Diags), "secret-line-42") || len(one.Files) != 1 {
 		t.Errorf("the target was read: %v, %d files", one.Diags, len(one.Files))
 	}
-	if l := one.Sheets[0].Calc.Lookup("l"); l == nil || l.Value != 2 {
+	if l := one.Sheets[0].Calc.Lookup("l"); l == nil || one.Sheets[0].Calc.Result(l).Value != 2 {
 		t.Errorf("l: %+v", l)
 	}
 }
@@ -120,7 +120,7 @@ func TestSymlinkInsidePackageRead(t *testing.T) {
 	if len(p.Diags) != 0 {
 		t.Fatalf("diagnostics: %v", p.Diags)
 	}
-	if st := sheet(t, p, "job.md").Calc.Lookup("a.lambda"); st == nil || st.Value != 0.01 {
+	if st := sheet(t, p, "job.md").Calc.Lookup("a.lambda"); st == nil || sheet(t, p, "job.md").Calc.Result(st).Value != 0.01 {
 		t.Fatalf("a.lambda: %+v", st)
 	}
 }
@@ -167,7 +167,7 @@ func TestOneSheetReadsOnlyWhatItUses(t *testing.T) {
 	if len(pkg.Sheets) != 1 || len(pkg.Diags) != 0 {
 		t.Fatalf("%d sheets, diagnostics %v", len(pkg.Sheets), pkg.Diags)
 	}
-	if st := pkg.Sheets[0].Calc.Lookup("a.lambda"); st == nil || st.Value != 0.01 {
+	if st := pkg.Sheets[0].Calc.Lookup("a.lambda"); st == nil || pkg.Sheets[0].Calc.Result(st).Value != 0.01 {
 		t.Fatalf("a.lambda: %+v", st)
 	}
 }

@@ -53,9 +53,9 @@ func TestThreeInstancesOfOneTemplate(t *testing.T) {
 	}
 	calc := sheet(t, pkg, "job.md").Calc
 	for name, want := range map[string]float64{"a.lambda": 0.120, "b.lambda": 0.160, "c.lambda": 0.600, "total": 0.880} {
-		st := calc.Lookup(name)
-		if st == nil || st.Status != engine.OK || math.Abs(st.Value-want) > 1e-12 {
-			t.Errorf("%s = %+v, want %g Wb", name, st, want)
+		r := calc.Result(calc.Lookup(name))
+		if r.Status != engine.OK || math.Abs(r.Value-want) > 1e-12 {
+			t.Errorf("%s = %+v, want %g Wb", name, r, want)
 		}
 	}
 	// What the user set is marked, with the template's own value kept.
@@ -69,7 +69,7 @@ func TestThreeInstancesOfOneTemplate(t *testing.T) {
 	// Each instance has its own check.
 	checks := 0
 	for _, st := range calc.Statements {
-		if st.Kind == engine.Check && st.Status == engine.Pass {
+		if st.Kind == engine.Check && calc.Result(st).Status == engine.Pass {
 			checks++
 		}
 	}
@@ -105,7 +105,7 @@ func TestReuseErrors(t *testing.T) {
 			if d.Pos.String() != c.pos || !strings.Contains(d.Message+"; "+d.Hint, c.message) {
 				t.Errorf("got %s: %s; want %s: ...%s...", d.Pos, d.Message, c.pos, c.message)
 			}
-			if x := sheet(t, pkg, "job.md").Calc.Lookup("x"); x.Status != engine.OK {
+			if x := sheet(t, pkg, "job.md").Calc.Lookup("x"); sheet(t, pkg, "job.md").Calc.Result(x).Status != engine.OK {
 				t.Error("a bad use must leave the statements that do not depend on it alone")
 			}
 		})
@@ -136,7 +136,7 @@ func TestTemplatesNestAndRelativePaths(t *testing.T) {
 		t.Fatalf("diagnostics: %v", pkg.Diags)
 	}
 	calc := sheet(t, pkg, "job.md").Calc
-	if st := calc.Lookup("p.lambda"); st == nil || math.Abs(st.Value-0.4) > 1e-12 {
+	if st := calc.Lookup("p.lambda"); st == nil || math.Abs(calc.Result(st).Value-0.4) > 1e-12 {
 		t.Fatalf("p.lambda = %+v, want 0.4 Wb", st)
 	}
 	if st := calc.Lookup("p.right.Phi"); st == nil || !st.Overridden || st.Instance != "p.right" {

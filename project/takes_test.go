@@ -29,14 +29,14 @@ func TestTakeFromAnotherSheet(t *testing.T) {
 	pkg := project.FromFiles("p", files)
 	emf := sheet(t, pkg, "emf/02-emf.md")
 	phi := 200 * 5 / (2e-3 / (4e-7 * math.Pi * 0.01)) // Φ = N·I/R, common practice
-	if st := emf.Calc.Lookup("Phi"); st.Status != engine.OK || !near(st.Value, phi) || st.Shown.Symbol != "mWb" || st.TakenPath != "01-circuit.md" {
-		t.Errorf("Phi taken: %s %g %s from %q", st.Status, st.Value, st.Shown.Symbol, st.TakenPath)
+	if st := emf.Calc.Lookup("Phi"); emf.Calc.Result(st).Status != engine.OK || !near(emf.Calc.Result(st).Value, phi) || emf.Calc.Result(st).Shown.Symbol != "mWb" || st.TakenPath != "01-circuit.md" {
+		t.Errorf("Phi taken: %s %g %s from %q", emf.Calc.Result(st).Status, emf.Calc.Result(st).Value, emf.Calc.Result(st).Shown.Symbol, st.TakenPath)
 	}
-	if st := emf.Calc.Lookup("Phi_0"); st.Status != engine.OK || st.Shown.Symbol != "Wb" || st.Remote != "Phi" {
-		t.Errorf("Phi_0 taken: %s in %s from %s", st.Status, st.Shown.Symbol, st.Remote)
+	if st := emf.Calc.Lookup("Phi_0"); emf.Calc.Result(st).Status != engine.OK || emf.Calc.Result(st).Shown.Symbol != "Wb" || st.Remote != "Phi" {
+		t.Errorf("Phi_0 taken: %s in %s from %s", emf.Calc.Result(st).Status, emf.Calc.Result(st).Shown.Symbol, st.Remote)
 	}
-	if st := emf.Calc.Lookup("lambda"); st.Status != engine.OK || !near(st.Value, 10*phi) {
-		t.Errorf("lambda = %g, want %g", st.Value, 10*phi)
+	if st := emf.Calc.Lookup("lambda"); emf.Calc.Result(st).Status != engine.OK || !near(emf.Calc.Result(st).Value, 10*phi) {
+		t.Errorf("lambda = %g, want %g", emf.Calc.Result(st).Value, 10*phi)
 	}
 	wantDiag(t, pkg, "emf/02-emf.md:8:20", "01-circuit.md defines no result Rr")
 	wantDiag(t, pkg, "emf/02-emf.md:9:13", "no sheet nowhere.md in the package")
@@ -47,8 +47,8 @@ func TestTakeFromAnotherSheet(t *testing.T) {
 			t.Errorf("the diagnostic at %s does not hint %q", pos, hint)
 		}
 	}
-	if st := sheet(t, pkg, "c.md").Calc.Lookup("y"); st.Status != engine.OK {
-		t.Errorf("a statement beside the failed take: %s", st.Status)
+	if st := sheet(t, pkg, "c.md").Calc.Lookup("y"); sheet(t, pkg, "c.md").Calc.Result(st).Status != engine.OK {
+		t.Errorf("a statement beside the failed take: %s", sheet(t, pkg, "c.md").Calc.Result(st).Status)
 	}
 }
 

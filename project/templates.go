@@ -36,8 +36,8 @@ func TemplateInputs(doc *sheets.Document) []TemplateInput {
 		}
 		if !in.Required {
 			in.Default = st.Formula
-			if in.Unit == "" {
-				in.Unit = st.Shown.Symbol
+			if _, u, ok := engine.LiteralText(st.Expr); ok && in.Unit == "" {
+				in.Unit = u // the unit the template's own value is written in
 			}
 		}
 		if in.Unit == "" {

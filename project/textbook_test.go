@@ -242,11 +242,12 @@ func TestTextbookExamples(t *testing.T) {
 			}
 			// Every statement evaluates, and every check in the sheet passes.
 			for _, st := range s.Calc.Statements {
+				r := s.Calc.Result(st)
 				switch {
-				case st.Kind == engine.Check && st.Status != engine.Pass:
-					t.Errorf("%v: check %s: %v", st.Pos, st.Formula, st.Status)
-				case st.Kind == engine.Definition && st.Status != engine.OK:
-					t.Errorf("%v: %s: %v", st.Pos, st.Name, st.Status)
+				case st.Kind == engine.Check && r.Status != engine.Pass:
+					t.Errorf("%v: check %s: %v", st.Pos, st.Formula, r.Status)
+				case st.Kind == engine.Definition && r.Status != engine.OK:
+					t.Errorf("%v: %s: %v", st.Pos, st.Name, r.Status)
 				}
 			}
 			for _, w := range ex.want {
@@ -255,16 +256,17 @@ func TestTextbookExamples(t *testing.T) {
 					t.Errorf("%s: no result named %s", ex.file, w.name)
 					continue
 				}
-				if st.Status != engine.OK {
-					t.Errorf("%s: %s did not evaluate: %v", ex.file, w.name, st.Status)
+				r := s.Calc.Result(st)
+				if r.Status != engine.OK {
+					t.Errorf("%s: %s did not evaluate: %v", ex.file, w.name, r.Status)
 					continue
 				}
-				rel := math.Abs(st.Value-w.book) / math.Abs(w.book)
+				rel := math.Abs(r.Value-w.book) / math.Abs(w.book)
 				tol := w.tolerance()
-				t.Logf("%-8s book %-10g sheaf %-12.6g rel.err %.4f %%  tol %.3f %%", w.name, w.book, st.Value, 100*rel, 100*tol)
+				t.Logf("%-8s book %-10g sheaf %-12.6g rel.err %.4f %%  tol %.3f %%", w.name, w.book, r.Value, 100*rel, 100*tol)
 				if !(rel <= tol) {
 					t.Errorf("%s: %s = %.6g, but %s prints %g: relative error %.4f %% exceeds %.3f %%",
-						ex.file, w.name, st.Value, ex.source, w.book, 100*rel, 100*tol)
+						ex.file, w.name, r.Value, ex.source, w.book, 100*rel, 100*tol)
 				}
 			}
 		})
@@ -319,7 +321,7 @@ func TestTextbookFromFiles(t *testing.T) {
 	if len(pkg.Diags) != 0 {
 		t.Fatalf("diagnostics: %v", pkg.Diags)
 	}
-	if got := pkg.Sheets[0].Calc.Lookup("E_m").Value; math.Abs(got-210) > 210*textbookRelTol {
+	if got := pkg.Sheets[0].Calc.Result(pkg.Sheets[0].Calc.Lookup("E_m")).Value; math.Abs(got-210) > 210*textbookRelTol {
 		t.Errorf("E_m = %g V, book (Theraja Vol. II, Ex. 29.1, from memory) 210 V", got)
 	}
 
@@ -329,7 +331,7 @@ func TestTextbookFromFiles(t *testing.T) {
 		t.Fatal("the sheet no longer holds the line this test edits")
 	}
 	pkg = project.FromFiles("textbook", map[string][]byte{file: []byte(edited)})
-	if got := pkg.Sheets[0].Calc.Lookup("E_m").Value; math.Abs(got-200) > 1e-9 {
+	if got := pkg.Sheets[0].Calc.Result(pkg.Sheets[0].Calc.Lookup("E_m")).Value; math.Abs(got-200) > 1e-9 {
 		t.Errorf("with R_a = 1.0 Ω, E_m = %g V, want 200 V", got)
 	}
 }

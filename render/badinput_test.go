@@ -280,8 +280,9 @@ func TestBadInput(t *testing.T) {
 			// (a blocked statement's reason is not a package diagnostic).
 			all := append(diag.List{}, pkg.Diags...)
 			for _, st := range sh.Calc.Statements {
-				if st.Err != nil && st.Status == engine.Blocked {
-					all = append(all, *st.Err)
+				r := sh.Calc.Result(st)
+				if r.Err != nil && r.Status == engine.Blocked {
+					all = append(all, *r.Err)
 				}
 			}
 			for _, w := range c.want {
@@ -302,27 +303,28 @@ func TestBadInput(t *testing.T) {
 					t.Errorf("%s: statement not found", g.name)
 					continue
 				}
+				r := sh.Calc.Result(st)
 				for _, d := range pkg.Diags {
 					if d.Pos.Line == st.Pos.Line {
 						t.Errorf("%s: diagnostic on a good line: %s", g.name, d.Error())
 					}
 				}
 				if st.Kind == engine.Check {
-					if st.Status != engine.Pass {
-						t.Errorf("%s: status %v, want pass", g.name, st.Status)
+					if r.Status != engine.Pass {
+						t.Errorf("%s: status %v, want pass", g.name, r.Status)
 					}
 					continue
 				}
-				if st.Status != engine.OK {
-					t.Errorf("%s: status %v (%v), want ok", g.name, st.Status, st.Err)
+				if r.Status != engine.OK {
+					t.Errorf("%s: status %v (%v), want ok", g.name, r.Status, r.Err)
 					continue
 				}
-				if math.Abs(st.Value-g.si) > 1e-12*math.Abs(g.si) {
-					t.Errorf("%s = %v in SI, want %v", g.name, st.Value, g.si)
+				if math.Abs(r.Value-g.si) > 1e-12*math.Abs(g.si) {
+					t.Errorf("%s = %v in SI, want %v", g.name, r.Value, g.si)
 				}
 			}
 			for name, want := range c.status {
-				if st := find(sh.Calc, name); st == nil || st.Status != want {
+				if st := find(sh.Calc, name); st == nil || sh.Calc.Result(st).Status != want {
 					t.Errorf("%s: want status %v, got %+v", name, want, st)
 				}
 			}
@@ -407,7 +409,7 @@ func clip(s string) string {
 // find returns the definition of a name, or the check written as text.
 func find(s *engine.Calc, name string) *engine.Statement {
 	for _, st := range s.Statements {
-		if st.Kind == engine.Definition && st.Name == name && st.Status != engine.Errored {
+		if st.Kind == engine.Definition && st.Name == name && s.Result(st).Status != engine.Errored {
 			return st
 		}
 		if st.Kind == engine.Check && st.Text == name {

@@ -27,28 +27,28 @@ func DiffLabel(k revdiff.Kind) string { return diffLabels[k] }
 
 // outcomeText says what a statement came to: a value, a verdict with its
 // utilisation, or an error.
-func outcomeText(st *engine.Statement, digits int) string {
+func outcomeText(st *engine.Statement, r engine.Result, digits int) string {
 	if st == nil {
 		return "—"
 	}
 	if st.Kind == engine.Use {
 		return "use of " + st.Template
 	}
-	switch st.Status {
+	switch r.Status {
 	case engine.OK:
 		if st.IsInput() {
 			v, u := InputText(st)
 			return strings.TrimSpace(v + " " + u)
 		}
-		return ValueText(st.Value, st.Shown, st.Digits(digits))
+		return ValueText(r.Value, r.Shown, r.Digits(digits))
 	case engine.Pass, engine.Fail:
-		s := strings.ToUpper(st.Status.String())
-		if u := UtilisationText(st.Utilisation); u != "" {
+		s := strings.ToUpper(r.Status.String())
+		if u := UtilisationText(r.Utilisation); u != "" {
 			s += " (" + u + ")"
 		}
 		return s
 	}
-	return st.Status.String()
+	return r.Status.String()
 }
 
 // relText writes a relative change as a signed percentage.
@@ -108,11 +108,11 @@ func DiffTerminal(r revdiff.Report, oldName, newName string, w io.Writer) {
 		case revdiff.FormulaChanged:
 			line += fmt.Sprintf(": %s → %s", formulaOf(c.Old), formulaOf(c.New))
 			if c.Old != nil && c.New != nil && c.Old.Kind == engine.Definition {
-				line += fmt.Sprintf("  (%s → %s)", outcomeText(c.Old, 4), outcomeText(c.New, 4))
+				line += fmt.Sprintf("  (%s → %s)", outcomeText(c.Old, c.OldResult, 4), outcomeText(c.New, c.NewResult, 4))
 			}
 		case revdiff.InputChanged, revdiff.ResultMoved, revdiff.CheckFlipped, revdiff.StatusChanged,
 			revdiff.InputAdded, revdiff.InputRemoved, revdiff.ResultAdded, revdiff.ResultRemoved, revdiff.CheckAdded, revdiff.CheckRemoved:
-			line += fmt.Sprintf(": %s → %s", outcomeText(c.Old, 4), outcomeText(c.New, 4))
+			line += fmt.Sprintf(": %s → %s", outcomeText(c.Old, c.OldResult, 4), outcomeText(c.New, c.NewResult, 4))
 			if rt := relText(c.Rel); rt != "" && c.Rel != 0 {
 				line += "  (" + rt + ")"
 			}
@@ -162,7 +162,7 @@ func DiffHTML(r revdiff.Report, oldPkg, newPkg *project.Package, oldName, newNam
 			sheet = c.Sheet
 			p.f("<h2>%s</h2>\n<table class=\"diff\">\n<thead><tr><th>Change</th><th>Statement</th><th>Before</th><th>After</th><th>Moved</th><th>Line</th></tr></thead>\n<tbody>\n", esc(sheet))
 		}
-		before, after := outcomeText(c.Old, 4), outcomeText(c.New, 4)
+		before, after := outcomeText(c.Old, c.OldResult, 4), outcomeText(c.New, c.NewResult, 4)
 		if c.Kind == revdiff.FormulaChanged {
 			before, after = formulaOf(c.Old)+" = "+before, formulaOf(c.New)+" = "+after
 		}

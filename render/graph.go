@@ -31,11 +31,11 @@ type nodeStyle struct {
 	dashed       bool
 }
 
-func styleOf(st *engine.Statement) nodeStyle {
+func styleOf(st *engine.Statement, r engine.Result) nodeStyle {
 	switch {
-	case st.Status == engine.Errored || st.Status == engine.Blocked:
+	case r.Status == engine.Errored || r.Status == engine.Blocked:
 		return nodeStyle{fill: "#fbe9e7", stroke: "#9b1c1c", dashed: true}
-	case st.Kind == engine.Check && st.Status == engine.Pass:
+	case st.Kind == engine.Check && r.Status == engine.Pass:
 		return nodeStyle{fill: "#e6f2ea", stroke: "#1f6f43", hexagon: true}
 	case st.Kind == engine.Check:
 		return nodeStyle{fill: "#fbe9e7", stroke: "#9b1c1c", hexagon: true}
@@ -51,6 +51,7 @@ func styleOf(st *engine.Statement) nodeStyle {
 type depGraph struct {
 	stmts    []*engine.Statement
 	labels   []string
+	styles   []nodeStyle
 	clusters []string // instance names
 	graph    layered.Graph
 }
@@ -72,14 +73,17 @@ func newDepGraph(s *project.Sheet, digits int) *depGraph {
 				g.graph.Clusters = append(g.graph.Clusters, layered.Cluster{LabelW: textWidth(clusterLabel(st.Instance))})
 			}
 		}
-		label := graphLabel(st, digits)
+		r := s.Calc.Result(st)
+		label := graphLabel(st, r, digits)
 		w := textWidth(label) + 2*graphPadX
-		if styleOf(st).hexagon {
+		sty := styleOf(st, r)
+		if sty.hexagon {
 			w += 2 * graphHexInset
 		}
 		index[st] = len(g.stmts)
 		g.stmts = append(g.stmts, st)
 		g.labels = append(g.labels, label)
+		g.styles = append(g.styles, sty)
 		g.graph.Nodes = append(g.graph.Nodes, layered.Node{W: math.Ceil(w), H: graphBoxH, Cluster: c})
 	}
 	for _, st := range g.stmts {
@@ -122,16 +126,15 @@ func graphSVG(s *project.Sheet, digits int) ([]byte, error) {
 		}
 	}
 	for i, st := range g.stmts {
-		writeNode(&b, st, g.labels[i], lay.Nodes[i])
+		writeNode(&b, st, g.labels[i], g.styles[i], lay.Nodes[i])
 	}
 	b.WriteString("</svg>\n")
 	return []byte(b.String()), nil
 }
 
 // writeNode draws one statement's box, its label and its link.
-func writeNode(b *strings.Builder, st *engine.Statement, label string, r layered.Rect) {
+func writeNode(b *strings.Builder, st *engine.Statement, label string, sty nodeStyle, r layered.Rect) {
 	id := anchor(st)
-	sty := styleOf(st)
 	fmt.Fprintf(b, "<g id=\"g-%s\" class=\"node\"><a xlink:href=\"#%[1]s\"><title>%s</title>", xmlText(id), xmlText(st.Pos.String()))
 	dash := ""
 	if sty.dashed {
@@ -204,13 +207,13 @@ func xmlText(s string) string {
 
 // graphLabel is the text of a statement's node: its name and value, or a
 // check's verdict and comparison.
-func graphLabel(st *engine.Statement, digits int) string {
-	switch st.Status {
+func graphLabel(st *engine.Statement, r engine.Result, digits int) string {
+	switch r.Status {
 	case engine.OK:
 		if st.IsInput() {
-			return TerminalLine(st, digits)
+			return TerminalLine(st, r, digits)
 		}
-		return SymbolText(st.Name) + " = " + ValueText(st.Value, st.Shown, digits)
+		return SymbolText(st.Name) + " = " + ValueText(r.Value, r.Shown, digits)
 	case engine.Pass:
 		return "PASS  " + st.Formula
 	case engine.Fail:

@@ -305,12 +305,12 @@ func registers(pkg *project.Package) JSONRegisters {
 	r := JSONRegisters{Inputs: []JSONInput{}, Assumptions: []JSONAssumption{}}
 	for _, s := range pkg.Sheets {
 		for _, st := range s.Calc.Statements {
-			if !st.IsInput() || st.Status != engine.OK {
+			if !st.IsInput() || s.Calc.Result(st).Status != engine.OK {
 				continue
 			}
 			v, u := InputText(st)
 			r.Inputs = append(r.Inputs, JSONInput{Sheet: s.Path(), Name: st.Name, Pos: st.Pos, Value: v, Unit: u,
-				SI: JSONValue{Value: st.Value, Unit: st.Type.Dim.SIUnits()}, Description: st.Description, Source: st.Source,
+				SI: JSONValue{Value: s.Calc.Result(st).Value, Unit: st.Type.Dim.SIUnits()}, Description: st.Description, Source: st.Source,
 				Instance: st.Instance, Overridden: st.Overridden})
 		}
 		for _, a := range s.Calc.Assumptions {
@@ -385,8 +385,9 @@ type JSONTaken struct {
 }
 
 func jsonStatement(calc *engine.Calc, st *engine.Statement, digits int) JSONStatement {
+	res := calc.Result(st)
 	j := JSONStatement{
-		Kind: "definition", Name: st.Name, Pos: st.Pos, Text: st.Text, Status: st.Status.String(),
+		Kind: "definition", Name: st.Name, Pos: st.Pos, Text: st.Text, Status: res.Status.String(),
 		Input: st.IsInput(), Description: st.Description, Source: st.Source,
 		Assumption: st.Assumption, Assumes: st.Assumes,
 		Uses: names(st.Deps), UsedBy: names(st.Users),
@@ -424,33 +425,33 @@ func jsonStatement(calc *engine.Calc, st *engine.Statement, digits int) JSONStat
 			j.Default = exprText(st.Default)
 		}
 	}
-	if st.Err != nil {
-		d := jsonDiag(*st.Err)
+	if res.Err != nil {
+		d := jsonDiag(*res.Err)
 		j.Error = &d
 	}
 	if st.Kind == engine.Use {
 		return j // an instance has no value of its own
 	}
-	if st.Status == engine.OK || st.Status == engine.Pass || st.Status == engine.Fail {
+	if res.Status == engine.OK || res.Status == engine.Pass || res.Status == engine.Fail {
 		j.Dimension = st.Type.Dim.ASCII()
 		if st.Type.Kind != units.Plain {
 			j.QuantityKind = st.Type.Kind.String()
 		}
 	}
-	switch st.Status {
+	switch res.Status {
 	case engine.OK:
-		j.SI = &JSONValue{Value: st.Value, Unit: st.Type.Dim.SIUnits()}
-		shown := st.Shown.FromSI(st.Value)
-		j.Display = &JSONValue{Value: shown, Unit: st.Shown.Symbol, Text: units.FormatNumber(shown, st.Digits(digits))}
+		j.SI = &JSONValue{Value: res.Value, Unit: st.Type.Dim.SIUnits()}
+		shown := res.Shown.FromSI(res.Value)
+		j.Display = &JSONValue{Value: shown, Unit: res.Shown.Symbol, Text: units.FormatNumber(shown, res.Digits(digits))}
 	case engine.Pass, engine.Fail:
-		l, r := st.Shown.FromSI(st.Left), st.Shown.FromSI(st.Right)
+		l, r := res.Shown.FromSI(res.Left), res.Shown.FromSI(res.Right)
 		c := &JSONCheck{
-			Op: st.Compare().Op, Pass: st.Status == engine.Pass, LeftSI: st.Left, RightSI: st.Right,
-			Left:  JSONValue{Value: l, Unit: st.Shown.Symbol, Text: units.FormatNumber(l, digits)},
-			Right: JSONValue{Value: r, Unit: st.Shown.Symbol, Text: units.FormatNumber(r, digits)},
+			Op: st.Compare().Op, Pass: res.Status == engine.Pass, LeftSI: res.Left, RightSI: res.Right,
+			Left:  JSONValue{Value: l, Unit: res.Shown.Symbol, Text: units.FormatNumber(l, digits)},
+			Right: JSONValue{Value: r, Unit: res.Shown.Symbol, Text: units.FormatNumber(r, digits)},
 		}
-		if !math.IsNaN(st.Utilisation) && !math.IsInf(st.Utilisation, 0) {
-			u := st.Utilisation
+		if !math.IsNaN(res.Utilisation) && !math.IsInf(res.Utilisation, 0) {
+			u := res.Utilisation
 			c.Utilisation = &u
 		}
 		j.Check = c

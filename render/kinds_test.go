@@ -25,7 +25,7 @@ func TestKindsAsShown(t *testing.T) {
 	}
 	calc := pkg.Sheets[0].Calc
 	for name, want := range map[string]string{"B": "B = 12 kG = 1.200 T", "T_m": "T_m = 4.584 N·m", "N_c": "N_c = 144"} {
-		if got := TerminalLine(calc.Lookup(name), 4); got != want {
+		if got := TerminalLine(calc.Lookup(name), calc.Result(calc.Lookup(name)), 4); got != want {
 			t.Errorf("terminal: %q, want %q", got, want)
 		}
 	}
@@ -43,7 +43,7 @@ func TestKindsAsShown(t *testing.T) {
 	if r := row("L10"); !strings.Contains(r, "<mn>144</mn>") {
 		t.Errorf("the count does not show as 144: %s", r)
 	}
-	if calc.Lookup("N_c").Status != engine.OK {
+	if calc.Result(calc.Lookup("N_c")).Status != engine.OK {
 		t.Error("N_c not evaluated")
 	}
 }

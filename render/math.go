@@ -27,13 +27,14 @@ type sink interface {
 // mathWriter writes formulas as MathML.
 type mathWriter struct {
 	b      sink
+	calc   *engine.Calc // whose results a substituted name shows
 	mode   mathMode
 	digits int
 }
 
 // writeFormula writes an expression as MathML (without the <math> element).
-func writeFormula(w sink, e engine.Expr, mode mathMode, digits int) {
-	mw := &mathWriter{b: w, mode: mode, digits: digits}
+func writeFormula(w sink, calc *engine.Calc, e engine.Expr, mode mathMode, digits int) {
+	mw := &mathWriter{b: w, calc: calc, mode: mode, digits: digits}
 	mw.expr(e, 0)
 }
 
@@ -60,7 +61,8 @@ func (w *mathWriter) prec(e engine.Expr) int {
 				v, u := InputText(r.Target)
 				return textPrec(v, u)
 			}
-			return valuePrec(r.Target.Value, r.Target.Shown)
+			res := w.calc.Result(r.Target)
+			return valuePrec(res.Value, res.Shown)
 		}
 	}
 	if q, ok := e.(*engine.Quantity); ok {
@@ -119,7 +121,8 @@ func (w *mathWriter) expr(e engine.Expr, _ int) {
 			v, u := InputText(n.Target)
 			w.b.WriteString(numberMathML(v) + unitMathML(u))
 		case w.mode == substituted && n.Target != nil:
-			w.b.WriteString(valueMathML(n.Target.Value, n.Target.Shown, n.Target.Digits(w.digits)))
+			res := w.calc.Result(n.Target)
+			w.b.WriteString(valueMathML(res.Value, res.Shown, res.Digits(w.digits)))
 		default:
 			w.b.WriteString(symbolMathML(n.Name))
 		}

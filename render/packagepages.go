@@ -83,31 +83,14 @@ func indexPage(pkg *project.Package, opt Options) []byte {
 	p.f("</tbody>\n</table>\n")
 
 	// Every check of the package, the closest to its limit first.
-	type located struct {
-		st    *engine.Statement
-		sheet *project.Sheet
-	}
-	var all []located
+	var all []checkRow
 	for _, s := range pkg.Sheets {
-		for _, st := range s.Calc.Statements {
-			if st.Status == engine.Pass || st.Status == engine.Fail {
-				all = append(all, located{st, s})
-			}
-		}
+		all = append(all, sheetChecks(s, s.Page, s.Path())...)
 	}
 	if len(all) > 0 {
-		sort.SliceStable(all, func(i, j int) bool { return worse(all[i].st, all[j].st) })
-		sheetOf := map[*engine.Statement]*project.Sheet{}
-		checks := make([]*engine.Statement, len(all))
-		for i, l := range all {
-			checks[i] = l.st
-			sheetOf[l.st] = l.sheet
-		}
+		sort.SliceStable(all, func(i, j int) bool { return worse(all[i].r, all[j].r) })
 		p.f("<h2>Checks, closest to their limits first</h2>\n")
-		checksTable(p, checks, func(st *engine.Statement) (string, string) {
-			s := sheetOf[st]
-			return s.Page, s.Path()
-		}, project.DefaultDigits)
+		checksTable(p, all, true, project.DefaultDigits)
 	}
 
 	if len(pkg.Diags) > 0 {
@@ -123,7 +106,7 @@ func indexPage(pkg *project.Package, opt Options) []byte {
 
 // worse orders checks for the package index: failures first, then by
 // utilisation from highest, then checks without one.
-func worse(a, b *engine.Statement) bool {
+func worse(a, b engine.Result) bool {
 	if (a.Status == engine.Fail) != (b.Status == engine.Fail) {
 		return a.Status == engine.Fail
 	}
@@ -146,7 +129,7 @@ func inputsPage(pkg *project.Package, opt Options) []byte {
 	p.f("<table>\n<thead><tr><th>Sheet</th><th>Line</th><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th><th>Set by</th></tr></thead>\n<tbody>\n")
 	for _, s := range pkg.Sheets {
 		for _, st := range s.Calc.Statements {
-			if !st.IsInput() || st.Status != engine.OK {
+			if !st.IsInput() || s.Calc.Result(st).Status != engine.OK {
 				continue
 			}
 			value, unit := InputText(st)

@@ -100,14 +100,8 @@ func statusSection(p *page, s *project.Sheet, digits int) {
 		p.f(" · %d not evaluated", c.Blocked)
 	}
 	p.f("</p>\n")
-	var checks []*engine.Statement
-	for _, st := range s.Calc.Statements {
-		if st.Status == engine.Pass || st.Status == engine.Fail {
-			checks = append(checks, st)
-		}
-	}
-	if len(checks) > 0 {
-		checksTable(p, checks, func(*engine.Statement) (string, string) { return "", "" }, digits)
+	if checks := sheetChecks(s, "", ""); len(checks) > 0 {
+		checksTable(p, checks, false, digits)
 	}
 	diags := append(append(diag.List{}, s.Doc.Diags...), s.Calc.Diags...)
 	diags.Sort()
@@ -121,29 +115,47 @@ func statusSection(p *page, s *project.Sheet, digits int) {
 	p.f("</section>\n")
 }
 
+// checkRow is one check for a table of checks: the statement, its result,
+// and the page and sheet it is on (empty on the sheet's own page).
+type checkRow struct {
+	st          *engine.Statement
+	r           engine.Result
+	page, sheet string
+}
+
+// sheetChecks lists a sheet's checks that came to a verdict.
+func sheetChecks(s *project.Sheet, page, sheet string) []checkRow {
+	var out []checkRow
+	for _, st := range s.Calc.Statements {
+		if r := s.Calc.Result(st); r.Status == engine.Pass || r.Status == engine.Fail {
+			out = append(out, checkRow{st, r, page, sheet})
+		}
+	}
+	return out
+}
+
 // checksTable lists checks with their verdict, both sides in the check's
-// unit, and the utilisation. where gives each check's page (for links from
-// the package index) and the sheet column's text.
-func checksTable(p *page, checks []*engine.Statement, where func(*engine.Statement) (page, sheet string), digits int) {
-	_, sheetCol := where(checks[0])
+// unit, and the utilisation, with a column naming the sheet when asked
+// (for the package index, whose links go to each check's page).
+func checksTable(p *page, checks []checkRow, sheetCol bool, digits int) {
 	p.f("<table class=\"checks\">\n<thead><tr><th></th>")
-	if sheetCol != "" {
+	if sheetCol {
 		p.f("<th>Sheet</th>")
 	}
 	p.f("<th>Check</th><th>Left</th><th></th><th>Right</th><th>Utilisation</th><th>Description</th></tr></thead>\n<tbody>\n")
-	for _, st := range checks {
-		pg, sheet := where(st)
+	for _, c := range checks {
+		st, r := c.st, c.r
 		verdict, cls := "PASS", "pass"
-		if st.Status == engine.Fail {
+		if r.Status == engine.Fail {
 			verdict, cls = "FAIL", "fail"
 		}
 		p.f("<tr class=\"%s\"><td><span class=\"verdict\">%s</span></td>", cls, verdict)
-		if sheetCol != "" {
-			p.f("<td>%s</td>", esc(sheet))
+		if sheetCol {
+			p.f("<td>%s</td>", esc(c.sheet))
 		}
 		p.f("<td><a href=\"%s#%s\"><code>%s</code></a></td><td class=\"num\">%s</td><td>%s</td><td class=\"num\">%s</td><td class=\"num\">%s</td><td>%s</td></tr>\n",
-			pageHref(pg), anchor(st), esc(instancePrefix(st)+st.Formula), esc(ValueText(st.Left, st.Shown, digits)), esc(relations[st.Compare().Op]),
-			esc(ValueText(st.Right, st.Shown, digits)), esc(UtilisationText(st.Utilisation)), esc(st.Description))
+			pageHref(c.page), anchor(st), esc(instancePrefix(st)+st.Formula), esc(ValueText(r.Left, r.Shown, digits)), esc(relations[st.Compare().Op]),
+			esc(ValueText(r.Right, r.Shown, digits)), esc(UtilisationText(r.Utilisation)), esc(st.Description))
 	}
 	p.f("</tbody>\n</table>\n")
 }
@@ -153,7 +165,7 @@ func checksTable(p *page, checks []*engine.Statement, where func(*engine.Stateme
 func inputsRegister(p *page, s *project.Sheet) {
 	var rows []*engine.Statement
 	for _, st := range s.Calc.Statements {
-		if st.IsInput() && st.Status == engine.OK {
+		if st.IsInput() && s.Calc.Result(st).Status == engine.OK {
 			rows = append(rows, st)
 		}
 	}

@@ -22,13 +22,14 @@ func anchor(st *engine.Statement) string {
 // writeStatement draws one statement as the checker reads it: the formula
 // with symbols, the same with values, and the result.
 func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
-	if st.Kind == engine.Use && st.Status == engine.OK {
+	res := calc.Result(st)
+	if st.Kind == engine.Use && res.Status == engine.OK {
 		writeUse(w, calc, st, digits)
 		return
 	}
-	switch st.Status {
+	switch res.Status {
 	case engine.Errored, engine.Blocked, engine.Pending:
-		writeProblem(w, st)
+		writeProblem(w, st, res)
 		return
 	case engine.Pass, engine.Fail:
 		writeCheck(w, calc, st, digits)
@@ -48,21 +49,21 @@ func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int)
 	w.WriteString(`<div class="` + class + `" id="` + anchor(st) + "\">\n<div class=\"eq\"><math class=\"f\"><mrow>")
 	w.WriteString(symbolMathML(st.Name))
 	w.WriteString("<mo>=</mo>")
-	writeFormula(w, st.Expr, symbolic, digits)
+	writeFormula(w, calc, st.Expr, symbolic, digits)
 	if shownConverted(st) {
 		// B [T] = 12 kG: the value as written, then in the unit asked for.
 		w.WriteString("<mo>=</mo>")
-		w.WriteString(valueMathML(st.Value, st.Shown, st.Digits(digits)))
+		w.WriteString(valueMathML(res.Value, res.Shown, res.Digits(digits)))
 	}
 	if !st.IsInput() {
 		if substitutes(st.Expr) {
 			w.WriteString("<mo>=</mo>")
-			writeFormula(w, st.Expr, substituted, digits)
+			writeFormula(w, calc, st.Expr, substituted, digits)
 		}
 		// A name that only repeats an input already shows its value.
 		if r, ok := st.Expr.(*engine.Ref); !ok || r.Target == nil || !r.Target.IsInput() {
 			w.WriteString("<mo>=</mo>")
-			w.WriteString(valueMathML(st.Value, st.Shown, st.Digits(digits)))
+			w.WriteString(valueMathML(res.Value, res.Shown, res.Digits(digits)))
 		}
 	}
 	w.WriteString("</mrow></math></div>\n")
@@ -73,8 +74,9 @@ func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int)
 // writeTake draws a result taken from another sheet: its value, and a
 // link to the statement it comes from.
 func writeTake(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
+	res := calc.Result(st)
 	w.WriteString(`<div class="row take" id="` + anchor(st) + `">` + "\n" + `<div class="eq"><math class="f"><mrow>`)
-	w.WriteString(symbolMathML(st.Name) + "<mo>=</mo>" + valueMathML(st.Value, st.Shown, st.Digits(digits)))
+	w.WriteString(symbolMathML(st.Name) + "<mo>=</mo>" + valueMathML(res.Value, res.Shown, res.Digits(digits)))
 	w.WriteString("</mrow></math></div>\n<p class=\"from\">taken from " + takenLink(calc.Path, st) + "</p>\n")
 	writeNote(w, calc, st)
 	w.WriteString("</div>\n")
@@ -233,20 +235,21 @@ func assumptionAnchor(a *engine.Assumption) string {
 }
 
 func writeCheck(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
+	res := calc.Result(st)
 	cls, verdict := "pass", "PASS"
-	if st.Status == engine.Fail {
+	if res.Status == engine.Fail {
 		cls, verdict = "fail", "FAIL"
 	}
 	cmp := st.Compare()
 	w.WriteString(`<div class="row check ` + cls + `" id="` + anchor(st) + "\">\n<span class=\"verdict\">" + verdict + "</span>\n<div>\n")
 	w.WriteString("<div class=\"eq\"><math class=\"f\"><mrow>")
-	writeFormula(w, cmp, symbolic, digits)
+	writeFormula(w, calc, cmp, symbolic, digits)
 	w.WriteString("<mspace width=\"1em\"></mspace><mo>⇒</mo><mspace width=\"1em\"></mspace><mrow>")
-	w.WriteString(valueMathML(st.Left, st.Shown, digits))
+	w.WriteString(valueMathML(res.Left, res.Shown, digits))
 	w.WriteString("<mo>" + esc(relations[cmp.Op]) + "</mo>")
-	w.WriteString(valueMathML(st.Right, st.Shown, digits))
+	w.WriteString(valueMathML(res.Right, res.Shown, digits))
 	w.WriteString("</mrow></mrow></math></div>\n")
-	if u := UtilisationText(st.Utilisation); u != "" {
+	if u := UtilisationText(res.Utilisation); u != "" {
 		w.WriteString("<div class=\"note\"><span class=\"util\">utilisation " + u + "</span></div>\n")
 	}
 	writeNote(w, calc, st)
@@ -264,16 +267,16 @@ func UtilisationText(u float64) string {
 
 // writeProblem draws a statement that has an error or was not evaluated:
 // its source with the error column marked, and the message.
-func writeProblem(w sink, st *engine.Statement) {
+func writeProblem(w sink, st *engine.Statement, res engine.Result) {
 	cls := "error"
-	if st.Status == engine.Blocked {
+	if res.Status == engine.Blocked {
 		cls = "blocked"
 	}
-	w.WriteString(`<div class="row ` + cls + `" id="` + anchor(st) + "\">\n<pre class=\"src\">" + markColumn(st) + "</pre>\n")
-	if st.Err != nil {
-		w.WriteString(`<p class="msg"><span class="loc">` + esc(st.Err.Pos.String()) + "</span> " + esc(st.Err.Message))
-		if st.Err.Hint != "" {
-			w.WriteString("<br><span class=\"hint\">" + esc(st.Err.Hint) + "</span>")
+	w.WriteString(`<div class="row ` + cls + `" id="` + anchor(st) + "\">\n<pre class=\"src\">" + markColumn(st, res) + "</pre>\n")
+	if res.Err != nil {
+		w.WriteString(`<p class="msg"><span class="loc">` + esc(res.Err.Pos.String()) + "</span> " + esc(res.Err.Message))
+		if res.Err.Hint != "" {
+			w.WriteString("<br><span class=\"hint\">" + esc(res.Err.Hint) + "</span>")
 		}
 		w.WriteString("</p>\n")
 	}
@@ -282,14 +285,14 @@ func writeProblem(w sink, st *engine.Statement) {
 
 // markColumn escapes a statement's text and marks the character its error
 // points at.
-func markColumn(st *engine.Statement) string {
+func markColumn(st *engine.Statement, res engine.Result) string {
 	text := st.Text
 	const limit = 400
-	if st.Err == nil || st.Status != engine.Errored || st.Err.Pos.Line != st.Pos.Line {
+	if res.Err == nil || res.Status != engine.Errored || res.Err.Pos.Line != st.Pos.Line {
 		return esc(clip(text, limit))
 	}
 	r := []rune(text)
-	i := st.Err.Pos.Col - st.Pos.Col
+	i := res.Err.Pos.Col - st.Pos.Col
 	if i < 0 || i >= len(r) {
 		return esc(clip(text, limit))
 	}

@@ -17,7 +17,7 @@ func Terminal(pkg *project.Package, opt Options, out, errs io.Writer) {
 		digits := s.Digits(opt.Digits)
 		fmt.Fprintf(out, "%s — %s\n", s.Path(), s.Title())
 		for _, st := range s.Calc.Statements {
-			line := TerminalLine(st, digits)
+			line := TerminalLine(st, s.Calc.Result(st), digits)
 			if line == "" {
 				continue
 			}
@@ -72,11 +72,11 @@ func Count(n int, noun string) string {
 }
 
 // TerminalLine writes one statement's outcome as a line of text.
-func TerminalLine(st *engine.Statement, digits int) string {
-	if st.Kind == engine.Use && st.Status == engine.OK {
+func TerminalLine(st *engine.Statement, r engine.Result, digits int) string {
+	if st.Kind == engine.Use && r.Status == engine.OK {
 		return fmt.Sprintf("use %s = %s", st.Name, strings.Join(strings.Fields(st.Formula), " "))
 	}
-	switch st.Status {
+	switch r.Status {
 	case engine.OK:
 		if r, ok := st.Expr.(*engine.Ref); ok && r.Target != nil && r.Target.IsInput() && sameUnit(st.Display, r.Target) {
 			// A name that only passes an input on reads as that input.
@@ -92,20 +92,20 @@ func TerminalLine(st *engine.Statement, digits int) string {
 				v += " "
 			}
 			if shownConverted(st) {
-				u += " = " + ValueText(st.Value, st.Shown, st.Digits(digits))
+				u += " = " + ValueText(r.Value, r.Shown, r.Digits(digits))
 			}
 			return fmt.Sprintf("%s = %s%s", SymbolText(st.Name), v, u)
 		}
-		return fmt.Sprintf("%s = %s", SymbolText(st.Name), ValueText(st.Value, st.Shown, st.Digits(digits)))
+		return fmt.Sprintf("%s = %s", SymbolText(st.Name), ValueText(r.Value, r.Shown, r.Digits(digits)))
 	case engine.Pass, engine.Fail:
 		cmp := st.Compare()
 		verdict := "PASS"
-		if st.Status == engine.Fail {
+		if r.Status == engine.Fail {
 			verdict = "FAIL"
 		}
 		s := fmt.Sprintf("%s  %s%s  (%s %s %s", verdict, instancePrefix(st), st.Formula,
-			ValueText(st.Left, st.Shown, digits), relations[cmp.Op], ValueText(st.Right, st.Shown, digits))
-		if u := UtilisationText(st.Utilisation); u != "" {
+			ValueText(r.Left, r.Shown, digits), relations[cmp.Op], ValueText(r.Right, r.Shown, digits))
+		if u := UtilisationText(r.Utilisation); u != "" {
 			s += ", utilisation " + u
 		}
 		return s + ")"
@@ -114,7 +114,7 @@ func TerminalLine(st *engine.Statement, digits int) string {
 		if st.Kind == engine.Check {
 			name = "check"
 		}
-		return fmt.Sprintf("%s: %s", name, st.Err.Message)
+		return fmt.Sprintf("%s: %s", name, r.Err.Message)
 	case engine.Errored:
 		name := st.Name
 		if name == "" {

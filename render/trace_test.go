@@ -58,7 +58,7 @@ func TestUnknownAssumptionIsAnError(t *testing.T) {
 		t.Fatalf("diagnostics: %v", pkg.Diags)
 	}
 	// The calculation still runs.
-	if st := pkg.Sheets[0].Calc.Lookup("T_w"); st == nil || st.Value != 393.15 {
-		t.Errorf("T_w not evaluated: %+v", st)
+	if calc := pkg.Sheets[0].Calc; calc.Result(calc.Lookup("T_w")).Value != 393.15 {
+		t.Errorf("T_w not evaluated: %+v", calc.Result(calc.Lookup("T_w")))
 	}
 }

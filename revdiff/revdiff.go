@@ -45,13 +45,15 @@ var kindOrder = map[Kind]int{SheetAdded: 0, SheetRemoved: 1, InputChanged: 2, In
 	CheckRemoved: 11, StatusChanged: 12, InstanceAdded: 13, InstanceRemoved: 14, TemplateChanged: 15}
 
 // Change is one difference between the revisions. Old and New are the
-// statements on either side (nil where there is none).
+// statements on either side (nil where there is none), with their results.
 type Change struct {
 	Kind  Kind
 	Sheet string
 	Name  string // a definition's name, or a check's formula
 	Old   *engine.Statement
 	New   *engine.Statement
+	// OldResult and NewResult are what the statements gave.
+	OldResult, NewResult engine.Result
 	// Rel is the relative change of a moved result, (new-old)/|old|.
 	Rel float64
 }
@@ -126,114 +128,152 @@ func Compare(old, new *project.Package, threshold float64) Report {
 }
 
 func compareSheet(o, n *project.Sheet, threshold float64) []Change {
-	var out []Change
-	path := n.Path()
-	add := func(k Kind, name string, a, b *engine.Statement, rel float64) {
-		out = append(out, Change{Kind: k, Sheet: path, Name: name, Old: a, New: b, Rel: rel})
+	d := &differ{o: o, n: n, threshold: threshold, path: n.Path()}
+	d.instances()
+	d.definitions()
+	d.checks()
+	return d.out
+}
+
+// differ gathers the changes between two revisions of one sheet.
+type differ struct {
+	o, n      *project.Sheet
+	threshold float64
+	path      string
+	skip      map[string]bool // instances present on one side only
+	out       []Change
+}
+
+func (d *differ) add(k Kind, name string, a, b *engine.Statement, rel float64) {
+	c := Change{Kind: k, Sheet: d.path, Name: name, Old: a, New: b, Rel: rel}
+	if a != nil {
+		c.OldResult = d.o.Calc.Result(a)
 	}
-	// Instances, by name: one added or removed is reported once, and the
-	// statements inside it are left out below.
-	oldUses, newUses := uses(o), uses(n)
-	skip := map[string]bool{} // instances present on one side only
+	if b != nil {
+		c.NewResult = d.n.Calc.Result(b)
+	}
+	d.out = append(d.out, c)
+}
+
+// instances compares the instances, by name: one added or removed is
+// reported once, and the statements inside it are left out after.
+func (d *differ) instances() {
+	oldUses, newUses := uses(d.o), uses(d.n)
+	d.skip = map[string]bool{}
 	for name, b := range newUses {
 		a, ok := oldUses[name]
 		switch {
 		case !ok:
-			add(InstanceAdded, name, nil, b, 0)
-			skip[name] = true
+			d.add(InstanceAdded, name, nil, b, 0)
+			d.skip[name] = true
 		case a.Template != b.Template:
-			add(TemplateChanged, name, a, b, 0)
+			d.add(TemplateChanged, name, a, b, 0)
 		}
 	}
 	for name, a := range oldUses {
 		if _, ok := newUses[name]; !ok {
-			add(InstanceRemoved, name, a, nil, 0)
-			skip[name] = true
+			d.add(InstanceRemoved, name, a, nil, 0)
+			d.skip[name] = true
 		}
 	}
-	inSkipped := func(st *engine.Statement) bool {
-		for inst := st.Instance; inst != ""; {
-			if skip[inst] {
-				return true
-			}
-			i := strings.LastIndexByte(inst, '.')
-			if i < 0 {
-				break
-			}
-			inst = inst[:i]
+}
+
+// skipped reports whether st lies in an instance that only one side has.
+func (d *differ) skipped(st *engine.Statement) bool {
+	for inst := st.Instance; inst != ""; {
+		if d.skip[inst] {
+			return true
 		}
-		return false
+		i := strings.LastIndexByte(inst, '.')
+		if i < 0 {
+			break
+		}
+		inst = inst[:i]
 	}
-	// Definitions, by name.
+	return false
+}
+
+// definitions compares the definitions and taken results, by name.
+func (d *differ) definitions() {
+	named := func(st *engine.Statement) bool {
+		return (st.Kind == engine.Definition || st.Kind == engine.Take) && st.Name != ""
+	}
 	oldDefs := map[string]*engine.Statement{}
-	for _, st := range o.Calc.Statements {
-		if (st.Kind == engine.Definition || st.Kind == engine.Take) && st.Name != "" {
+	for _, st := range d.o.Calc.Statements {
+		if named(st) {
 			oldDefs[st.Name] = st
 		}
 	}
 	seen := map[string]bool{}
-	for _, b := range n.Calc.Statements {
-		if (b.Kind != engine.Definition && b.Kind != engine.Take) || b.Name == "" || seen[b.Name] || inSkipped(b) {
+	for _, b := range d.n.Calc.Statements {
+		if !named(b) || seen[b.Name] || d.skipped(b) {
 			continue
 		}
 		seen[b.Name] = true
-		a, ok := oldDefs[b.Name]
-		switch {
-		case !ok && b.IsInput():
-			add(InputAdded, b.Name, nil, b, 0)
-		case !ok:
-			add(ResultAdded, b.Name, nil, b, 0)
-		case a.IsInput() && b.IsInput():
-			if norm(a.Formula) != norm(b.Formula) {
-				add(InputChanged, b.Name, a, b, relative(a, b))
-			}
-		default:
-			if norm(a.Formula) != norm(b.Formula) || displayOf(a) != displayOf(b) {
-				add(FormulaChanged, b.Name, a, b, relative(a, b))
-			} else if a.Status == engine.OK && b.Status == engine.OK {
-				if rel := relative(a, b); math.Abs(rel) > threshold {
-					add(ResultMoved, b.Name, a, b, rel)
-				}
-			}
-		}
-		if ok && (a.Status == engine.OK) != (b.Status == engine.OK) {
-			add(StatusChanged, b.Name, a, b, 0)
+		if a, ok := oldDefs[b.Name]; ok {
+			d.definition(a, b)
+		} else if b.IsInput() {
+			d.add(InputAdded, b.Name, nil, b, 0)
+		} else {
+			d.add(ResultAdded, b.Name, nil, b, 0)
 		}
 	}
-	for _, a := range o.Calc.Statements {
-		if a.Kind != engine.Definition || a.Name == "" || seen[a.Name] || inSkipped(a) {
+	for _, a := range d.o.Calc.Statements {
+		if a.Kind != engine.Definition || a.Name == "" || seen[a.Name] || d.skipped(a) {
 			continue
 		}
 		seen[a.Name] = true
 		if a.IsInput() {
-			add(InputRemoved, a.Name, a, nil, 0)
+			d.add(InputRemoved, a.Name, a, nil, 0)
 		} else {
-			add(ResultRemoved, a.Name, a, nil, 0)
+			d.add(ResultRemoved, a.Name, a, nil, 0)
 		}
 	}
-	// Checks, by formula, then by description.
-	oldChecks := checks(o, inSkipped)
+}
+
+// definition compares one definition present in both revisions.
+func (d *differ) definition(a, b *engine.Statement) {
+	ra, rb := d.o.Calc.Result(a), d.n.Calc.Result(b)
+	switch {
+	case a.IsInput() && b.IsInput():
+		if norm(a.Formula) != norm(b.Formula) {
+			d.add(InputChanged, b.Name, a, b, relative(ra, rb))
+		}
+	case norm(a.Formula) != norm(b.Formula) || displayOf(a) != displayOf(b):
+		d.add(FormulaChanged, b.Name, a, b, relative(ra, rb))
+	case ra.Status == engine.OK && rb.Status == engine.OK:
+		if rel := relative(ra, rb); math.Abs(rel) > d.threshold {
+			d.add(ResultMoved, b.Name, a, b, rel)
+		}
+	}
+	if (ra.Status == engine.OK) != (rb.Status == engine.OK) {
+		d.add(StatusChanged, b.Name, a, b, 0)
+	}
+}
+
+// checks compares the checks, matched by formula, then by description.
+func (d *differ) checks() {
+	oldChecks := checks(d.o, d.skipped)
 	used := map[*engine.Statement]bool{}
-	for _, b := range checks(n, inSkipped) {
+	for _, b := range checks(d.n, d.skipped) {
 		a := match(oldChecks, b, used)
 		if a == nil {
-			add(CheckAdded, b.Formula, nil, b, 0)
+			d.add(CheckAdded, b.Formula, nil, b, 0)
 			continue
 		}
 		used[a] = true
 		if norm(a.Formula) != norm(b.Formula) {
-			add(FormulaChanged, b.Formula, a, b, 0)
+			d.add(FormulaChanged, b.Formula, a, b, 0)
 		}
-		if verdict(a) != verdict(b) {
-			add(CheckFlipped, b.Formula, a, b, 0)
+		if verdict(d.o.Calc.Result(a)) != verdict(d.n.Calc.Result(b)) {
+			d.add(CheckFlipped, b.Formula, a, b, 0)
 		}
 	}
 	for _, a := range oldChecks {
 		if !used[a] {
-			add(CheckRemoved, a.Formula, a, nil, 0)
+			d.add(CheckRemoved, a.Formula, a, nil, 0)
 		}
 	}
-	return out
 }
 
 func checks(s *project.Sheet, skip func(*engine.Statement) bool) []*engine.Statement {
@@ -307,8 +347,8 @@ func leftText(st *engine.Statement) string {
 }
 
 // verdict is a check's outcome: pass, fail or error.
-func verdict(st *engine.Statement) string {
-	switch st.Status {
+func verdict(r engine.Result) string {
+	switch r.Status {
 	case engine.Pass:
 		return "pass"
 	case engine.Fail:
@@ -328,7 +368,7 @@ func displayOf(st *engine.Statement) string {
 func norm(s string) string { return strings.Join(strings.Fields(s), "") }
 
 // relative is (new-old)/|old|, or ±Inf when old is zero and new is not.
-func relative(a, b *engine.Statement) float64 {
+func relative(a, b engine.Result) float64 {
 	if a.Status != engine.OK || b.Status != engine.OK {
 		return math.NaN()
 	}
