@@ -68,6 +68,20 @@ type Finding struct {
 	// Accepted is set when the sheet accepts this finding; Reason says why.
 	Accepted bool   `json:"accepted"`
 	Reason   string `json:"reason,omitempty"`
+	// Sheet is the sheet whose page shows the statement, and Instance the
+	// template instance it belongs to: a finding inside a template is
+	// placed at its first use.
+	Sheet    string `json:"sheet,omitempty"`
+	Instance string `json:"instance,omitempty"`
+}
+
+// in places a finding on the page of sheet s, at statement st if any.
+func (f Finding) in(s *project.Sheet, st *engine.Statement) Finding {
+	f.Sheet = s.Path()
+	if st != nil {
+		f.Instance = st.Instance
+	}
+	return f
 }
 
 // Report is the audit of a package.
@@ -122,6 +136,13 @@ func finding(code string, pos diag.Pos, subject, format string, args ...any) Fin
 	return Finding{Code: code, Pos: pos, Subject: subject, Message: fmt.Sprintf(format, args...)}
 }
 
+// withSheet places a finding about an acceptance on the page of the file
+// that wrote it.
+func withSheet(f Finding) Finding {
+	f.Sheet = f.Pos.File
+	return f
+}
+
 func sheetFindings(s *project.Sheet) []Finding {
 	var out []Finding
 	m := s.Doc.Meta
@@ -134,10 +155,12 @@ func sheetFindings(s *project.Sheet) []Finding {
 			missing = append(missing, "checked by")
 		}
 		out = append(out, finding("no-checker", diag.Pos{File: s.Path(), Line: 1, Col: 1}, "",
-			"the title block has no %s", strings.Join(missing, " and no ")))
+			"the title block has no %s", strings.Join(missing, " and no ")).in(s, nil))
 	}
 	for _, st := range s.Calc.Statements {
-		out = append(out, statementFindings(st, s.Calc.Result(st))...)
+		for _, f := range statementFindings(st, s.Calc.Result(st)) {
+			out = append(out, f.in(s, st))
+		}
 	}
 	return out
 }
@@ -351,7 +374,7 @@ func inconsistentInputs(pkg *project.Package) []Finding {
 			}
 			if !same(f.value, r.Value) {
 				out = append(out, finding("inconsistent-input", st.Pos, st.Name, "%s is %s here but %s in %s:%d",
-					st.Name, inputText(st), inputText(f.st), f.sheet, f.st.Pos.Line))
+					st.Name, inputText(st), inputText(f.st), f.sheet, f.st.Pos.Line).in(s, st))
 			}
 		}
 	}
@@ -382,7 +405,7 @@ func applyAcceptances(pkg *project.Package, r *Report) {
 	}
 	accept := func(k key, reason string, pos diag.Pos, subject string) {
 		if strings.TrimSpace(reason) == "" {
-			r.Findings = append(r.Findings, finding("acceptance-without-reason", pos, subject, "accept %s gives no reason", k.code))
+			r.Findings = append(r.Findings, withSheet(finding("acceptance-without-reason", pos, subject, "accept %s gives no reason", k.code)))
 			return
 		}
 		idx, ok := byStatement[k]
@@ -391,7 +414,7 @@ func applyAcceptances(pkg *project.Package, r *Report) {
 			if _, known := RuleByCode(k.code); !known {
 				msg = "accept %s names no finding sheaf knows"
 			}
-			r.Findings = append(r.Findings, finding("unknown-acceptance", pos, subject, msg, k.code))
+			r.Findings = append(r.Findings, withSheet(finding("unknown-acceptance", pos, subject, msg, k.code)))
 			return
 		}
 		for _, i := range idx {
@@ -478,7 +501,7 @@ func handTransfers(pkg *project.Package) []Finding {
 					}
 					out = append(out, finding("hand-transfer", st.Pos, st.Name,
 						"input %s is typed across from %s (source: %q); take it live: take %s = %s from %s",
-						st.Name, other.Path(), st.Source, st.Name, remote, ref))
+						st.Name, other.Path(), st.Source, st.Name, remote, ref).in(s, st))
 					break
 				}
 			}

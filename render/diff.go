@@ -90,7 +90,8 @@ func formulaOf(st *engine.Statement) string {
 
 // DiffTerminal writes a revision diff as text, one change a line, grouped
 // by sheet, with file:line.
-func DiffTerminal(r revdiff.Report, oldName, newName string, w io.Writer) {
+func DiffTerminal(r revdiff.Report, oldPkg, newPkg *project.Package, oldName, newName string, opt Options, w io.Writer) {
+	digitsOf := sheetDigits(oldPkg, newPkg, opt.Digits)
 	fmt.Fprintf(w, "changes from %s to %s (results that moved by more than %s)\n", oldName, newName, relTextAbs(r.Threshold))
 	sheet := ""
 	for _, c := range r.Changes {
@@ -104,15 +105,16 @@ func DiffTerminal(r revdiff.Report, oldName, newName string, w io.Writer) {
 			where = fmt.Sprintf("%s:%d", pos.File, pos.Line)
 		}
 		line := fmt.Sprintf("  %-16s %s", DiffLabel(c.Kind), diffSubject(c))
+		d := digitsOf(c.Sheet)
 		switch c.Kind {
 		case revdiff.FormulaChanged:
 			line += fmt.Sprintf(": %s → %s", formulaOf(c.Old), formulaOf(c.New))
 			if c.Old != nil && c.New != nil && c.Old.Kind == engine.Definition {
-				line += fmt.Sprintf("  (%s → %s)", outcomeText(c.Old, c.OldResult, 4), outcomeText(c.New, c.NewResult, 4))
+				line += fmt.Sprintf("  (%s → %s)", outcomeText(c.Old, c.OldResult, d), outcomeText(c.New, c.NewResult, d))
 			}
 		case revdiff.InputChanged, revdiff.ResultMoved, revdiff.CheckFlipped, revdiff.StatusChanged,
 			revdiff.InputAdded, revdiff.InputRemoved, revdiff.ResultAdded, revdiff.ResultRemoved, revdiff.CheckAdded, revdiff.CheckRemoved:
-			line += fmt.Sprintf(": %s → %s", outcomeText(c.Old, c.OldResult, 4), outcomeText(c.New, c.NewResult, 4))
+			line += fmt.Sprintf(": %s → %s", outcomeText(c.Old, c.OldResult, d), outcomeText(c.New, c.NewResult, d))
 			if rt := relText(c.Rel); rt != "" && c.Rel != 0 {
 				line += "  (" + rt + ")"
 			}
@@ -129,12 +131,33 @@ func DiffTerminal(r revdiff.Report, oldName, newName string, w io.Writer) {
 	fmt.Fprintf(w, "\n%s; %d changes in all\n", strings.Join(counts, ", "), len(r.Changes))
 }
 
+// sheetDigits gives each sheet's significant figures in a diff: the new
+// revision's front matter, else the old one's, else def.
+func sheetDigits(oldPkg, newPkg *project.Package, def int) func(string) int {
+	set := map[string]int{}
+	for _, pkg := range []*project.Package{oldPkg, newPkg} {
+		for _, s := range pkg.Sheets {
+			set[s.Path()] = s.Digits(def)
+		}
+	}
+	return func(sheet string) int {
+		if d, ok := set[sheet]; ok {
+			return d
+		}
+		if def > 0 {
+			return def
+		}
+		return project.DefaultDigits
+	}
+}
+
 func relTextAbs(t float64) string { return units.FormatNumber(t*100, 2) + " %" }
 
 // DiffHTML renders a revision diff as one self-contained page that marks
 // each change.
 func DiffHTML(r revdiff.Report, oldPkg, newPkg *project.Package, oldName, newName string, opt Options) []byte {
 	p := &page{}
+	digitsOf := sheetDigits(oldPkg, newPkg, opt.Digits)
 	fr := packageFrame(newPkg, opt)
 	fr.pages = nil
 	fr.title = "Changes — " + packageTitle(newPkg)
@@ -162,7 +185,8 @@ func DiffHTML(r revdiff.Report, oldPkg, newPkg *project.Package, oldName, newNam
 			sheet = c.Sheet
 			p.f("<h2>%s</h2>\n<table class=\"diff\">\n<thead><tr><th>Change</th><th>Statement</th><th>Before</th><th>After</th><th>Moved</th><th>Line</th></tr></thead>\n<tbody>\n", esc(sheet))
 		}
-		before, after := outcomeText(c.Old, c.OldResult, 4), outcomeText(c.New, c.NewResult, 4)
+		d := digitsOf(c.Sheet)
+		before, after := outcomeText(c.Old, c.OldResult, d), outcomeText(c.New, c.NewResult, d)
 		if c.Kind == revdiff.FormulaChanged {
 			before, after = formulaOf(c.Old)+" = "+before, formulaOf(c.New)+" = "+after
 		}

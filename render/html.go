@@ -269,15 +269,6 @@ func pageHref(page string) string {
 	return esc(strings.Join(parts, "/"))
 }
 
-func pageOf(pkg *project.Package, file string) string {
-	for _, s := range pkg.Sheets {
-		if s.Path() == file {
-			return s.Page
-		}
-	}
-	return ""
-}
-
 // packageTitle names the package: the project named in the sheets, else
 // the folder's name.
 func packageTitle(pkg *project.Package) string {

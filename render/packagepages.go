@@ -60,6 +60,7 @@ func packagePage(pkg *project.Package, opt Options, heading string) *page {
 
 func indexPage(pkg *project.Package, opt Options) []byte {
 	p := packagePage(pkg, opt, "Calculation package")
+	ix := indexSheets(pkg)
 	c := pkg.Counts()
 	class := "status"
 	if c.Errors > 0 {
@@ -85,18 +86,18 @@ func indexPage(pkg *project.Package, opt Options) []byte {
 	// Every check of the package, the closest to its limit first.
 	var all []checkRow
 	for _, s := range pkg.Sheets {
-		all = append(all, sheetChecks(s, s.Page, s.Path())...)
+		all = append(all, sheetChecks(s, s.Page, s.Path(), s.Digits(opt.Digits))...)
 	}
 	if len(all) > 0 {
 		sort.SliceStable(all, func(i, j int) bool { return worse(all[i].r, all[j].r) })
 		p.f("<h2>Checks, closest to their limits first</h2>\n")
-		checksTable(p, all, true, project.DefaultDigits)
+		checksTable(p, all, true)
 	}
 
 	if len(pkg.Diags) > 0 {
 		p.f("<h2>Errors</h2>\n<ul>\n")
 		for _, d := range pkg.Diags {
-			p.f("<li><a class=\"loc\" href=\"%s#L%d\">%s</a> %s</li>\n", pageHref(pageOf(pkg, d.Pos.File)), d.Pos.Line, esc(d.Pos.String()), esc(messageText(d)))
+			p.f("<li><a class=\"loc\" href=\"%s\">%s</a> %s</li>\n", ix.href("", "", d.Pos), esc(d.Pos.String()), esc(messageText(d)))
 		}
 		p.f("</ul>\n")
 	}
@@ -186,6 +187,7 @@ func AuditHTML(pkg *project.Package, opt Options) []byte {
 // auditPage lists the audit's findings, open ones first.
 func auditPage(pkg *project.Package, opt Options, r audit.Report) []byte {
 	p := packagePage(pkg, opt, "Audit")
+	ix := indexSheets(pkg)
 	p.f("<section class=\"status%s\"><p><strong>%s</strong> open, %d accepted.</p></section>\n",
 		map[bool]string{true: " has-fail", false: ""}[r.Open() > 0], Count(r.Open(), "finding"), len(r.Findings)-r.Open())
 	for _, accepted := range []bool{false, true} {
@@ -209,8 +211,8 @@ func auditPage(pkg *project.Package, opt Options, r audit.Report) []byte {
 		}
 		p.f("</tr></thead>\n<tbody>\n")
 		for _, f := range rows {
-			p.f("<tr><td><code>%s</code></td><td><a class=\"loc\" href=\"%s#L%d\">%s</a></td><td>%s</td>",
-				esc(f.Code), pageHref(pageOf(pkg, f.Pos.File)), f.Pos.Line, esc(f.Pos.String()), esc(f.Message))
+			p.f("<tr><td><code>%s</code></td><td><a class=\"loc\" href=\"%s\">%s</a></td><td>%s</td>",
+				esc(f.Code), ix.href(f.Sheet, f.Instance, f.Pos), esc(f.Pos.String()), esc(f.Message))
 			if accepted {
 				p.f("<td>%s</td>", esc(f.Reason))
 			}

@@ -100,15 +100,15 @@ func statusSection(p *page, s *project.Sheet, digits int) {
 		p.f(" · %d not evaluated", c.Blocked)
 	}
 	p.f("</p>\n")
-	if checks := sheetChecks(s, "", ""); len(checks) > 0 {
-		checksTable(p, checks, false, digits)
+	if checks := sheetChecks(s, "", "", digits); len(checks) > 0 {
+		checksTable(p, checks, false)
 	}
 	diags := append(append(diag.List{}, s.Doc.Diags...), s.Calc.Diags...)
 	diags.Sort()
 	if len(diags) > 0 {
 		p.f("<ul>\n")
 		for _, d := range diags {
-			p.f("<li><a class=\"loc\" href=\"#L%d\">%s</a> %s</li>\n", d.Pos.Line, esc(d.Pos.String()), esc(messageText(d)))
+			p.f("<li><a class=\"loc\" href=\"#%s\">%s</a> %s</li>\n", anchorOn(s, d.Pos), esc(d.Pos.String()), esc(messageText(d)))
 		}
 		p.f("</ul>\n")
 	}
@@ -121,14 +121,15 @@ type checkRow struct {
 	st          *engine.Statement
 	r           engine.Result
 	page, sheet string
+	digits      int // the sheet's significant figures
 }
 
 // sheetChecks lists a sheet's checks that came to a verdict.
-func sheetChecks(s *project.Sheet, page, sheet string) []checkRow {
+func sheetChecks(s *project.Sheet, page, sheet string, digits int) []checkRow {
 	var out []checkRow
 	for _, st := range s.Calc.Statements {
 		if r := s.Calc.Result(st); r.Status == engine.Pass || r.Status == engine.Fail {
-			out = append(out, checkRow{st, r, page, sheet})
+			out = append(out, checkRow{st, r, page, sheet, digits})
 		}
 	}
 	return out
@@ -137,14 +138,14 @@ func sheetChecks(s *project.Sheet, page, sheet string) []checkRow {
 // checksTable lists checks with their verdict, both sides in the check's
 // unit, and the utilisation, with a column naming the sheet when asked
 // (for the package index, whose links go to each check's page).
-func checksTable(p *page, checks []checkRow, sheetCol bool, digits int) {
+func checksTable(p *page, checks []checkRow, sheetCol bool) {
 	p.f("<table class=\"checks\">\n<thead><tr><th></th>")
 	if sheetCol {
 		p.f("<th>Sheet</th>")
 	}
 	p.f("<th>Check</th><th>Left</th><th></th><th>Right</th><th>Utilisation</th><th>Description</th></tr></thead>\n<tbody>\n")
 	for _, c := range checks {
-		st, r := c.st, c.r
+		st, r, digits := c.st, c.r, c.digits
 		verdict, cls := "PASS", "pass"
 		if r.Status == engine.Fail {
 			verdict, cls = "FAIL", "fail"

@@ -9,16 +9,6 @@ import (
 	"github.com/sheaf-calc/sheaf/units"
 )
 
-// anchor is a statement's id on its page: L<line> for the sheet's own
-// statements, I-<instance>-L<line> for those from a template, whose lines
-// are the template's.
-func anchor(st *engine.Statement) string {
-	if st.Instance != "" {
-		return "I-" + st.Instance + "-L" + strconv.Itoa(st.Pos.Line)
-	}
-	return "L" + strconv.Itoa(st.Pos.Line)
-}
-
 // writeStatement draws one statement as the checker reads it: the formula
 // with symbols, the same with values, and the result.
 func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int) {

@@ -17,6 +17,7 @@ import (
 
 func diffCmd(stdout, stderr io.Writer) *cobra.Command {
 	var html, threshold string
+	var digits int
 	c := &cobra.Command{
 		Use:   "diff <old> <new>",
 		Short: "Compare two revisions of a package: changed inputs and formulas, results that moved, checks that flipped",
@@ -38,9 +39,13 @@ func diffCmd(stdout, stderr io.Writer) *cobra.Command {
 				return err
 			}
 			r := revdiff.Compare(oldPkg, newPkg, t)
-			render.DiffTerminal(r, args[0], args[1], stdout)
+			if digits < 1 || digits > 15 {
+				return fmt.Errorf("--digits must be between 1 and 15")
+			}
+			opt := render.Options{Version: version.Version, Digits: digits}
+			render.DiffTerminal(r, oldPkg, newPkg, args[0], args[1], opt, stdout)
 			if html != "" {
-				page := render.DiffHTML(r, oldPkg, newPkg, args[0], args[1], render.Options{Version: version.Version})
+				page := render.DiffHTML(r, oldPkg, newPkg, args[0], args[1], opt)
 				if err := atomicfile.Write(html, page, 0o644); err != nil {
 					return err
 				}
@@ -49,6 +54,7 @@ func diffCmd(stdout, stderr io.Writer) *cobra.Command {
 		},
 	}
 	c.Flags().StringVar(&html, "html", "", "also write the changes as an HTML page to this file")
+	c.Flags().IntVar(&digits, "digits", project.DefaultDigits, "significant figures for values (a sheet's front matter may set its own)")
 	c.Flags().StringVar(&threshold, "threshold", "0.01%", "smallest relative change of a result to report, as a fraction or a percentage")
 	return c
 }
