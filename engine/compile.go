@@ -10,17 +10,30 @@ import (
 type evalFn func(v []float64) float64
 
 // compile builds the closure for every node of e and returns the root's.
-func compile(e Expr) evalFn {
+func compile(e Expr) evalFn { return compileIn(e, false) }
+
+// compileIn compiles e; inFlat says that an ancestor runs as one flat
+// closure (flat.go), so that e need not try to be one: its own closure
+// serves only to find where a value went bad.
+func compileIn(e Expr, inFlat bool) evalFn {
 	if c, ok := e.(*Call); ok && c.Func.table != "" {
 		// Table columns are data, not values: only the x argument compiles.
 		fn := compileCall(c)
 		c.fn = fn
 		return fn
 	}
+	var flat evalFn
+	isFlat := false
+	if !inFlat {
+		flat, isFlat = compileFlat(e)
+	}
 	for _, c := range e.children() {
-		compile(c)
+		compileIn(c, inFlat || isFlat)
 	}
 	fn := compileNode(e)
+	if isFlat {
+		fn = flat
+	}
 	e.base().fn = fn
 	return fn
 }
@@ -79,6 +92,9 @@ func operandOf(e Expr) operand {
 }
 
 func compileBinary(n *Binary) evalFn {
+	if fn, ok := compilePairs(n.Op, n.X, n.Y); ok {
+		return fn
+	}
 	x, y := operandOf(n.X), operandOf(n.Y)
 	switch n.Op {
 	case "+":
