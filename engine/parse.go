@@ -61,73 +61,84 @@ func parseStatement(t *text) (*Statement, *diag.Diagnostic) {
 		return st, parseTake(st, t, skipSpace(r, j), end)
 	}
 	if w, j := word(r, i); w == "check" && (j == end || r[j] == ' ' || r[j] == '\t' || r[j] == '[') {
-		st.Kind = Check
-		i = skipSpace(r, j)
-		if i < end && r[i] == '=' && (i+1 >= end || r[i+1] != '=') {
-			return st, errAt(t.pos(skipSpace(r, 0)), "choose another name", "check is a reserved word")
-		}
-		var err *diag.Diagnostic
-		if i, err = parseDisplay(st, t, i, end); err != nil {
-			return st, err
-		}
-		if skipSpace(r[:end], i) == end {
-			return st, errAt(t.pos(i), "write for example: check B_g <= 1.6 T", "check has no comparison")
-		}
-		st.Formula = strings.TrimSpace(string(r[i:end]))
-		if at := loneEquals(r, i, end); at >= 0 {
-			return st, errAt(t.pos(at), "a check compares with ==, <=, >=, < or >: write check "+
-				strings.TrimSpace(string(r[i:at]))+" == "+strings.TrimSpace(string(r[at+1:end])),
-				"= defines a name; a check needs a comparison")
-		}
-		e, err := parseFormula(t, i, end)
-		if err != nil {
-			return st, err
-		}
-		cmp, ok := e.(*Binary)
-		if !ok || !isComparison(cmp.Op) {
-			return st, errAt(e.Pos(), "write left <= right, left >= right, left < right, left > right or left == right",
-				"a check needs one comparison")
-		}
-		st.Expr = cmp
-		return st, nil
+		return st, parseCheck(st, t, j, end)
 	}
+	return st, parseDefinition(st, t, i, end)
+}
 
+// parseCheck reads `check [unit] left <op> right` from r[at:end], at the
+// end of the word check.
+func parseCheck(st *Statement, t *text, at, end int) *diag.Diagnostic {
+	r := t.runes
+	st.Kind = Check
+	i := skipSpace(r, at)
+	if i < end && r[i] == '=' && (i+1 >= end || r[i+1] != '=') {
+		return errAt(t.pos(skipSpace(r, 0)), "choose another name", "check is a reserved word")
+	}
+	i, err := parseDisplay(st, t, i, end)
+	if err != nil {
+		return err
+	}
+	if skipSpace(r[:end], i) == end {
+		return errAt(t.pos(i), "write for example: check B_g <= 1.6 T", "check has no comparison")
+	}
+	st.Formula = strings.TrimSpace(string(r[i:end]))
+	if at := loneEquals(r, i, end); at >= 0 {
+		return errAt(t.pos(at), "a check compares with ==, <=, >=, < or >: write check "+
+			strings.TrimSpace(string(r[i:at]))+" == "+strings.TrimSpace(string(r[at+1:end])),
+			"= defines a name; a check needs a comparison")
+	}
+	e, err := parseFormula(t, i, end)
+	if err != nil {
+		return err
+	}
+	cmp, ok := e.(*Binary)
+	if !ok || !isComparison(cmp.Op) {
+		return errAt(e.Pos(), "write left <= right, left >= right, left < right, left > right or left == right",
+			"a check needs one comparison")
+	}
+	st.Expr = cmp
+	return nil
+}
+
+// parseDefinition reads `name [unit] = formula` from r[i:end].
+func parseDefinition(st *Statement, t *text, i, end int) *diag.Diagnostic {
+	r := t.runes
 	name, j := identifier(r, i)
 	if name == "" {
-		return st, errAt(t.pos(i), "write name = expression, or check left <= right",
+		return errAt(t.pos(i), "write name = expression, or check left <= right",
 			"a statement must start with a name or with check")
 	}
 	st.Kind = Definition
 	st.Name, st.NamePos = name, t.pos(i)
 	if err := validName(name, st.NamePos); err != nil {
-		return st, err
+		return err
 	}
-	i = skipSpace(r, j)
-	var err *diag.Diagnostic
-	if i, err = parseDisplay(st, t, i, end); err != nil {
-		return st, err
+	i, err := parseDisplay(st, t, skipSpace(r, j), end)
+	if err != nil {
+		return err
 	}
 	if i >= end || r[i] != '=' || (i+1 < end && r[i+1] == '=') {
 		at := min(i, end)
 		if at < end && (r[at] == ':' && at+1 < end && r[at+1] == '=') {
-			return st, errAt(t.pos(at), "sheaf defines with a plain =: write "+name+" = ...", "unexpected :=")
+			return errAt(t.pos(at), "sheaf defines with a plain =: write "+name+" = ...", "unexpected :=")
 		}
-		return st, errAt(t.pos(at), "write "+name+" = expression", "expected = after %s", name)
+		return errAt(t.pos(at), "write "+name+" = expression", "expected = after %s", name)
 	}
 	i++
 	if skipSpace(r[:end], i) == end {
-		return st, errAt(t.pos(i), "write the formula or value after =", "%s = has nothing on the right", name)
+		return errAt(t.pos(i), "write the formula or value after =", "%s = has nothing on the right", name)
 	}
 	st.Formula = strings.TrimSpace(string(r[i:end]))
 	e, err := parseFormula(t, i, end)
 	if err != nil {
-		return st, err
+		return err
 	}
 	if b, ok := e.(*Binary); ok && isComparison(b.Op) {
-		return st, errAt(b.Pos(), "write comparisons as checks: check left <= right", "a definition cannot hold a comparison")
+		return errAt(b.Pos(), "write comparisons as checks: check left <= right", "a definition cannot hold a comparison")
 	}
 	st.Expr = e
-	return st, nil
+	return nil
 }
 
 // loneEquals returns the offset of the first = in r[from:to] that is not

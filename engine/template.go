@@ -113,7 +113,13 @@ func parseUse(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	} else {
 		j = k
 	}
-	// Assignments, separated by commas outside parentheses.
+	return parseOverrides(st, t, j, end)
+}
+
+// parseOverrides reads the `name = formula` assignments after with,
+// separated by commas outside parentheses.
+func parseOverrides(st *Statement, t *text, j, end int) *diag.Diagnostic {
+	r := t.runes
 	for j < end {
 		j = skipSpace(r, j)
 		n, k := identifier(r, j)
@@ -126,18 +132,7 @@ func parseUse(st *Statement, t *text, i, end int) *diag.Diagnostic {
 			return errAt(t.pos(k), "write "+n+" = formula", "expected = after %s", n)
 		}
 		from := k + 1
-		depth, stop := 0, from
-		for stop < end {
-			c := r[stop]
-			if c == '(' {
-				depth++
-			} else if c == ')' {
-				depth--
-			} else if c == ',' && depth == 0 {
-				break
-			}
-			stop++
-		}
+		stop := topLevelComma(r, from, end)
 		if skipSpace(r[:stop], from) == stop {
 			return errAt(t.pos(from), "write the value or formula after =", "%s = has nothing on the right", n)
 		}
@@ -156,6 +151,25 @@ func parseUse(st *Statement, t *text, i, end int) *diag.Diagnostic {
 		j = stop + 1
 	}
 	return nil
+}
+
+// topLevelComma returns the offset of the first comma in r[from:end]
+// outside parentheses, or end.
+func topLevelComma(r []rune, from, end int) int {
+	depth := 0
+	for i := from; i < end; i++ {
+		switch r[i] {
+		case '(':
+			depth++
+		case ')':
+			depth--
+		case ',':
+			if depth == 0 {
+				return i
+			}
+		}
+	}
+	return end
 }
 
 // expander turns use statements into the statements of their instances.
@@ -217,7 +231,27 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 	defer func() { x.stack = x.stack[:len(x.stack)-1] }()
 	use.TemplateTitle, use.TemplateCaution = src.Title, src.Caution
 
-	// Parse the template afresh: every instance has statements of its own.
+	body, d := x.parseBody(use, src)
+	if d != nil {
+		return fail(d)
+	}
+	if x.over != nil {
+		// A limit was reached inside: the instance is refused whole, and
+		// the error goes to the using sheet's own statement.
+		return x.refuse(use, top)
+	}
+	tables := x.adopt(use, src)
+	mine, d := applyOverrides(use, body)
+	if d != nil {
+		return fail(d)
+	}
+	nameInstance(use, body, mine, tables)
+	return body
+}
+
+// parseBody parses a template afresh, so that every instance has
+// statements of its own, and expands the instances inside it.
+func (x *expander) parseBody(use *Statement, src SheetSource) ([]*Statement, *diag.Diagnostic) {
 	var texts []*text
 	for _, b := range src.Blocks {
 		texts = append(texts, splitStatements(b)...)
@@ -225,22 +259,22 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 	if x.statements += len(texts); x.statements > MaxStatements {
 		x.over = errAt(use.DisplayPos, "split the sheet, or use fewer or smaller templates",
 			"the templates expand to more than %d statements, the limit for one sheet", MaxStatements)
-		return x.refuse(use, top)
+		return nil, nil
 	}
 	var body []*Statement
 	for _, t := range texts {
 		st, perr := parseStatement(t)
 		if perr != nil {
-			return fail(errAt(use.DisplayPos, "fix the template first", "template %s has an error at %s: %s", use.Template, perr.Pos, perr.Message))
+			return nil, errAt(use.DisplayPos, "fix the template first", "template %s has an error at %s: %s", use.Template, perr.Pos, perr.Message)
 		}
 		body = append(body, st)
 	}
-	body = x.expand(body, src.Path)
-	if x.over != nil {
-		// A limit was reached inside: the instance is refused whole, and
-		// the error goes to the using sheet's own statement.
-		return x.refuse(use, top)
-	}
+	return x.expand(body, src.Path), nil
+}
+
+// adopt takes in the template's assumptions and tables under the
+// instance's name, and returns the template's own table names.
+func (x *expander) adopt(use *Statement, src SheetSource) map[string]bool {
 	for _, a := range src.Assumptions {
 		a.ID = use.Name + "." + a.ID
 		x.assumptions = append(x.assumptions, a)
@@ -251,36 +285,31 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 		t.Name = use.Name + "." + t.Name
 		x.tables = append(x.tables, t)
 	}
+	return tables
+}
 
-	// Names the template defines, and the instances inside it.
+// localNames are the names a template body defines itself.
+func localNames(body []*Statement) map[string]*Statement {
 	local := map[string]*Statement{}
 	for _, st := range body {
 		if st.Name != "" && (st.Kind == Definition || st.Kind == Param) && st.Instance == "" {
 			local[st.Name] = st
 		}
 	}
-	prefix := use.Name + "."
-	inner := map[string]bool{}
-	for _, st := range body {
-		if st.Kind == Use && st.Instance == "" {
-			inner[st.Name] = true
-		}
-	}
-	rename := func(name string) string {
-		head, _, _ := strings.Cut(name, ".")
-		if _, ok := local[name]; ok || inner[head] || tables[head] {
-			return prefix + name
-		}
-		return name
-	}
+	return local
+}
 
-	// Apply the user's values.
+// applyOverrides puts the user's values in place of the template's, and
+// returns the statements whose formulas the using sheet wrote. Every
+// parameter must be set.
+func applyOverrides(use *Statement, body []*Statement) (map[*Statement]bool, *diag.Diagnostic) {
+	local := localNames(body)
 	set := map[string]bool{}
-	mine := map[*Statement]bool{} // formulas written in the using sheet
+	mine := map[*Statement]bool{}
 	for _, o := range use.Overrides {
 		target, ok := local[o.Name]
 		if !ok || !(target.Kind == Param || target.IsInput()) {
-			return fail(errAt(o.NamePos, "its inputs are "+inputList(body), "template %s has no input %s", use.Template, o.Name))
+			return nil, errAt(o.NamePos, "its inputs are "+inputList(body), "template %s has no input %s", use.Template, o.Name)
 		}
 		set[o.Name] = true
 		mine[target] = true
@@ -303,10 +332,31 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 		}
 	}
 	if len(missing) > 0 {
-		return fail(errAt(use.DisplayPos, "set them after with, for example: with "+strings.SplitN(missing[0], " ", 2)[0]+" = ...",
-			"%s needs %s", use.Template, strings.Join(missing, ", ")))
+		return nil, errAt(use.DisplayPos, "set them after with, for example: with "+strings.SplitN(missing[0], " ", 2)[0]+" = ...",
+			"%s needs %s", use.Template, strings.Join(missing, ", "))
 	}
+	return mine, nil
+}
 
+// nameInstance gives the body's statements the instance's names: names
+// inside the template's own formulas refer to the instance, while the
+// user's formulas (mine) keep the user's names.
+func nameInstance(use *Statement, body []*Statement, mine map[*Statement]bool, tables map[string]bool) {
+	local := localNames(body)
+	inner := map[string]bool{}
+	for _, st := range body {
+		if st.Kind == Use && st.Instance == "" {
+			inner[st.Name] = true
+		}
+	}
+	prefix := use.Name + "."
+	rename := func(name string) string {
+		head, _, _ := strings.Cut(name, ".")
+		if _, ok := local[name]; ok || inner[head] || tables[head] {
+			return prefix + name
+		}
+		return name
+	}
 	for _, st := range body {
 		if st.Kind == Param || st.IsInput() {
 			if st.Declared == nil {
@@ -316,8 +366,6 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 				st.Kind = Definition // it has its value now
 			}
 		}
-		// Names inside the template's own formulas refer to the instance;
-		// the user's formulas keep the user's names.
 		if !mine[st] {
 			Walk(st.Expr, func(e Expr) {
 				if r, ok := e.(*Ref); ok {
@@ -339,7 +387,6 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 		}
 		st.Block = use.Block
 	}
-	return body
 }
 
 // limit counts an instance and reports whether the sheet has grown past

@@ -209,50 +209,53 @@ func decodeMeta(path string, text []byte, diags *diag.List) Meta {
 		return m
 	}
 	for i := 0; i+1 < len(doc.Content); i += 2 {
-		k, v := doc.Content[i], doc.Content[i+1]
-		key := normaliseKey(k.Value)
-		if key == "digits" {
-			n, err := strconv.Atoi(v.Value)
-			if err != nil || n < 1 || n > 15 {
-				diags.Add(at(v), "write a whole number from 1 to 15", "digits must be a whole number of significant figures")
-				continue
-			}
-			m.Digits = n
-			continue
-		}
-		switch key {
-		case "template":
-			b, err := strconv.ParseBool(v.Value)
-			if err != nil {
-				diags.Add(at(v), "write template: true", "template must be true or false")
-			}
-			m.Template = b
-			continue
-		case "history":
-			m.History = decodeHistory(v, at, diags)
-			continue
-		case "accept":
-			m.Accept = decodeAccept(v, at, diags)
-			continue
-		}
-		field, ok := metaFields[key]
-		if !ok {
-			d := diag.Diagnostic{Pos: at(k), Severity: diag.Warning,
-				Message: fmt.Sprintf("unknown front-matter field %q", k.Value), Hint: "known fields are " + knownFields()}
-			*diags = append(*diags, d)
-			continue
-		}
-		if v.Kind != yaml.ScalarNode {
-			diags.Add(at(v), "write a single line of text", "front-matter field %q must be text", k.Value)
-			continue
-		}
-		*field(&m) = v.Value
-		if dateFields[key] && v.Value != "" && !isDate(v.Value) {
-			*diags = append(*diags, diag.Diagnostic{Pos: at(v), Severity: diag.Warning,
-				Message: fmt.Sprintf("%s %q is not a date written YYYY-MM-DD", k.Value, v.Value), Hint: "write for example 2026-11-30"})
-		}
+		metaField(&m, doc.Content[i], doc.Content[i+1], at, diags)
 	}
 	return m
+}
+
+// metaField reads one field of the front matter into m.
+func metaField(m *Meta, k, v *yaml.Node, at func(*yaml.Node) diag.Pos, diags *diag.List) {
+	key := normaliseKey(k.Value)
+	switch key {
+	case "digits":
+		n, err := strconv.Atoi(v.Value)
+		if err != nil || n < 1 || n > 15 {
+			diags.Add(at(v), "write a whole number from 1 to 15", "digits must be a whole number of significant figures")
+			return
+		}
+		m.Digits = n
+		return
+	case "template":
+		b, err := strconv.ParseBool(v.Value)
+		if err != nil {
+			diags.Add(at(v), "write template: true", "template must be true or false")
+		}
+		m.Template = b
+		return
+	case "history":
+		m.History = decodeHistory(v, at, diags)
+		return
+	case "accept":
+		m.Accept = decodeAccept(v, at, diags)
+		return
+	}
+	field, ok := metaFields[key]
+	if !ok {
+		d := diag.Diagnostic{Pos: at(k), Severity: diag.Warning,
+			Message: fmt.Sprintf("unknown front-matter field %q", k.Value), Hint: "known fields are " + knownFields()}
+		*diags = append(*diags, d)
+		return
+	}
+	if v.Kind != yaml.ScalarNode {
+		diags.Add(at(v), "write a single line of text", "front-matter field %q must be text", k.Value)
+		return
+	}
+	*field(m) = v.Value
+	if dateFields[key] && v.Value != "" && !isDate(v.Value) {
+		*diags = append(*diags, diag.Diagnostic{Pos: at(v), Severity: diag.Warning,
+			Message: fmt.Sprintf("%s %q is not a date written YYYY-MM-DD", k.Value, v.Value), Hint: "write for example 2026-11-30"})
+	}
 }
 
 // decodeHistory reads the revision history: a list of entries with rev,
