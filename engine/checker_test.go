@@ -166,8 +166,8 @@ func TestCheckerTemplatesAndTakes(t *testing.T) {
 				"d": "ok", "d.inner": "error 2:13 template cycle: t/loop.md → t/loop.md", "x": "ok 1.000 m"}},
 		{"taken results are live, and a take names what is wrong",
 			[]string{"take Phi_0 from field", "take I [A] = I_f from field", "take P = Phi_1 from field", "take Q = Phi_0 from elsewhere",
-				"take B = bad from field", "lambda = 10 * Phi_0"},
-			map[string]string{"Phi_0": "ok 40.00 mWb", "I": "ok 20.00 A", "P": "error 4:21 field.md defines no result Phi_1",
+				"take B = bad from field", "lambda = 10 * Phi_0", "take J [V] = I_f from field"},
+			map[string]string{"Phi_0": "ok 40.00 mWb", "I": "ok 20.00 A", "J": "error 8:9 display unit V measures voltage…", "P": "error 4:10 field.md defines no result Phi_1",
 				"Q": "error 5:21 no sheet elsewhere", "B": "blocked", "lambda": "ok 400.0 mWb"}},
 	} {
 		c.run(t, opt)

@@ -111,8 +111,9 @@ type Statement struct {
 	Declared                       *units.Unit
 
 	// A result taken from another sheet: From is the sheet as written and
-	// Remote the name there.
-	From, Remote string
+	// Remote the name there, each with where it is written.
+	From, Remote       string
+	FromPos, RemotePos diag.Pos
 
 	// Info is what the checker learnt; the results of a run are in the
 	// run's Frame, read through Calc.Result.

@@ -25,7 +25,7 @@ func parseTake(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	if name == "" {
 		return errAt(t.pos(i), example, "take needs the name the result gets in this sheet")
 	}
-	st.Name, st.NamePos, st.Remote = name, t.pos(i), name
+	st.Name, st.NamePos, st.Remote, st.RemotePos = name, t.pos(i), name, t.pos(i)
 	if err := validName(name, st.NamePos); err != nil {
 		return err
 	}
@@ -40,7 +40,7 @@ func parseTake(st *Statement, t *text, i, end int) *diag.Diagnostic {
 		if remote == "" {
 			return errAt(t.pos(j), example, "expected the name of the result in the other sheet after =")
 		}
-		st.Remote, j = remote, skipSpace(r, k)
+		st.Remote, st.RemotePos, j = remote, t.pos(j), skipSpace(r, k)
 	}
 	if w, k := word(r, j); w != "from" || k >= end {
 		return errAt(t.pos(j), example, "expected from and the sheet after take %s", name)
@@ -52,7 +52,7 @@ func parseTake(st *Statement, t *text, i, end int) *diag.Diagnostic {
 		return errAt(t.pos(j), example+"; a sheet is named by its path in the package, without spaces", "take %s needs one sheet after from", name)
 	}
 	st.From = ref
-	st.DisplayPos = t.pos(j)
+	st.FromPos = t.pos(j)
 	st.Formula = st.Remote + " from " + ref
 	return nil
 }
@@ -79,7 +79,7 @@ func TakenSheets(src SheetSource) []TakeRef {
 			}
 			st, err := parseStatement(t)
 			if err == nil && st.Kind == Take {
-				out = append(out, TakeRef{Sheet: st.From, Pos: st.DisplayPos})
+				out = append(out, TakeRef{Sheet: st.From, Pos: st.FromPos})
 			}
 		}
 	}
@@ -106,7 +106,7 @@ func (s *Calc) resolveTakes(find func(ref, from string) (*Calc, string, error)) 
 			continue
 		}
 		if find == nil {
-			s.fail(st, errAt(st.DisplayPos, "take reads the sheets of a package: check the package folder", "other sheets are not available here"))
+			s.fail(st, errAt(st.FromPos, "take reads the sheets of a package: check the package folder", "other sheets are not available here"))
 			continue
 		}
 		other, path, err := find(st.From, s.Path)
@@ -116,7 +116,7 @@ func (s *Calc) resolveTakes(find func(ref, from string) (*Calc, string, error)) 
 			if errors.As(err, &te) {
 				hint = te.Hint
 			}
-			s.fail(st, errAt(st.DisplayPos, hint, "%v", err))
+			s.fail(st, errAt(st.FromPos, hint, "%v", err))
 			continue
 		}
 		target := other.Lookup(st.Remote)
@@ -125,7 +125,7 @@ func (s *Calc) resolveTakes(find func(ref, from string) (*Calc, string, error)) 
 			if c := closest(st.Remote, other.definedNames()); c != "" {
 				hint = "did you mean " + c + "? " + hint
 			}
-			s.fail(st, errAt(st.DisplayPos, hint, "%s defines no result %s", path, st.Remote))
+			s.fail(st, errAt(st.RemotePos, hint, "%s defines no result %s", path, st.Remote))
 			continue
 		}
 		st.Taken, st.TakenPath, st.taken = target, path, other.Result(target)

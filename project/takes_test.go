@@ -38,11 +38,11 @@ func TestTakeFromAnotherSheet(t *testing.T) {
 	if st := emf.Calc.Lookup("lambda"); emf.Calc.Result(st).Status != engine.OK || !near(emf.Calc.Result(st).Value, 10*phi) {
 		t.Errorf("lambda = %g, want %g", emf.Calc.Result(st).Value, 10*phi)
 	}
-	wantDiag(t, pkg, "emf/02-emf.md:8:20", "01-circuit.md defines no result Rr")
+	wantDiag(t, pkg, "emf/02-emf.md:8:12", "01-circuit.md defines no result Rr")
 	wantDiag(t, pkg, "emf/02-emf.md:9:13", "no sheet nowhere.md in the package")
 	wantDiag(t, pkg, "c.md:3:13", "sheets take results from each other in a cycle: c.md → d.md → c.md")
 	wantDiag(t, pkg, "d.md:3:13", "in a cycle")
-	for pos, hint := range map[string]string{"emf/02-emf.md:8:20": "did you mean R?", "c.md:3:13": "work the value out itself"} {
+	for pos, hint := range map[string]string{"emf/02-emf.md:8:12": "did you mean R?", "c.md:3:13": "work the value out itself"} {
 		if !slices.ContainsFunc(pkg.Diags, func(d diag.Diagnostic) bool { return d.Pos.String() == pos && strings.Contains(d.Hint, hint) }) {
 			t.Errorf("the diagnostic at %s does not hint %q", pos, hint)
 		}
