@@ -362,7 +362,7 @@ func nameInstance(use *Statement, body []*Statement, mine map[*Statement]bool, t
 			if st.Declared == nil {
 				st.Declared = literalUnit(valueExpr(st))
 			}
-			if st.Kind == Param {
+			if st.Kind == Param && st.Expr != nil {
 				st.Kind = Definition // it has its value now
 			}
 		}
