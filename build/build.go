@@ -36,6 +36,9 @@ type Options struct {
 	// JSON is the file the JSON document is written to, or "" for none.
 	// Inside Out it becomes part of the package and the manifest lists it.
 	JSON string
+	// AuditHTML is a file the audit page is also written to, outside the
+	// sources, or "" for none.
+	AuditHTML string
 }
 
 // Result is an evaluated and audited package with the options its pages
@@ -98,6 +101,11 @@ func Run(src string, opt Options) (*Result, error) {
 			return nil, err
 		}
 	}
+	if opt.AuditHTML != "" {
+		if err := Outside(opt.AuditHTML, sources, "--html", "-audit.html"); err != nil {
+			return nil, err
+		}
+	}
 	if opt.Out == "" {
 		res, err := Load(src, opt)
 		if err != nil {
@@ -105,6 +113,9 @@ func Run(src string, opt Options) (*Result, error) {
 		}
 		if opt.JSON != "" {
 			err = atomicfile.WriteFunc(opt.JSON, 0o644, res.WriteJSON)
+		}
+		if err == nil {
+			err = res.writeAudit(opt.AuditHTML)
 		}
 		return res, err
 	}
@@ -117,7 +128,18 @@ func Run(src string, opt Options) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	return res, t.write(res, opt.JSON)
+	if err := t.write(res, opt.JSON); err != nil {
+		return res, err
+	}
+	return res, res.writeAudit(opt.AuditHTML)
+}
+
+// writeAudit writes the audit page to path, when there is one.
+func (r *Result) writeAudit(path string) error {
+	if path == "" {
+		return nil
+	}
+	return atomicfile.Write(path, render.AuditHTML(r.Package, r.Render), 0o644)
 }
 
 // Pages renders the index, the registers, the audit and one page per

@@ -5,6 +5,7 @@ import (
 	"io"
 	"strings"
 
+	"github.com/sheaf-calc/sheaf/audit"
 	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
 	"github.com/sheaf-calc/sheaf/units"
@@ -159,4 +160,20 @@ func sameUnit(display *units.Unit, input *engine.Statement) bool {
 	}
 	_, u := InputText(input)
 	return display.Symbol == u || (display.Symbol == "1" && u == "")
+}
+
+// AuditTerminal writes the audit's findings one a line, file:line:col:
+// [code] message, the accepted ones too when all is set, and a count.
+func AuditTerminal(r audit.Report, all bool, w io.Writer) {
+	for _, f := range r.Findings {
+		if f.Accepted && !all {
+			continue
+		}
+		line := fmt.Sprintf("%s: [%s] %s", f.Pos, f.Code, f.Message)
+		if f.Accepted {
+			line += " (accepted: " + f.Reason + ")"
+		}
+		fmt.Fprintln(w, line)
+	}
+	fmt.Fprintf(w, "%s open, %d accepted\n", Count(r.Open(), "finding"), len(r.Findings)-r.Open())
 }

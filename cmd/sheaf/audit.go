@@ -1,13 +1,11 @@
 package main
 
 import (
-	"fmt"
 	"io"
 
 	"github.com/spf13/cobra"
 
 	"github.com/sheaf-calc/sheaf/build"
-	"github.com/sheaf-calc/sheaf/internal/atomicfile"
 	"github.com/sheaf-calc/sheaf/render"
 )
 
@@ -24,34 +22,13 @@ func auditCmd(stdout, stderr io.Writer) *cobra.Command {
 			"Exit codes: 0 no open findings; 1 open findings; 2 errors in the sheets or usage.",
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			res, err := flags.run(args[0], nil)
+			res, err := flags.run(args[0], func(o *build.Options) { o.AuditHTML = html })
 			if err != nil {
 				return err
 			}
-			if html != "" {
-				if err := build.Outside(html, res.Sources, "--html", "-audit.html"); err != nil {
-					return err
-				}
-			}
-			pkg, opt := res.Package, res.Render
-			r := *opt.Audit
-			for _, f := range r.Findings {
-				if f.Accepted && !all {
-					continue
-				}
-				line := fmt.Sprintf("%s: [%s] %s", f.Pos, f.Code, f.Message)
-				if f.Accepted {
-					line += " (accepted: " + f.Reason + ")"
-				}
-				fmt.Fprintln(stdout, line)
-			}
+			pkg, r := res.Package, *res.Render.Audit
+			render.AuditTerminal(r, all, stdout)
 			render.WriteDiagnostics(pkg, stderr)
-			fmt.Fprintf(stdout, "%s open, %d accepted\n", render.Count(r.Open(), "finding"), len(r.Findings)-r.Open())
-			if html != "" {
-				if err := atomicfile.Write(html, render.AuditHTML(pkg, opt), 0o644); err != nil {
-					return err
-				}
-			}
 			switch {
 			case pkg.Counts().Errors > 0:
 				return exitCode(exitErrors)

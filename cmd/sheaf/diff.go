@@ -8,11 +8,9 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"github.com/sheaf-calc/sheaf/internal/atomicfile"
+	"github.com/sheaf-calc/sheaf/build"
 	"github.com/sheaf-calc/sheaf/internal/version"
 	"github.com/sheaf-calc/sheaf/project"
-	"github.com/sheaf-calc/sheaf/render"
-	"github.com/sheaf-calc/sheaf/revdiff"
 )
 
 func diffCmd(stdout, stderr io.Writer) *cobra.Command {
@@ -30,27 +28,11 @@ func diffCmd(stdout, stderr io.Writer) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			oldPkg, err := project.LoadAny(args[0])
-			if err != nil {
-				return err
-			}
-			newPkg, err := project.LoadAny(args[1])
-			if err != nil {
-				return err
-			}
-			r := revdiff.Compare(oldPkg, newPkg, t)
 			if digits < 1 || digits > 15 {
 				return fmt.Errorf("--digits must be between 1 and 15")
 			}
-			opt := render.Options{Version: version.Version, Digits: digits}
-			render.DiffTerminal(r, oldPkg, newPkg, args[0], args[1], opt, stdout)
-			if html != "" {
-				page := render.DiffHTML(r, oldPkg, newPkg, args[0], args[1], opt)
-				if err := atomicfile.Write(html, page, 0o644); err != nil {
-					return err
-				}
-			}
-			return nil
+			_, err = build.Diff(args[0], args[1], build.DiffOptions{Threshold: t, Digits: digits, Version: version.Version, HTML: html}, stdout)
+			return err
 		},
 	}
 	c.Flags().StringVar(&html, "html", "", "also write the changes as an HTML page to this file")

@@ -3,14 +3,11 @@ package main
 import (
 	"fmt"
 	"io"
-	"os"
-	"path/filepath"
 	"strings"
 	"text/tabwriter"
 
 	"github.com/spf13/cobra"
 
-	"github.com/sheaf-calc/sheaf/internal/atomicfile"
 	"github.com/sheaf-calc/sheaf/project"
 	"github.com/sheaf-calc/sheaf/sheets"
 )
@@ -62,26 +59,8 @@ func templatesCmd(stdout io.Writer) *cobra.Command {
 			"It never overwrites a file.",
 		Args: cobra.ExactArgs(2),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			name := strings.TrimSuffix(strings.TrimPrefix(args[0], sheets.LibraryPrefix), ".md")
-			data, ok := sheets.LibrarySource(name)
-			if !ok {
-				return fmt.Errorf("no built-in template %s; sheaf templates lists them", args[0])
-			}
-			doc, err := sheets.LibraryTemplate(name)
+			tmpl, sheet, err := project.CopyTemplate(args[0], args[1])
 			if err != nil {
-				return err
-			}
-			tmpl := filepath.Join(args[1], "_templates", name+".md")
-			sheet := filepath.Join(args[1], name+".md")
-			for _, p := range []string{tmpl, sheet} {
-				if _, err := os.Stat(p); err == nil {
-					return fmt.Errorf("%s already exists; copy into another folder, or move it away first", p)
-				}
-			}
-			if err := atomicfile.Write(tmpl, data, 0o644); err != nil {
-				return err
-			}
-			if err := atomicfile.Write(sheet, []byte(starterSheet(name, doc)), 0o644); err != nil {
 				return err
 			}
 			fmt.Fprintf(stdout, "wrote %s (the template) and %s (a sheet that uses it)\nnext: set the job's values in %s, then sheaf build %s -o <out>\n",
@@ -90,40 +69,4 @@ func templatesCmd(stdout io.Writer) *cobra.Command {
 		},
 	})
 	return c
-}
-
-// starterSheet writes a sheet that uses a copied template, with the job's
-// title block to fill in and an example value for each input it must set.
-func starterSheet(name string, doc *sheets.Document) string {
-	var b strings.Builder
-	fmt.Fprintf(&b, "---\ntitle: %s\nproject: \njob: \nsubject: %s\nrevision: A\nprepared by: \nchecked by: \n---\n\n", doc.Meta.Title, doc.Meta.Subject)
-	fmt.Fprintf(&b, "# %s\n\nThis sheet uses the template `_templates/%s.md`, copied from sheaf's library. Replace the example\nvalues below with the job's, each with its source, and adapt the template if the job needs it.\n\n```sheaf\n", doc.Meta.Title, name)
-	var sets []string
-	for _, in := range project.TemplateInputs(doc) {
-		if !in.Required {
-			continue
-		}
-		example := in.Example
-		if example == "" {
-			example = "1"
-			if in.Unit != "1" {
-				example += " " + in.Unit
-			}
-		}
-		fmt.Fprintf(&b, "%s = %s ; %s ; source: example value, replace with the job's\n", in.Name, example, orDefault(in.Description, in.Name))
-		sets = append(sets, in.Name+" = "+in.Name)
-	}
-	line := "use calc = _templates/" + name
-	if len(sets) > 0 {
-		line += " with " + strings.Join(sets, ",\n    ")
-	}
-	b.WriteString(line + "\n```\n")
-	return b.String()
-}
-
-func orDefault(s, d string) string {
-	if s == "" {
-		return d
-	}
-	return s
 }
