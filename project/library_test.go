@@ -204,7 +204,11 @@ var libraryExamples = []libraryExample{
 			{"s1.U_test", "withstand test voltage, 230 V", 1500, "IEC 60034-1 least test voltage 1.5 kV (from memory)"},
 			{"p1.T_class", "temperature of class 155 (F)", celsius(155), "IEC 60085 (from memory)"},
 			{"p2.T_class", "temperature of class 180 (H)", celsius(180), "IEC 60085 (from memory)"},
-			{"s1.T_class", "temperature of class 130 (B)", celsius(130), "IEC 60085 (from memory)"},
+			{"s1.T_class", "temperature of class 120 (E)", celsius(120), "IEC 60085 (from memory)"},
+			{"p1.dT_hs", "hot-spot allowance of class 155", 10, "IEC 60034-1 rise limit by resistance 105 K at 40 °C for class 155 (from memory)"},
+			{"p2.dT_hs", "hot-spot allowance of class 180", 15, "IEC 60034-1 rise limit by resistance 125 K at 40 °C for class 180 (from memory)"},
+			{"s1.dT_hs", "hot-spot allowance of class 120", 5, "IEC 60034-1 rise limit by resistance 75 K at 40 °C for class 120 (from memory)"},
+			{"p1.EF", "PD enhancement factor", 1.5625, "IEC TS 60034-18-41, ageing 1.25 times temperature 1.25 (from memory)"},
 		},
 	},
 }
@@ -425,24 +429,30 @@ func TestLibraryIndependent(t *testing.T) {
 		// No published worked example: the formulas worked in Go.
 		s := byPath["insulation-lv-motors.md"]
 		type motor struct {
-			inst                  string
-			un, nph, ncoil, surge float64
-			pdiv, kos, dT, kU, k1 float64
+			inst                    string
+			un, nph, ncoil, surge   float64
+			pdivPP, kos, dT, kU, k1 float64
+			kph, kef, hotSpot       float64 // star 1/√3 or delta 1; earth-fault factor; class allowance in K
 		}
+		star, rootThree := 1/math.Sqrt(3), math.Sqrt(3)
 		for _, m := range []motor{
-			{"p1", 400, 96, 16, 1200, 1800, 2, 75, 1.05, 0.7},
-			{"p2", 690, 72, 12, 2000, 2800, 2, 90, 1.05, 0.7},
-			{"s1", 230, 150, 30, 500, 1000, 1.5, 50, 1.05, 0.7},
+			{"p1", 400, 96, 16, 1200, 4000, 2, 75, 1.05, 0.7, star, 1, 10},
+			{"p2", 690, 72, 12, 2000, 7000, 2, 90, 1.05, 0.7, star, rootThree, 15},
+			{"s1", 230, 150, 30, 500, 2000, 1.5, 50, 1.05, 0.7, 1, 1, 5},
 		} {
 			umax := m.kU * m.un
-			closeTo(t, m.inst+".U_pk_pg", libraryValue(t, s, m.inst+".U_pk_pg"), math.Sqrt2*umax/math.Sqrt(3), tight)
+			closeTo(t, m.inst+".U_pk_pg", libraryValue(t, s, m.inst+".U_pk_pg"), math.Sqrt2*m.kef*umax/math.Sqrt(3), tight)
 			closeTo(t, m.inst+".U_pk_ll", libraryValue(t, s, m.inst+".U_pk_ll"), math.Sqrt2*umax, tight)
-			closeTo(t, m.inst+".U_tt", libraryValue(t, s, m.inst+".U_tt"), math.Sqrt2*umax/math.Sqrt(3)/m.nph, tight)
+			closeTo(t, m.inst+".U_tt", libraryValue(t, s, m.inst+".U_tt"), math.Sqrt2*m.kph*umax/m.nph, tight)
 			closeTo(t, m.inst+".U_tt_s", libraryValue(t, s, m.inst+".U_tt_s"), m.k1*m.surge/m.ncoil, tight)
+			// Random-wound: first and last turns may touch, so the whole
+			// line-end coil voltage can stand between two turns (common practice).
+			closeTo(t, m.inst+".U_tt_s_rw", libraryValue(t, s, m.inst+".U_tt_s_rw"), m.k1*m.surge, tight)
 			closeTo(t, m.inst+".U_pk_inv", libraryValue(t, s, m.inst+".U_pk_inv"), m.kos*math.Sqrt2*umax, tight)
 			closeTo(t, m.inst+".U_pp_inv", libraryValue(t, s, m.inst+".U_pp_inv"), 2*m.kos*math.Sqrt2*umax, tight)
-			closeTo(t, m.inst+".m_PD", libraryValue(t, s, m.inst+".m_PD"), m.pdiv/(m.kos*math.Sqrt2*umax), tight)
-			closeTo(t, m.inst+".T_hs", libraryValue(t, s, m.inst+".T_hs"), celsius(40+m.dT+10), tight)
+			// IEC TS 60034-18-41: RPDIV (peak-to-peak) over the peak-to-peak in service.
+			closeTo(t, m.inst+".m_PD", libraryValue(t, s, m.inst+".m_PD"), m.pdivPP/(2*m.kos*math.Sqrt2*umax), tight)
+			closeTo(t, m.inst+".T_hs", libraryValue(t, s, m.inst+".T_hs"), celsius(40+m.dT+m.hotSpot), tight)
 		}
 	})
 
