@@ -4,6 +4,7 @@ import (
 	"math"
 	"path/filepath"
 	"slices"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -215,7 +216,7 @@ var libraryExamples = []libraryExample{
 
 // independentSheets have no published example; TestLibraryIndependent
 // compares them with calculations in Go.
-var independentSheets = []string{"flux-linkage-groups.md", "saturating-core.md", "solve-and-interp.md"}
+var independentSheets = []string{"flux-linkage-groups.md", "saturating-core.md", "solve-and-interp.md", "laminated-gapped-core.md"}
 
 // loadLibrary loads testdata/library and fails on any diagnostic.
 func loadLibrary(t *testing.T) (*project.Package, map[string]*project.Sheet) {
@@ -401,6 +402,14 @@ func TestLibraryIndependent(t *testing.T) {
 		closeTo(t, "emf.e_t at t = 0", libraryValue(t, s, "emf.e_t"), -n*w*phiMax, tight) // −N·ω·Φ·cos 0
 		closeTo(t, "emf.t_lag", libraryValue(t, s, "emf.t_lag"), 1/(4*f), tight)
 		closeTo(t, "emf.phi_lag", libraryValue(t, s, "emf.phi_lag"), math.Pi/2, tight)
+		// Issue 13: the template states the convention its sign rests on
+		// (FKU 6th ed. ch. 1 writes e = dλ/dt in the load convention).
+		src, _ := sheets.LibrarySource("coil-emf")
+		for _, want := range []string{"Sign convention", "e = −N·dΦ/dt", "u = +N·dΦ/dt"} {
+			if !strings.Contains(string(src), want) {
+				t.Errorf("lib/coil-emf does not state its sign convention: no %q", want)
+			}
+		}
 	})
 
 	t.Run("speed-voltage coil and winding", func(t *testing.T) {
@@ -414,6 +423,51 @@ func TestLibraryIndependent(t *testing.T) {
 		closeTo(t, "alt.n_s", libraryValue(t, s, "alt.n_s"), 375*rpm, tight)
 	})
 
+	t.Run("stacking factor: gap area from the gross area", func(t *testing.T) {
+		// Issue 13: the gap faces the gross area of the stack, A_net/k_st,
+		// not the net iron area (common practice). Worked here in Go.
+		s := byPath["laminated-gapped-core.md"]
+		allPass(t, s)
+		const mu0 = 4e-7 * math.Pi
+		n, i, lc, aNet, g, kst, mur := 400.0, 1.2, 0.40, 9.5e-4, 1e-3, 0.95, 1400.0
+		aGross := aNet / kst
+		rc := lc / (mur * mu0 * aNet)
+		rg := g / (mu0 * aGross)
+		closeTo(t, "lin.A_g", libraryValue(t, s, "lin.A_g"), 10e-4, tight)
+		closeTo(t, "lin.R_g", libraryValue(t, s, "lin.R_g"), rg, 1e-8)
+		closeTo(t, "lin.Phi", libraryValue(t, s, "lin.Phi"), n*i/(rc+rg), 1e-8)
+		closeTo(t, "lin.B_c on the net area", libraryValue(t, s, "lin.B_c"), n*i/(rc+rg)/aNet, 1e-8)
+		closeTo(t, "sat.A_g", libraryValue(t, s, "sat.A_g"), 10e-4, tight)
+		closeTo(t, "sat.R_g", libraryValue(t, s, "sat.R_g"), rg, 1e-8)
+	})
+
+	t.Run("magnetic-circuit default mu_r agrees with the library curve at 1 T", func(t *testing.T) {
+		// Issue 13: the default μ_r of lib/magnetic-circuit was 4000 while
+		// the library's own curve gives B/(μ0·H) ≈ 1400 at 1.0 T.
+		s := byPath["saturating-core.md"]
+		H, B := tableColumns(t, s, "choke.BH")
+		var hOfB interp.PiecewiseLinear
+		if err := hOfB.Fit(B, H); err != nil {
+			t.Fatal(err)
+		}
+		curve := 1.0 / (4e-7 * math.Pi * hOfB.Predict(1.0))
+		doc, err := sheets.LibraryTemplate("magnetic-circuit")
+		if err != nil {
+			t.Fatal(err)
+		}
+		var def string
+		for _, in := range project.TemplateInputs(doc) {
+			if in.Name == "mu_r" {
+				def = in.Default
+			}
+		}
+		got, err := strconv.ParseFloat(strings.TrimSpace(def), 64)
+		if err != nil {
+			t.Fatalf("default mu_r %q: %v", def, err)
+		}
+		closeTo(t, "default mu_r against the curve at 1.0 T", got, curve, 0.01)
+	})
+
 	t.Run("dc-machine constants", func(t *testing.T) {
 		s := byPath["theraja2-dc-machine.md"]
 		k := 4 * 540 / (2 * math.Pi * 4)
@@ -423,6 +477,15 @@ func TestLibraryIndependent(t *testing.T) {
 		if got := libraryValue(t, s, "gen.T"); got != 0 {
 			t.Errorf("gen.T = %g on open circuit, want 0", got)
 		}
+		// Issue 13: E_k == E and k_e == k_t hold by algebra (Chapman, 4th
+		// ed., DC machinery chapters: E_A = Kφω and τ = Kφ·I_A share Kφ), so
+		// the template shows them as results and counts no check on them.
+		for _, st := range s.Calc.Statements {
+			if st.Kind == engine.Check && strings.HasPrefix(st.Pos.File, "lib/dc-machine") {
+				t.Errorf("%v: lib/dc-machine counts an identity as a design check: check %s", st.Pos, st.Formula)
+			}
+		}
+		closeTo(t, "mot.E_k equals mot.E", libraryValue(t, s, "mot.E_k"), libraryValue(t, s, "mot.E"), tight)
 	})
 
 	t.Run("insulation peaks and turns", func(t *testing.T) {
