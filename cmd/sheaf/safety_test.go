@@ -322,7 +322,11 @@ func TestRebuildOverAReadOnlySheetsFolder(t *testing.T) {
 	defer func() { _ = os.Chmod(filepath.Join(out, "sheets"), 0o755) }()
 	sheet := filepath.Join(src, "03-speed-voltage.md")
 	data, _ := os.ReadFile(sheet)
-	if err := os.WriteFile(sheet, []byte(strings.Replace(string(data), "B_1 = 0.92 T", "B_1 = 0.93 T", 1)), 0o644); err != nil {
+	changed := strings.Replace(string(data), "B_1 = 0.83 T", "B_1 = 0.84 T", 1)
+	if changed == string(data) {
+		t.Fatal("the demo sheet no longer has the line this test edits")
+	}
+	if err := os.WriteFile(sheet, []byte(changed), 0o644); err != nil {
 		t.Fatal(err)
 	}
 	code, _, stderr := runCLI("build", src, "-o", out, "--no-graphs")
