@@ -10,6 +10,7 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
+	"runtime"
 	"sync"
 
 	"github.com/sheaf-calc/sheaf/internal/atomicfile"
@@ -146,11 +147,9 @@ func (t *target) build(src string, opt Options) (res *Result, err error) {
 			err = fmt.Errorf("%w; %s is left as it was", err, t.given)
 		}
 	}()
-	sp := &sheetPages{pages: map[string]Page{}, errs: map[string]error{}}
-	res, err = load(src, opt, func(pkg *project.Package, s *project.Sheet, ropt render.Options) {
-		p, err := t.putSheet(pkg, s, ropt)
-		sp.record(s, p, err)
-	})
+	sp := t.newSheetPages()
+	res, err = load(src, opt, sp.add)
+	sp.wait()
 	if err != nil {
 		return nil, err
 	}
@@ -173,22 +172,59 @@ func (t *target) putSheet(pkg *project.Package, s *project.Sheet, ropt render.Op
 	return PageOf(f), t.put(f.Path, f.Data)
 }
 
-// sheetPages are the sheet pages written while the package loaded, by
-// page path.
+// sheetPages writes the sheet pages rendered while the package loads, on
+// goroutines of their own, so that waiting for the disk does not hold up
+// compiling; a few pages at most wait in memory to be written.
 type sheetPages struct {
+	t     *target
+	queue chan render.File
+	wg    sync.WaitGroup
 	mu    sync.Mutex
-	pages map[string]Page
+	pages map[string]Page // by page path, once written
 	errs  map[string]error
 }
 
-func (sp *sheetPages) record(s *project.Sheet, p Page, err error) {
+func (t *target) newSheetPages() *sheetPages {
+	sp := &sheetPages{t: t, queue: make(chan render.File, 2*runtime.GOMAXPROCS(0)),
+		pages: map[string]Page{}, errs: map[string]error{}}
+	for w := 0; w < 2; w++ {
+		sp.wg.Add(1)
+		go func() {
+			defer sp.wg.Done()
+			for f := range sp.queue {
+				sp.record(f.Path, PageOf(f), t.put(f.Path, f.Data))
+			}
+		}()
+	}
+	return sp
+}
+
+// add renders the page of a sheet just evaluated, lets go of the sheet's
+// Markdown tree and queues the page to be written.
+func (sp *sheetPages) add(pkg *project.Package, s *project.Sheet, ropt render.Options) {
+	f, err := render.SheetFile(pkg, s, ropt)
+	if err != nil {
+		sp.record(s.Page, Page{}, err)
+		return
+	}
+	s.ReleaseProse()
+	sp.queue <- f
+}
+
+// wait waits for the queued pages to be written.
+func (sp *sheetPages) wait() {
+	close(sp.queue)
+	sp.wg.Wait()
+}
+
+func (sp *sheetPages) record(page string, p Page, err error) {
 	sp.mu.Lock()
 	defer sp.mu.Unlock()
 	if err != nil {
-		sp.errs[s.Page] = err
+		sp.errs[page] = err
 		return
 	}
-	sp.pages[s.Page] = p
+	sp.pages[page] = p
 }
 
 // write writes the package pages, the sheet pages not written yet, the
