@@ -116,7 +116,8 @@ func Run(src string, opt Options) (*Result, error) {
 		}
 	}
 	if opt.Out == "" {
-		res, err := Load(src, opt)
+		// No page is rendered: nothing needs the Markdown trees.
+		res, err := load(src, opt, func(_ *project.Package, s *project.Sheet, _ render.Options) { s.ReleaseProse() })
 		if err != nil {
 			return nil, err
 		}
@@ -134,9 +135,9 @@ func Run(src string, opt Options) (*Result, error) {
 }
 
 // Pages renders the index, the registers, the audit and one page per
-// sheet, handing each to emit in a fixed order. The result of a Run that
-// wrote a folder has let go of what its sheet pages need: Load the
-// package to render them again.
+// sheet, handing each to emit in a fixed order. The result of a Run has
+// let go of what its sheet pages need, once written or when none was to
+// be written: Load the package to render them.
 func (r *Result) Pages(emit func(render.File) error) error {
 	for _, s := range r.Package.Sheets {
 		if s.ProseReleased() {
