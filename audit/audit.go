@@ -487,23 +487,21 @@ func statementLine(lines map[string][]int, f Finding) int {
 // another document, is not taken for one of the package's).
 func handTransfers(pkg *project.Package) []Finding {
 	var out []Finding
+	names := newSheetNames(pkg.Sheets)
 	for _, s := range pkg.Sheets {
 		for _, st := range s.Calc.Statements {
 			if !st.IsInput() || st.Source == "" || st.Instance != "" {
 				continue
 			}
-			for _, other := range pkg.Sheets {
-				if other != s && namesSheet(st.Source, other) {
-					ref := strings.TrimSuffix(other.Path(), ".md")
-					remote := "<result>"
-					if o := other.Calc.Lookup(st.Name); o != nil && o.Kind == engine.Definition {
-						remote = st.Name
-					}
-					out = append(out, finding("hand-transfer", st.Pos, st.Name,
-						"input %s is typed across from %s (source: %q); take it live: take %s = %s from %s",
-						st.Name, other.Path(), st.Source, st.Name, remote, ref).in(s, st))
-					break
+			if other := names.first(st.Source, s); other != nil {
+				ref := strings.TrimSuffix(other.Path(), ".md")
+				remote := "<result>"
+				if o := other.Calc.Lookup(st.Name); o != nil && o.Kind == engine.Definition {
+					remote = st.Name
 				}
+				out = append(out, finding("hand-transfer", st.Pos, st.Name,
+					"input %s is typed across from %s (source: %q); take it live: take %s = %s from %s",
+					st.Name, other.Path(), st.Source, st.Name, remote, ref).in(s, st))
 			}
 		}
 	}

@@ -12,6 +12,7 @@ package build
 import (
 	"fmt"
 	"io"
+	"sync"
 
 	"github.com/sheaf-calc/sheaf/audit"
 	"github.com/sheaf-calc/sheaf/internal/atomicfile"
@@ -55,7 +56,11 @@ type Result struct {
 
 // Load reads, evaluates and audits the package at src (a folder or one
 // sheet) and works out the render options. It writes nothing.
-func Load(src string, opt Options) (*Result, error) {
+func Load(src string, opt Options) (*Result, error) { return load(src, opt, nil) }
+
+// load is Load that hands each page, with the render options, to
+// evaluated as soon as the sheet is evaluated (see project.LoadOptions).
+func load(src string, opt Options, evaluated func(*project.Package, *project.Sheet, render.Options)) (*Result, error) {
 	if opt.Digits == 0 {
 		opt.Digits = project.DefaultDigits
 	}
@@ -66,21 +71,33 @@ func Load(src string, opt Options) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	pkg, err := project.Load(src)
+	var lo project.LoadOptions
+	if evaluated != nil {
+		var once sync.Once
+		var ropt render.Options
+		lo.Evaluated = func(pkg *project.Package, s *project.Sheet) {
+			// A sheet page shows that the package has an audit page,
+			// not the findings: the report can come later.
+			once.Do(func() { ropt = renderOptions(pkg, opt, &audit.Report{}).ForPackage(pkg) })
+			evaluated(pkg, s, ropt)
+		}
+	}
+	pkg, err := project.LoadWith(src, lo)
 	if err != nil {
 		return nil, err
 	}
 	report := audit.Run(pkg)
-	return &Result{
-		Package: pkg,
-		Sources: sources,
-		Render: render.Options{
-			Digits: opt.Digits, Version: opt.Version, Audit: &report,
-			NoGraphs: opt.NoGraphs,
-			// Dates come from the sources, never the clock: builds stay byte-identical.
-			BuildDate: pkg.BuildDate(opt.SourceDateEpoch),
-		},
-	}, nil
+	return &Result{Package: pkg, Sources: sources, Render: renderOptions(pkg, opt, &report)}, nil
+}
+
+// renderOptions are the options the pages of pkg are rendered with.
+func renderOptions(pkg *project.Package, opt Options, report *audit.Report) render.Options {
+	return render.Options{
+		Digits: opt.Digits, Version: opt.Version, Audit: report,
+		NoGraphs: opt.NoGraphs,
+		// Dates come from the sources, never the clock: builds stay byte-identical.
+		BuildDate: pkg.BuildDate(opt.SourceDateEpoch),
+	}
 }
 
 // Run is the whole pipeline: it refuses outputs that would overwrite the
@@ -107,7 +124,8 @@ func Run(src string, opt Options) (*Result, error) {
 		}
 	}
 	if opt.Out == "" {
-		res, err := Load(src, opt)
+		// No page is rendered: nothing needs the Markdown trees.
+		res, err := load(src, opt, func(_ *project.Package, s *project.Sheet, _ render.Options) { s.ReleaseProse() })
 		if err != nil {
 			return nil, err
 		}
@@ -124,11 +142,8 @@ func Run(src string, opt Options) (*Result, error) {
 		return nil, err
 	}
 	defer t.unlock()
-	res, err := Load(src, opt)
+	res, err := t.build(src, opt)
 	if err != nil {
-		return nil, err
-	}
-	if err := t.write(res, opt.JSON); err != nil {
 		return res, err
 	}
 	return res, res.writeAudit(opt.AuditHTML)
@@ -143,8 +158,15 @@ func (r *Result) writeAudit(path string) error {
 }
 
 // Pages renders the index, the registers, the audit and one page per
-// sheet, handing each to emit in a fixed order.
+// sheet, handing each to emit in a fixed order. The result of a Run has
+// let go of what its sheet pages need, once written or when none was to
+// be written: Load the package to render them.
 func (r *Result) Pages(emit func(render.File) error) error {
+	for _, s := range r.Package.Sheets {
+		if s.ProseReleased() {
+			return fmt.Errorf("the pages of %s were written by the build and cannot be rendered again from this result; load the package again", s.Path())
+		}
+	}
 	return render.WriteHTML(r.Package, r.Render, emit)
 }
 

@@ -10,8 +10,11 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
+	"runtime"
+	"sync"
 
 	"github.com/sheaf-calc/sheaf/internal/atomicfile"
+	"github.com/sheaf-calc/sheaf/project"
 	"github.com/sheaf-calc/sheaf/render"
 )
 
@@ -126,12 +129,17 @@ func isManifest(data []byte) bool {
 	return err == nil
 }
 
-// write stages the package, its manifest and the JSON, then swaps the
+// build stages the package, its manifest and the JSON, then swaps the
 // staging folder in for the output. On any error the output is left as
 // it was.
-func (t *target) write(res *Result, jsonPath string) (err error) {
+//
+// Each sheet's page is rendered and written as soon as the sheet is
+// evaluated, and the sheet then lets go of its Markdown tree, so that a
+// large package never holds every tree and page at once; the index, the
+// registers and the audit follow once every sheet is done.
+func (t *target) build(src string, opt Options) (res *Result, err error) {
 	if err := os.Mkdir(t.staging, 0o755); err != nil {
-		return fmt.Errorf("cannot stage the build beside %s (sheaf writes the package there first, so that folder must be writable): %w", t.given, err)
+		return nil, fmt.Errorf("cannot stage the build beside %s (sheaf writes the package there first, so that folder must be writable): %w", t.given, err)
 	}
 	defer func() {
 		if err != nil {
@@ -139,18 +147,117 @@ func (t *target) write(res *Result, jsonPath string) (err error) {
 			err = fmt.Errorf("%w; %s is left as it was", err, t.given)
 		}
 	}()
-	var pages []Page
+	sp := t.newSheetPages()
+	res, err = load(src, opt, sp.add)
+	sp.wait()
+	if err != nil {
+		return nil, err
+	}
+	for _, s := range res.Package.Sheets {
+		if s.ProseReleased() { // a single sheet's page is still to come
+			s.ReleaseFormulaText()
+		}
+	}
+	return res, t.write(res, sp, opt.JSON)
+}
+
+// putSheet renders one sheet's page and writes it into the staging
+// folder.
+func (t *target) putSheet(pkg *project.Package, s *project.Sheet, ropt render.Options) (Page, error) {
+	f, err := render.SheetFile(pkg, s, ropt)
+	if err != nil {
+		return Page{}, err
+	}
+	s.ReleaseProse()
+	return PageOf(f), t.put(f.Path, f.Data)
+}
+
+// sheetPages writes the sheet pages rendered while the package loads, on
+// goroutines of their own, so that waiting for the disk does not hold up
+// compiling; a few pages at most wait in memory to be written.
+type sheetPages struct {
+	t     *target
+	queue chan render.File
+	wg    sync.WaitGroup
+	mu    sync.Mutex
+	pages map[string]Page // by page path, once written
+	errs  map[string]error
+}
+
+func (t *target) newSheetPages() *sheetPages {
+	sp := &sheetPages{t: t, queue: make(chan render.File, 2*runtime.GOMAXPROCS(0)),
+		pages: map[string]Page{}, errs: map[string]error{}}
+	for w := 0; w < 2; w++ {
+		sp.wg.Add(1)
+		go func() {
+			defer sp.wg.Done()
+			for f := range sp.queue {
+				sp.record(f.Path, PageOf(f), t.put(f.Path, f.Data))
+			}
+		}()
+	}
+	return sp
+}
+
+// add renders the page of a sheet just evaluated, lets go of the sheet's
+// Markdown tree and queues the page to be written.
+func (sp *sheetPages) add(pkg *project.Package, s *project.Sheet, ropt render.Options) {
+	f, err := render.SheetFile(pkg, s, ropt)
+	if err != nil {
+		sp.record(s.Page, Page{}, err)
+		return
+	}
+	s.ReleaseProse()
+	sp.queue <- f
+}
+
+// wait waits for the queued pages to be written.
+func (sp *sheetPages) wait() {
+	close(sp.queue)
+	sp.wg.Wait()
+}
+
+func (sp *sheetPages) record(page string, p Page, err error) {
+	sp.mu.Lock()
+	defer sp.mu.Unlock()
+	if err != nil {
+		sp.errs[page] = err
+		return
+	}
+	sp.pages[page] = p
+}
+
+// write writes the package pages, the sheet pages not written yet, the
+// JSON and the manifest into the staging folder, and swaps it in. Pages
+// are listed in a fixed order: the package pages, then the sheets'.
+func (t *target) write(res *Result, sp *sheetPages, jsonPath string) error {
 	made := map[string]bool{ManifestName: true}
-	err = res.Pages(func(f render.File) error {
+	var pages []Page
+	for _, f := range render.PackageFiles(res.Package, res.Render) {
 		pages = append(pages, PageOf(f))
 		made[f.Path] = true
-		return t.put(f.Path, f.Data)
-	})
-	if err != nil {
-		return err
+		if err := t.put(f.Path, f.Data); err != nil {
+			return err
+		}
+	}
+	ropt := res.Render.ForPackage(res.Package)
+	for _, s := range res.Package.Sheets {
+		if err := sp.errs[s.Page]; err != nil {
+			return err
+		}
+		p, ok := sp.pages[s.Page]
+		if !ok { // a single sheet: its page waited for its templates
+			var err error
+			if p, err = t.putSheet(res.Package, s, ropt); err != nil {
+				return err
+			}
+		}
+		pages = append(pages, p)
+		made[p.Path] = true
 	}
 	m := NewManifest(res, pages)
 	if jsonPath != "" {
+		var err error
 		if m.JSON, err = t.writeJSON(res, jsonPath, made); err != nil {
 			return err
 		}

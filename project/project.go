@@ -34,6 +34,8 @@ type Package struct {
 	Templates []*sheets.Document
 	Files     []SourceFile // every source file with its hash, sorted by path
 	Diags     diag.List
+
+	latestDate string // the latest date in the pages' front matter
 }
 
 // Sheet pairs a parsed Markdown sheet with its compiled calculation.
@@ -47,6 +49,23 @@ type Sheet struct {
 
 // Path is the sheet's path inside the package, with forward slashes.
 func (s *Sheet) Path() string { return s.Doc.Path }
+
+// ReleaseProse lets go of the sheet's Markdown tree, which only its page
+// needs, once the page is rendered, so that a package of thousands of
+// sheets does not hold every tree until the end. The page cannot be
+// rendered again; everything else about the sheet stays.
+func (s *Sheet) ReleaseProse() { s.Doc.Doc = nil }
+
+// ReleaseFormulaText lets go of the text of the sheet's formula blocks,
+// assumptions and tables, which compiling read and which the compiled
+// statements hold on their own. Call it only once every sheet of the
+// package is compiled: a sheet may be another's template.
+func (s *Sheet) ReleaseFormulaText() {
+	s.Doc.Blocks, s.Doc.Assumptions, s.Doc.Tables = nil, nil, nil
+}
+
+// ProseReleased reports whether ReleaseProse let go of the tree.
+func (s *Sheet) ProseReleased() bool { return s.Doc.Doc == nil }
 
 // Title is the sheet's title, or its file name when it has none.
 func (s *Sheet) Title() string {
@@ -66,7 +85,22 @@ func (s *Sheet) Title() string {
 // outside it is an error. Load fails when the files cannot be read or
 // their names clash; problems inside the sheets are diagnostics of the
 // returned package.
-func Load(root string) (*Package, error) {
+func Load(root string) (*Package, error) { return LoadWith(root, LoadOptions{}) }
+
+// LoadOptions say what to do with each sheet while a package loads.
+type LoadOptions struct {
+	// Evaluated, when set, is called with each page as soon as it is
+	// evaluated, from the goroutine that evaluated it and in no set
+	// order, so that a build can render the page and let go of what
+	// only the page needs while the other sheets compile. When it is
+	// called, the package's Files, stamp and BuildDate are final; its
+	// Sheets are not, and it must not read them. It is not called for a
+	// single sheet, whose templates are read as they are used.
+	Evaluated func(pkg *Package, s *Sheet)
+}
+
+// LoadWith is Load with options.
+func LoadWith(root string, opt LoadOptions) (*Package, error) {
 	info, err := os.Stat(root)
 	if err != nil {
 		return nil, fmt.Errorf("cannot read %s: %w", root, err)
@@ -88,7 +122,7 @@ func Load(root string) (*Package, error) {
 	if err := distinctNames(mapKeys(files)); err != nil {
 		return nil, err
 	}
-	return FromFiles(root, files), nil
+	return build(root, files, nil, nil, opt.Evaluated), nil
 }
 
 // loadOne reads one sheet, and the templates it uses when it uses them.
@@ -103,7 +137,7 @@ func loadOne(file string) (*Package, error) {
 	if err != nil {
 		return nil, err
 	}
-	return build(dir, map[string][]byte{one: data}, func(p string) bool { return p == one }, f), nil
+	return build(dir, map[string][]byte{one: data}, func(p string) bool { return p == one }, f, nil), nil
 }
 
 func mapKeys(files map[string][]byte) []string {
@@ -131,13 +165,14 @@ func isTemplatePath(p string) bool {
 // the package. Files are parsed and sheets compiled in parallel; the result
 // does not depend on the order in which they finish.
 func FromFiles(root string, files map[string][]byte) *Package {
-	return build(root, files, nil, nil)
+	return build(root, files, nil, nil, nil)
 }
 
 // build builds a package whose pages are the sheets page accepts (all but
 // templates when page is nil); every file is available as a template, and
 // so is every sheet of more, when more is not nil, read when it is used.
-func build(root string, files map[string][]byte, page func(string) bool, more *folder) *Package {
+// Each page is handed to evaluated, when it is set, once it is evaluated.
+func build(root string, files map[string][]byte, page func(string) bool, more *folder, evaluated func(*Package, *Sheet)) *Package {
 	paths := mapKeys(files)
 	pkg := &Package{Root: root}
 
@@ -158,6 +193,13 @@ func build(root string, files map[string][]byte, page func(string) bool, more *f
 		}
 	}
 	pkg.Sheets = make([]*Sheet, len(pages))
+	pkg.latestDate = latestDate(pages)
+	if more == nil {
+		// Every file was read before compiling: the list is final now.
+		pkg.Files = sourceFiles(r.files)
+	} else {
+		evaluated = nil
+	}
 	t := newTakes(pages)
 	// Sheets taken from compile before the sheets that take from them:
 	// each wave compiles in parallel the sheets whose sources are done.
@@ -168,12 +210,18 @@ func build(root string, files map[string][]byte, page func(string) bool, more *f
 			calc := engine.CompileWith(sourceOf(doc), engine.Options{Resolve: r.resolve, Take: t.find})
 			calc.Evaluate()
 			calc.Release()
-			pkg.Sheets[i] = &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path)}
+			s := &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path)}
+			pkg.Sheets[i] = s
 			t.done(i, calc)
+			if evaluated != nil {
+				evaluated(pkg, s)
+			}
 		})
 	}
 
-	pkg.Files = sourceFiles(r.files)
+	if more != nil {
+		pkg.Files = sourceFiles(r.files) // with the templates read since
+	}
 	for _, d := range pkg.Templates {
 		pkg.Diags = append(pkg.Diags, d.Diags...)
 	}

@@ -10,6 +10,7 @@ import (
 	"time"
 
 	"github.com/sheaf-calc/sheaf/internal/version"
+	"github.com/sheaf-calc/sheaf/sheets"
 )
 
 // SourceFile is one file a package was built from.
@@ -60,10 +61,15 @@ func (p *Package) BuildDate(sourceDateEpoch string) string {
 			}
 		}
 	}
+	return p.latestDate
+}
+
+// latestDate is the latest date in the front matter of the pages.
+func latestDate(pages []*sheets.Document) string {
 	latest := ""
-	for _, s := range p.Sheets {
-		if d := s.Doc.Meta.Date; isISODate(d) && d > latest {
-			latest = d
+	for _, d := range pages {
+		if date := d.Meta.Date; isISODate(date) && date > latest {
+			latest = date
 		}
 	}
 	return latest

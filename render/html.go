@@ -11,6 +11,7 @@ import (
 	"path"
 	"runtime"
 	"strings"
+	"sync"
 
 	"github.com/sheaf-calc/sheaf/audit"
 	"github.com/sheaf-calc/sheaf/diag"
@@ -59,12 +60,46 @@ func HTML(pkg *project.Package, opt Options) ([]File, error) {
 	return files, err
 }
 
+// ForPackage is opt with what every page of pkg shares worked out once,
+// for callers that render pages one at a time (SheetFile). pkg.Files must
+// be final.
+func (opt Options) ForPackage(pkg *project.Package) Options {
+	opt.stamp = project.StampOf(pkg.Files, opt.Version)
+	return opt
+}
+
+// PackageFiles renders the index, the registers and the audit page, in a
+// fixed order.
+func PackageFiles(pkg *project.Package, opt Options) []File {
+	if opt.stamp == "" {
+		opt = opt.ForPackage(pkg)
+	}
+	return packagePages(pkg, opt)
+}
+
+// proses keeps the prose renderers of SheetFile, which cost more to make
+// than a page does to render.
+var proses = sync.Pool{New: func() any { return newProse() }}
+
+// SheetFile renders the page of one sheet. Many goroutines may call it at
+// once; opt should come from ForPackage, or each page works out the
+// package stamp again.
+func SheetFile(pkg *project.Package, s *project.Sheet, opt Options) (File, error) {
+	pr := proses.Get().(*prose)
+	defer proses.Put(pr)
+	data, err := sheetPage(pkg, s, opt, pr)
+	if err != nil {
+		return File{}, fmt.Errorf("%s: %w", s.Path(), err)
+	}
+	return File{Path: s.Page, Data: data}, nil
+}
+
 // WriteHTML renders the index and then each sheet's page, handing every
 // page to emit as soon as it and all pages before it are ready. Pages are
 // rendered in parallel but emitted in a fixed order, and only a few are
 // held in memory at once.
 func WriteHTML(pkg *project.Package, opt Options, emit func(File) error) error {
-	opt.stamp = project.StampOf(pkg.Files, opt.Version)
+	opt = opt.ForPackage(pkg)
 	for _, f := range packagePages(pkg, opt) {
 		if err := emit(f); err != nil {
 			return err
