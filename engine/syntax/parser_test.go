@@ -27,6 +27,20 @@ func sexp(n Node) string {
 			args = append(args, sexp(a))
 		}
 		return n.Name + "(" + strings.Join(args, ", ") + ")"
+	case *List:
+		var elems []string
+		for _, e := range n.Elems {
+			elems = append(elems, sexp(e))
+		}
+		return "{" + strings.Join(elems, " ") + "}"
+	case *Range:
+		s := "(.. " + sexp(n.From) + " " + sexp(n.To)
+		if n.Step != nil {
+			s += " by " + sexp(n.Step)
+		}
+		return s + ")"
+	case *Index:
+		return "(@ " + sexp(n.X) + " " + sexp(n.I) + ")"
 	}
 	return "?"
 }
@@ -61,6 +75,21 @@ func TestParseShapes(t *testing.T) {
 		{"3_000 rpm", "[3_000 rpm]"},
 		{"60 cm^2", "[60 cm^2]"},
 		{"-25 degC + 10 K", "(+ (- [25 degC]) [10 K])"},
+		// Lists, ranges and indexes.
+		{"[1.2 mWb, 1.5 mWb, 1.9 mWb]", "{[1.2 mWb] [1.5 mWb] [1.9 mWb]}"},
+		{"[1, 2] * 1 mWb", "(* {1 2} [1 mWb])"},
+		{"[a + b, -c]", "{(+ a b) (- c)}"},
+		{"sum([a, b])", "sum({a b})"},
+		{"phi[3]", "(@ phi 3)"},
+		{"phi[k + 1]^2", "(^ (@ phi (+ k 1)) 2)"},
+		{"BH.B[1]", "(@ BH.B 1)"},
+		{"(a * b)[2]", "(@ (* a b) 2)"},
+		{"1..12", "(.. 1 12)"},
+		{"1 .. N + 1", "(.. 1 (+ N 1))"},
+		{"0 deg .. 90 deg by 15 deg", "(.. [0 deg] [90 deg] by [15 deg])"},
+		{"0 .. 10 by 2", "(.. 0 10 by 2)"},
+		{"[1 .. 3]", "{(.. 1 3)}"},
+		{"2 * (1 .. 3)", "(* 2 (.. 1 3))"},
 	} {
 		n, err := parse(c.in)
 		if c.want == "?" {
@@ -120,8 +149,16 @@ func TestParseErrors(t *testing.T) {
 		{"a < b < c", "chains two", "its own check", 6, 7},
 		{"a < b and b < c", "'and' is not supported", "its own check", 6, 9},
 		{"a = b", "unexpected =", "", 2, 3},
-		{"[1, 2]", "reserved for lists", "( )", 0, 1},
-		{"1..3", "reserved for ranges", "", 1, 3},
+		{"[1, 2", "this [ is never closed", "add the missing ]", 0, 1},
+		{"1, 2]", "this ] has no matching [", "", 4, 5},
+		{"[1, 2)", "this ) closes a [", "close the [ opened at column 1 with ] first", 5, 6},
+		{"[]", "a list needs at least one element", "", 1, 2},
+		{"phi[]", "an index is missing", "phi[1]", 4, 5},
+		{"phi[1, 2]", "an index holds one number", "phi[2]", 5, 6},
+		{"phi [2]", "a [ follows phi after a space", "phi[...]", 4, 5},
+		{"1 .. 2 .. 3", "a range has one ..", "", 7, 9},
+		{"a by 2", "by gives the step of a range", "from .. to by step", 2, 4},
+		{"1 .. ", "formula ends too early", "", 2, 4},
 		{"5 V ± 1 V", "reserved for tolerances", "", 4, 5},
 		{"10 V ∠ 30 deg", "reserved for phasors", "", 5, 6},
 		{"1.2.3", `malformed number "1.2.3"`, "", 0, 5},
@@ -170,7 +207,8 @@ func TestFlatSumIsNotNesting(t *testing.T) {
 // inside the formula, without panicking, and that a tree's spans nest.
 func FuzzParse(f *testing.F) {
 	for _, s := range []string{"1 + 2*3", "-x^2", "sqrt(a, b)", "2π*n", "60 cm^2", "a < b < c", "(", ")", "1,5 V",
-		"3 m s", "f(", "interp(T.y, T.x, 3 A, extrapolate)", "1..2", "±", "∠", "[", "\xff", "2(a)", "x ** -2"} {
+		"3 m s", "f(", "interp(T.y, T.x, 3 A, extrapolate)", "1..2", "±", "∠", "[", "\xff", "2(a)", "x ** -2",
+		"[1.2 mWb, 1.5 mWb]", "phi[2]", "0 deg .. 90 deg by 15 deg", "[1, 2)", "a [1]", "sum(T.x[1 .. 3])", "[[1]][1][1]"} {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
@@ -204,5 +242,18 @@ func checkSpans(t *testing.T, s string, n Node, outer Span) {
 		for _, a := range n.Args {
 			checkSpans(t, s, a, sp)
 		}
+	case *List:
+		for _, e := range n.Elems {
+			checkSpans(t, s, e, sp)
+		}
+	case *Range:
+		checkSpans(t, s, n.From, sp)
+		checkSpans(t, s, n.To, sp)
+		if n.Step != nil {
+			checkSpans(t, s, n.Step, sp)
+		}
+	case *Index:
+		checkSpans(t, s, n.X, sp)
+		checkSpans(t, s, n.I, sp)
 	}
 }
