@@ -23,13 +23,14 @@ type Expr interface {
 	base() *node
 }
 
-// Shape says how many values a node holds: one (a scalar) today; lists and
-// sampled series are the shapes to come.
+// Shape says how many values a node holds: one (a scalar), or a list of
+// values of one dimension; sampled series are the shape to come.
 type Shape uint8
 
 // The shapes.
 const (
 	Scalar Shape = iota
+	List
 )
 
 // Domain says what numbers a node holds: real today; complex phasors are
@@ -46,8 +47,10 @@ const (
 type Type struct {
 	Shape  Shape
 	Domain Domain
-	Dim    units.Dim
-	Kind   units.Kind
+	// Len is the number of elements of a list, fixed when it is checked.
+	Len  int
+	Dim  units.Dim
+	Kind units.Kind
 	// Const is set when the node's value is fixed at compile time (literals,
 	// built-in constants and arithmetic over them); Val holds it in SI.
 	Const bool
@@ -64,6 +67,8 @@ type node struct {
 	file      *string
 	line, col int32
 	T         Type
+	// at is where a list node's elements lie in a frame's values.
+	at int32
 	// fn evaluates the node over the sheet's slot values; set by compile.
 	fn evalFn
 }

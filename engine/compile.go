@@ -44,6 +44,9 @@ func constant(c float64) evalFn { return func([]float64) float64 { return c } }
 
 func compileNode(e Expr) evalFn {
 	t := e.Type()
+	if t.IsList() {
+		return compileList(e)
+	}
 	if t.Const && !math.IsNaN(t.Val) && !math.IsInf(t.Val, 0) {
 		return constant(t.Val)
 	}
@@ -68,6 +71,8 @@ func compileNode(e Expr) evalFn {
 		return compileBinary(n)
 	case *Call:
 		return compileCall(n)
+	case *Index:
+		return compileIndex(n)
 	}
 	return constant(math.NaN())
 }
@@ -232,7 +237,7 @@ func compilePow(x evalFn, exp Expr) evalFn {
 }
 
 func slotOf(e Expr) (int, bool) {
-	if r, ok := e.(*Ref); ok && r.Target != nil && !r.T.Const {
+	if r, ok := e.(*Ref); ok && r.Target != nil && !r.T.Const && !r.T.IsList() {
 		return r.Target.slot, true
 	}
 	return 0, false
@@ -262,6 +267,9 @@ func compileCall(n *Call) evalFn {
 		}
 	}
 	f := n.Func
+	if f.reduce != nil && n.Args[0].Type().IsList() {
+		return compileReduce(n)
+	}
 	args := make([]evalFn, len(n.Args))
 	for i, a := range n.Args {
 		args[i] = fnOf(a)

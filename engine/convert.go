@@ -78,6 +78,24 @@ func (c *converter) convert(n syntax.Node) Expr {
 		return e
 	case *syntax.Call:
 		return c.call(n, pos)
+	case *syntax.List:
+		e := &ListLit{}
+		e.setPos(pos)
+		for _, x := range n.Elems {
+			e.Elems = append(e.Elems, c.convert(x))
+		}
+		return e
+	case *syntax.Range:
+		e := &Range{From: c.convert(n.From), To: c.convert(n.To)}
+		if n.Step != nil {
+			e.Step = c.convert(n.Step)
+		}
+		e.setPos(pos)
+		return e
+	case *syntax.Index:
+		e := &Index{X: c.convert(n.X), I: c.convert(n.I)}
+		e.setPos(c.t.pos(n.Span().Start))
+		return e
 	}
 	return c.fail(n, "formulas use names, numbers with units, + - * / ^ ( ) and functions", "this is not a formula sheaf understands")
 }

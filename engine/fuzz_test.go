@@ -34,6 +34,9 @@ func FuzzStatement(f *testing.F) {
 		"θ = 30 °\nk = sin(θ) * 2 µm",
 		"y [nm] = 1e306 m\ncheck 1e306 m <= 1 nm\nz = y",
 		"x = 1 m^99\ny = x*x\nw = 5 V * _q0",
+		"phi = [2.41 mWb, 2.38 mWb, 2.30 mWb]\nlambda = sum(phi)\nPhi_e = lambda / count(phi)\nb = phi[2] + phi[4]",
+		"k = 1 .. 12\nth = 0 deg .. 90 deg by 15 deg\ny = sin(th) * k[1 .. 7]\nc = [1 m, 2 s] + (1 .. 3)",
+		"a = [1, 2] + [1, 2, 3]\nm = max(a)\nr = rms(1 / (k - 3))\nk = 1 .. 5\ncheck a <= 3",
 	} {
 		f.Add(seed)
 	}

@@ -29,6 +29,7 @@ type Calc struct {
 	Tables []*LookupTable
 
 	byName  map[string]*Statement
+	lists   arena // the places of the sheet's lists in a frame
 	prog    *Program
 	results []Result // by slot, from Evaluate
 	// names are the sheet's names and the constants, sorted, once an
@@ -107,6 +108,7 @@ func CompileWith(src SheetSource, opt Options) *Calc {
 			}
 		}
 	}
+	s.lists.base = len(s.Statements)
 	s.define()
 	s.resolveTakes(opt.Take)
 	s.resolve()
@@ -393,11 +395,19 @@ func (s *Calc) check(st *Statement) {
 		}
 		st.Type.Kind = shownKind(st.Type.Kind, st.Display.Kind)
 	}
+	if err := s.lists.layout(st.Expr); err != nil {
+		s.fail(st, err)
+		return
+	}
 	if st.Kind == Check {
 		cmp := st.Compare()
 		st.fn, st.right = compile(cmp.X), compile(cmp.Y)
 	} else {
 		st.fn = compile(st.Expr)
+		if st.Type.IsList() {
+			at, n := listAt(st.Expr)
+			st.fn = listStep(st.fn, at, n)
+		}
 	}
 	st.compiled = true
 }
@@ -405,6 +415,11 @@ func (s *Calc) check(st *Statement) {
 // checkTake readies a result taken from another sheet: its value is that
 // sheet's, fixed for this sheet's runs.
 func (s *Calc) checkTake(st *Statement) {
+	if st.Type.IsList() {
+		s.fail(st, errAt(st.Pos, "take a single value, such as sum(...) or max(...) of the list, named in the other sheet",
+			"%s in %s is a list; take reads single values", st.Remote, st.TakenPath))
+		return
+	}
 	if st.taken.Status != OK {
 		st.Verdict = Blocked
 		st.Problem = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: %s in %s has no value", st.Remote, st.TakenPath)}
@@ -489,6 +504,10 @@ func (p *Program) Results(f *Frame) []Result {
 		switch r.Status {
 		case OK:
 			r.Value = f.Values[slot]
+			if st.Type.IsList() {
+				r.List = slices.Clone(st.listIn(f.Values))
+				r.Value = largest(r.List)
+			}
 			r.Shown = shownUnit(st, r.Value, out)
 			if sv := st.solve; sv != nil {
 				r.Shown = solveUnit(st, fnOf(sv.lo)(f.Values), fnOf(sv.hi)(f.Values))
@@ -596,6 +615,10 @@ func shownUnit(st *Statement, v float64, res []Result) units.Unit {
 	switch q := e.(type) {
 	case *Quantity:
 		return q.Unit
+	case *ListLit:
+		if u, ok := commonUnit(q); ok {
+			return u
+		}
 	case *Number:
 		return units.One
 	case *Ref:
@@ -638,9 +661,15 @@ func diagnose(e Expr, v []float64) *diag.Diagnostic {
 		children = c.Args[2:3] // the columns are data
 	}
 	for _, c := range children {
-		if !finite(fnOf(c)(v)) {
+		if !valueOK(c, v) {
 			return diagnose(c, v)
 		}
+	}
+	if e.Type().IsList() {
+		return diagnoseList(e, v)
+	}
+	if x, ok := e.(*Index); ok {
+		return indexProblem(x, v)
 	}
 	result := fnOf(e)(v)
 	if c, ok := e.(*Call); ok && c.Func.table != "" && math.IsNaN(result) {

@@ -218,6 +218,10 @@ type Result struct {
 	// Err is the statement's own error, or for a blocked statement the
 	// reason it was not evaluated.
 	Err *diag.Diagnostic
+	// List holds the SI values of a list's elements, nil for a single
+	// value; Value is then the element of largest magnitude, which picks
+	// the unit they are shown in.
+	List []float64
 
 	count bool // a definition whose value is a whole-number count
 }

@@ -1,0 +1,123 @@
+package engine_test
+
+import (
+	"math"
+	"testing"
+
+	"github.com/sheaf-calc/sheaf/engine"
+)
+
+// Lists, statement by statement, in the style of TestChecker: each case
+// is a sheet's lines and the outcome of the statements named, worked by
+// hand beside it. The flux values are invented for the tests.
+func TestLists(t *testing.T) {
+	for _, c := range []checkerCase{
+		{"flux linkage of turns that link different flux, and the effective flux",
+			// λ = Σ φ_k (the definition of flux linkage for turns that link
+			// different flux; common practice). By hand: 2.41 + 2.38 + 2.30 +
+			// 2.17 = 9.26 mWb over N = 4 turns; λ/N = 2.315 mWb.
+			[]string{"phi_k = [2.41 mWb, 2.38 mWb, 2.30 mWb, 2.17 mWb]", "N = count(phi_k)", "lambda = sum(phi_k)", "Phi_eff = lambda / N",
+				"phi_u [µWb] = phi_k"},
+			map[string]string{"phi_k": "ok [2.410, 2.380, 2.300, 2.170] mWb", "N": "ok 4 1", "lambda": "ok 9.260 mWb",
+				"Phi_eff": "ok 2.315 mWb", "phi_u": "ok [2410, 2380, 2300, 2170] µWb"}},
+		{"element-wise arithmetic with a list and a single value on either side, and two lists",
+			[]string{"a = [1 m, 2 m, 4 m]", "b = [3 m, 2 m, 1 m]", "s = a + b", "d = a - 1 m", "e = 8 m - a", "p = a * b", "q = a / b",
+				"r = 2 * a", "n = -a", "w = a^2", "h = sqrt(a * b)", "k = 12 m^2 / a", "u = +a"},
+			// [4, 4, 5] m; [0, 1, 3] m; [7, 6, 4] m; [3, 4, 4] m²; [0.3333, 1, 4]; [2, 4, 8] m;
+			// [-1, -2, -4] m; [1, 4, 16] m²; [√3, 2, 2] m; [12, 6, 3] m.
+			map[string]string{"s": "ok [4.000, 4.000, 5.000] m", "d": "ok [0, 1.000, 3.000] m", "e": "ok [7.000, 6.000, 4.000] m",
+				"p": "ok [3.000, 4.000, 4.000] m²", "q": "ok [0.3333, 1.000, 4.000] 1", "r": "ok [2.000, 4.000, 8.000] m",
+				"n": "ok [-1.000, -2.000, -4.000] m", "w": "ok [1.000, 4.000, 16.00] m²", "h": "ok [1.732, 2.000, 2.000] m",
+				"k": "ok [12.00, 6.000, 3.000] m", "u": "ok [1.000, 2.000, 4.000] m"}},
+		{"reductions",
+			[]string{"x = [3 V, -4 V, 12 V]", "s = sum(x)", "p = product([2, 3, 4])", "m = mean(x)", "lo = min(x)", "hi = max(x)",
+				"r = rms([3 V, 4 V])", "c = count(x)", "a = product([2 m, 3 m])", "z = min(x[1], x[2])"},
+			// 11 V; 24; 11/3 = 3.667 V; -4 V; 12 V; √((9 + 16)/2) = 3.536 V; 3; 6 m²; -4 V.
+			map[string]string{"s": "ok 11.00 V", "p": "ok 24 1", "m": "ok 3.667 V", "lo": "ok -4.000 V", "hi": "ok 12.00 V",
+				"r": "ok 3.536 V", "c": "ok 3 1", "a": "ok 6.000 m²", "z": "ok -4.000 V"}},
+		{"ranges: whole numbers, quantities with a step, downwards, and a step that does not divide exactly",
+			[]string{"k = 1 .. 5", "th [deg] = 0 deg .. 90 deg by 30 deg", "d = 10 .. 0 by -2.5", "f = 0 .. 1 by 0.25", "g = 0 .. 1 by 0.3",
+				"y = sin(th)", "t = sum(0 .. 1 by 0.1)"},
+			// sin 0°, 30°, 60°, 90° = 0, 0.5, 0.8660, 1; 0 + 0.1 + ... + 1.0 = 5.5.
+			map[string]string{"k": "ok [1.000, 2.000, 3.000, 4.000, 5.000] 1", "th": "ok [0, 30.00, 60.00, 90.00] °", "d": "ok [10.00, 7.500, 5.000, 2.500, 0] 1",
+				"f": "ok [0, 0.2500, 0.5000, 0.7500, 1.000] 1", "g": "ok [0, 0.3000, 0.6000, 0.9000] 1",
+				"y": "ok [0, 0.5000, 0.8660, 1.000] 1", "t": "ok 5.500 1"}},
+		{"indexing counts from 1, with a fixed or a computed index",
+			[]string{"phi = [2.41 mWb, 2.38 mWb, 2.30 mWb]", "a = phi[1]", "b = phi[3]", "k = 2", "c = phi[k]", "d = (phi * 2)[k + 1]",
+				"j = 4", "e = phi[j]", "f = phi[k / 4]"},
+			map[string]string{"a": "ok 2.410 mWb", "b": "ok 2.300 mWb", "c": "ok 2.380 mWb", "d": "ok 4.600 mWb",
+				"e": "error 9:9 index 4 is out of range: the list has 3 elements", "f": "error 10:11 index 0.5 is out of range: the list has 3 elements"}},
+		{"bad lists are located errors, and leave the rest",
+			[]string{"a = [1 m, 2 m, 3 m]", "b = [1 m, 2 m]", "c = a + b", "v = [1 V, 2 V, 3 V]", "d = a + v", "e = [1 m, 2 s]",
+				"f = a[4]", "g = a[0]", "h = sum(2 m)", "i = max(2 m)", "check a <= 3 m", "n = 3", "j = 1 .. n", "l = 0 m .. 1 m",
+				"m = 0 .. 1 by 0", "o = [a, 1 m]", "p = hypot(a, a)", "q = 2 ^ (a / 1 m)", "r = 1 m / (a - 2 m)", "s = n[1]", "u = 5 .. 1",
+				"w = 0 .. 1 by 1e-6", "x = sum(a) + 1 m"},
+			map[string]string{
+				"c":              "error 4:7 cannot add lists of different lengths: 3 and 2 elements",
+				"d":              "error 6:7 cannot add length (m) and voltage (V)",
+				"e":              "error 7:11 element 2 is time (s), but the list's first element is length (m)",
+				"f":              "error 8:7 index 4 is out of range: the list has 3 elements",
+				"g":              "error 9:7 index 0 is out of range: the list has 3 elements",
+				"h":              "error 10:9 sum works on the elements of a list, but this is a single value",
+				"i":              "error 11:9 max of one single value is that value",
+				"check a <= 3 m": "error 12:7 a check compares single values; its left side is a list of 3",
+				"j":              "error 14:10 the ends and the step of a range must be fixed values, not results",
+				"l":              "error 15:9 a range of quantities needs its step",
+				"m":              "error 16:15 the step of the range is zero, or leads away from its second end",
+				"o":              "error 17:6 element 1 is a list; a list's elements are single values",
+				"p":              "error 18:11 hypot takes one real value for each argument; this is a list",
+				"q":              "error 19:12 the exponent is a list; an exponent is one number",
+				"r":              "error 20:9 division by zero in element 2",
+				"s":              "error 21:5 only a list has elements; this is a single value",
+				"u":              "error 22:7 the step of the range is zero, or leads away from its second end",
+				"w":              "error 23:7 the range has 1000001 elements; the limit is 100000",
+				"x":              "ok 7.000 m"}},
+	} {
+		c.run(t, engine.Options{})
+	}
+}
+
+// A table's columns are lists of its rows, in the column's unit.
+func TestTableColumnsAreLists(t *testing.T) {
+	src := sheetOf("s.md", "l = sum(T.phi)", "N = count(T.k)", "e = T.phi / T.k", "m = interp(T.phi, T.k, T.k)")
+	src.Tables = append(src.Tables, fuzzTable("k [1]|phi [mWb]\n1|2.0\n2|4.5\n4|9.0"))
+	calc := engine.Compile(src)
+	calc.Evaluate()
+	// 2.0 + 4.5 + 9.0 = 15.5 mWb; 3 rows; [2, 2.25, 2.25] mWb.
+	for name, want := range map[string]string{"l": "ok 15.50 mWb", "N": "ok 3 1", "e": "ok [2.000, 2.250, 2.250] mWb",
+		"m": "error 5:24 interp reads the table at one value; this is a list"} {
+		if got := outcome(calc, calc.Lookup(name)); got != want {
+			t.Errorf("%s is %q, want %q", name, got, want)
+		}
+	}
+}
+
+// A sum over equal flux in every turn is N·Φ, the flux linkage of a coil
+// whose turns all link one flux; the scalar formula checks the list.
+func TestListSumMatchesScalarFluxLinkage(t *testing.T) {
+	calc := engine.Compile(sheetOf("s.md", "Phi = 3.7 mWb", "N = 12", "lam_1 = N * Phi", "phi_k = Phi + 0 mWb * (1 .. 12)", "lam_2 = sum(phi_k)"))
+	calc.Evaluate()
+	l1, l2 := calc.Result(calc.Lookup("lam_1")).Value, calc.Result(calc.Lookup("lam_2")).Value
+	if l1 == 0 || math.Abs(l2-l1) > 1e-12*l1 {
+		t.Errorf("sum over 12 equal turns is %g Wb, N·Φ is %g Wb", l2, l1)
+	}
+}
+
+// Frames of one program hold their lists apart, and a run writes them in
+// place: running a frame again allocates nothing.
+func TestListFramesAreSeparate(t *testing.T) {
+	calc := engine.Compile(sheetOf("s.md", "a = 2", "x = a * (1 .. 1000)", "s = sum(x)"))
+	p := calc.Program()
+	f1, f2 := p.NewFrame(), p.NewFrame()
+	slot, _ := p.Input("a")
+	p.Run(f1, nil)
+	p.Run(f2, []engine.Set{{Slot: slot, SI: 3}})
+	sum := func(f *engine.Frame) float64 { return p.Results(f)[calc.Lookup("s").Index].Value }
+	// 2 × 500500 and 3 × 500500.
+	if sum(f1) != 1001000 || sum(f2) != 1501500 {
+		t.Errorf("sums %g and %g, want 1001000 and 1501500", sum(f1), sum(f2))
+	}
+	if n := testing.AllocsPerRun(20, func() { p.Run(f1, []engine.Set{{Slot: slot, SI: 4}}) }); n != 0 {
+		t.Errorf("a run of a list sheet allocates %v times", n)
+	}
+}
