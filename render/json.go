@@ -142,6 +142,7 @@ type JSONStatement struct {
 	QuantityKind string     `json:"quantity_kind,omitempty"`
 	SI           *JSONValue `json:"si,omitempty"`
 	Display      *JSONValue `json:"display,omitempty"`
+	List         *JSONList  `json:"list,omitempty"`
 	Check        *JSONCheck `json:"check,omitempty"`
 	Description  string     `json:"description,omitempty"`
 	Source       string     `json:"source,omitempty"`
@@ -166,6 +167,15 @@ type JSONStatement struct {
 type JSONTrace struct {
 	Inputs      []string `json:"inputs"`
 	Assumptions []string `json:"assumptions"`
+}
+
+// JSONList is a list's elements, in coherent SI and as the page shows
+// them, all in one unit each.
+type JSONList struct {
+	Length  int       `json:"length"`
+	SI      []float64 `json:"si"`
+	Display []float64 `json:"display"`
+	Text    []string  `json:"text"`
 }
 
 // JSONValue is a number in a unit.
@@ -443,6 +453,9 @@ func jsonStatement(calc *engine.Calc, st *engine.Statement, digits int) JSONStat
 		j.SI = &JSONValue{Value: res.Value, Unit: st.Type.Dim.SIUnits()}
 		shown := res.Shown.FromSI(res.Value)
 		j.Display = &JSONValue{Value: shown, Unit: res.Shown.Symbol, Text: units.FormatNumber(shown, res.Digits(digits))}
+		if res.List != nil {
+			j.List = jsonList(res, digits)
+		}
 	case engine.Pass, engine.Fail:
 		l, r := res.Shown.FromSI(res.Left), res.Shown.FromSI(res.Right)
 		c := &JSONCheck{
@@ -457,4 +470,14 @@ func jsonStatement(calc *engine.Calc, st *engine.Statement, digits int) JSONStat
 		j.Check = c
 	}
 	return j
+}
+
+// jsonList writes a list's elements in SI and in the unit they are shown in.
+func jsonList(res engine.Result, digits int) *JSONList {
+	l := &JSONList{Length: len(res.List), SI: res.List, Display: make([]float64, len(res.List)), Text: make([]string, len(res.List))}
+	for i, x := range res.List {
+		l.Display[i] = res.Shown.FromSI(x)
+		l.Text[i] = units.FormatNumber(l.Display[i], elementDigits(res, x, digits))
+	}
+	return l
 }

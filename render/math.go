@@ -121,8 +121,7 @@ func (w *mathWriter) expr(e engine.Expr, _ int) {
 			v, u := InputText(n.Target)
 			w.b.WriteString(numberMathML(v) + unitMathML(u))
 		case w.mode == substituted && n.Target != nil:
-			res := w.calc.Result(n.Target)
-			w.b.WriteString(valueMathML(res.Value, res.Shown, res.Digits(w.digits)))
+			w.b.WriteString(resultMathML(w.calc.Result(n.Target), w.digits))
 		default:
 			w.b.WriteString(symbolMathML(n.Name))
 		}
@@ -139,6 +138,8 @@ func (w *mathWriter) expr(e engine.Expr, _ int) {
 		w.binary(n)
 	case *engine.Call:
 		w.call(n)
+	default:
+		w.list(e)
 	}
 }
 

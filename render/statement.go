@@ -53,10 +53,11 @@ func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int)
 		// A name that only repeats an input already shows its value.
 		if r, ok := st.Expr.(*engine.Ref); !ok || r.Target == nil || !r.Target.IsInput() {
 			w.WriteString("<mo>=</mo>")
-			w.WriteString(valueMathML(res.Value, res.Shown, res.Digits(digits)))
+			w.WriteString(resultMathML(res, digits))
 		}
 	}
 	w.WriteString("</mrow></math></div>\n")
+	writeListTable(w, st, res, digits)
 	writeNote(w, calc, st)
 	w.WriteString("</div>\n")
 }

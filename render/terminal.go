@@ -96,7 +96,7 @@ func TerminalLine(st *engine.Statement, r engine.Result, digits int) string {
 			}
 			return fmt.Sprintf("%s = %s%s", SymbolText(st.Name), v, u)
 		}
-		return fmt.Sprintf("%s = %s", SymbolText(st.Name), ValueText(r.Value, r.Shown, r.Digits(digits)))
+		return fmt.Sprintf("%s = %s", SymbolText(st.Name), resultText(r, digits))
 	case engine.Pass, engine.Fail:
 		cmp := st.Compare()
 		verdict := "PASS"

@@ -1,0 +1,41 @@
+package render
+
+import (
+	"strings"
+	"testing"
+)
+
+// A short list shows inline with its unit; a long one by its ends inline
+// and in full in a table below, ten values a row; formulas show list
+// literals, ranges and indexes as written. Values invented.
+func TestListsShowInlineOrAsATable(t *testing.T) {
+	sheet := "# Turns\n\n```sheaf\n" +
+		"phi_k = [2.41 mWb, 2.38 mWb, 2.30 mWb] ; flux linked by each turn group\n" +
+		"lambda = sum(phi_k) ; flux linkage\n" +
+		"theta [deg] = 0 deg .. 360 deg by 15 deg ; rotor positions\n" +
+		"p_2 = phi_k[2]\n" +
+		"k = 1 .. 500\n```\n"
+	_, pages := build(t, map[string]string{"turns.md": sheet})
+	page := pages["sheets/turns.html"]
+	for _, want := range []string{
+		// φ_k = [2.41 mWb, ...] = [2.410, 2.380, 2.300] mWb
+		`<mo fence="true">[</mo><mn>2.410</mn><mo>,</mo><mn>2.380</mn><mo>,</mo><mn>2.300</mn><mo fence="true">]</mo><mspace width="0.2em"></mspace><mtext>mWb</mtext>`,
+		// λ = sum(φ_k) = sum([2.410, 2.380, 2.300] mWb) = 7.090 mWb
+		"<mn>7.090</mn>",
+		// 0° … 360° by 15°: 25 values, shown by their ends and in a table.
+		`<mtext>by</mtext>`, `<mo>…</mo><mo>,</mo><mn>360.0</mn>`, "(25 values)",
+		`<table class="list-values"><caption>θ in °</caption>`,
+		"<tr><th>21</th><td>300.0</td><td>315.0</td><td>330.0</td><td>345.0</td><td>360.0</td></tr>",
+		// An index as written.
+		`<mo fence="true">[</mo><mn>2</mn><mo fence="true">]</mo>`,
+		// 500 values: rows 1 to 100 and 401 to 500, with those between counted.
+		"<tr><th>91</th>", "300 values not shown", "<tr><th>401</th><td>401</td>", "<td>500</td></tr>",
+	} {
+		if !strings.Contains(page, want) {
+			t.Errorf("sheet page lacks %q", want)
+		}
+	}
+	if strings.Contains(page, "<tr><th>101</th>") || strings.Contains(page, "<tr><th>391</th>") {
+		t.Error("the table shows rows it should leave out")
+	}
+}
