@@ -3,6 +3,7 @@ package engine
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"github.com/sheaf-calc/sheaf/diag"
 	"github.com/sheaf-calc/sheaf/units"
@@ -312,4 +313,21 @@ func indexProblem(x *Index, v []float64) *diag.Diagnostic {
 	n := x.X.Type().Len
 	return errAt(x.I.Pos(), fmt.Sprintf("elements are numbered from 1 to %d", n),
 		"index %g is out of range: the list has %d elements", k, n)
+}
+
+// listLiteralText writes a list of literals in one unit as its numbers
+// and the unit: the value of an input that is a list.
+func listLiteralText(l *ListLit) (value, unit string, ok bool) {
+	nums := make([]string, len(l.Elems))
+	for i, e := range l.Elems {
+		if _, nested := e.(*ListLit); nested {
+			return "", "", false
+		}
+		v, u, isLit := LiteralText(e)
+		if !isLit || i > 0 && u != unit {
+			return "", "", false
+		}
+		nums[i], unit = v, u
+	}
+	return "[" + strings.Join(nums, ", ") + "]", unit, true
 }

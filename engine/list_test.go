@@ -121,3 +121,59 @@ func TestListFramesAreSeparate(t *testing.T) {
 		t.Errorf("a run of a list sheet allocates %v times", n)
 	}
 }
+
+// A list of literals in one unit is an input, written as its author wrote
+// it, so that the inputs register and the audit ask for its source; a
+// run cannot set it, since its length is fixed.
+func TestListOfLiteralsIsAnInput(t *testing.T) {
+	calc := engine.Compile(sheetOf("s.md", "phi_k = [2.41 mWb, 2.38 mWb, -2.30 mWb]", "l = [1 mm, 2 m]", "m = [1 mm, 2 mm * 2]", "s = sum(phi_k)"))
+	calc.Evaluate()
+	if v, ok := engine.LiteralString(calc.Lookup("phi_k").Expr); !ok || v != "[2.41, 2.38, -2.30] mWb" || !calc.Lookup("phi_k").IsInput() {
+		t.Errorf("phi_k reads %q (%v) and is an input: %v", v, ok, calc.Lookup("phi_k").IsInput())
+	}
+	for _, name := range []string{"l", "m"} {
+		if calc.Lookup(name).IsInput() {
+			t.Errorf("%s is an input; its elements are not literals in one unit", name)
+		}
+	}
+	if _, ok := calc.Program().Input("phi_k"); ok {
+		t.Error("a run could set the list phi_k as one value")
+	}
+}
+
+// The rms and the mean of a sine sampled evenly over one period, against
+// the closed forms (peak/√2 and 0: for N ≥ 3 even samples over a period,
+// the mean of sin² is exactly 1/2 and the mean of sin is 0), and a list
+// in a template's input and in a solve's relation.
+func TestListsAgainstClosedFormsAndInReuse(t *testing.T) {
+	calc := engine.Compile(sheetOf("s.md", "theta = 0 deg .. 345 deg by 15 deg", "U = 325 V", "u = U * sin(theta)",
+		"U_rms = rms(u)", "U_av = mean(u)", "k = 1 .. 4", "x = solve(sum(k * x) == 20 A, 0 A, 10 A)"))
+	calc.Evaluate()
+	val := func(n string) float64 { return calc.Result(calc.Lookup(n)).Value }
+	if got, want := val("U_rms"), 325/math.Sqrt2; math.Abs(got-want) > 1e-12*want {
+		t.Errorf("rms of 24 samples of 325 V·sin is %.15g V, want 325/√2 = %.15g V", got, want)
+	}
+	if got := val("U_av"); math.Abs(got) > 1e-12 {
+		t.Errorf("mean over one period is %g V, want 0", got)
+	}
+	// Σ k·x = 10·x = 20 A, so x = 2 A.
+	if got := val("x"); math.Abs(got-2) > 1e-9 {
+		t.Errorf("solve over a list gives %g A, want 2 A", got)
+	}
+}
+
+// A template's input may be set to a list, written over several lines,
+// and a take of a list is refused with the way round it.
+func TestListsInTemplatesAndTakes(t *testing.T) {
+	turns := sheetOf("t/turns.md", "param phi [mWb] ; flux per turn group", "lambda = sum(phi) ; flux linkage")
+	resolve := func(ref, from string) (engine.SheetSource, string, error) {
+		return turns, "t/turns.md", nil
+	}
+	field := engine.Compile(sheetOf("field.md", "phi_k = [1 mWb, 2 mWb] ; flux per turn group", "lam = sum(phi_k) ; linkage"))
+	field.Evaluate()
+	take := func(ref, from string) (*engine.Calc, string, error) { return field, "field.md", nil }
+	checkerCase{"lists in templates and takes",
+		// 1.5 + 2.5 + 3.0 = 7.0 mWb; 3 mWb taken.
+		[]string{"use c = t/turns with phi = [1.5 mWb, 2.5 mWb,", "    3.0 mWb]", "take p = phi_k from field", "take lam from field"},
+		map[string]string{"c.lambda": "ok 7.000 mWb", "p": "error 4:1 phi_k in field.md is a list; take reads single values", "lam": "ok 3.000 mWb"}}.run(t, engine.Options{Resolve: resolve, Take: take})
+}

@@ -67,7 +67,8 @@ func (s *Calc) buildProgram() *Program {
 	for i, st := range s.Statements {
 		p.initial[i] = st.Verdict
 		p.stepOf[i] = -1
-		if st.Kind == Definition && st.Name != "" && st.IsInput() && st.compiled {
+		// A list input keeps its length: a run sets single values only.
+		if st.Kind == Definition && st.Name != "" && st.IsInput() && st.compiled && !st.Type.IsList() {
 			p.inputs[st.Name] = i
 		}
 	}

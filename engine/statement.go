@@ -174,9 +174,13 @@ func (s *Statement) Compare() *Binary {
 }
 
 // LiteralText returns a literal as its author wrote it: the number (with
-// its sign) and the unit symbol, "" for a pure number. ok is false when e
-// is not a literal.
+// its sign) and the unit symbol, "" for a pure number. A list of literals
+// in one unit is a literal too: "[2.41, 2.38, 2.30]" and "mWb". ok is
+// false when e is not a literal.
 func LiteralText(e Expr) (value, unit string, ok bool) {
+	if l, isList := e.(*ListLit); isList {
+		return listLiteralText(l)
+	}
 	sign := ""
 	if u, isUnary := e.(*Unary); isUnary {
 		e = u.X

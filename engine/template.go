@@ -154,14 +154,14 @@ func parseOverrides(st *Statement, t *text, j, end int) *diag.Diagnostic {
 }
 
 // topLevelComma returns the offset of the first comma in r[from:end]
-// outside parentheses, or end.
+// outside parentheses and list brackets, or end.
 func topLevelComma(r []rune, from, end int) int {
 	depth := 0
 	for i := from; i < end; i++ {
 		switch r[i] {
-		case '(':
+		case '(', '[':
 			depth++
-		case ')':
+		case ')', ']':
 			depth--
 		case ',':
 			if depth == 0 {

@@ -116,7 +116,7 @@ func (w *mathWriter) expr(e engine.Expr, _ int) {
 		switch {
 		case n.Constant != nil:
 			w.b.WriteString(mi(n.Constant.Symbol))
-		case w.mode == substituted && n.Target != nil && n.Target.IsInput():
+		case w.mode == substituted && n.Target != nil && n.Target.IsInput() && !n.Target.Type.IsList():
 			// An input reads as the author wrote it, so the checker can match it.
 			v, u := InputText(n.Target)
 			w.b.WriteString(numberMathML(v) + unitMathML(u))
