@@ -185,6 +185,8 @@ func Precedence(e Expr) int {
 		}
 	case *Unary:
 		return 3
+	case *Choice, *Range:
+		return 0 // written in parentheses inside any operation
 	}
 	return 5
 }

@@ -44,6 +44,9 @@ func constant(c float64) evalFn { return func([]float64) float64 { return c } }
 
 func compileNode(e Expr) evalFn {
 	t := e.Type()
+	if c, ok := e.(*Choice); ok {
+		return compileChoice(c)
+	}
 	if t.IsList() {
 		return compileList(e)
 	}

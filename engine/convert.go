@@ -92,6 +92,18 @@ func (c *converter) convert(n syntax.Node) Expr {
 		}
 		e.setPos(pos)
 		return e
+	case *syntax.Choice:
+		e := &Choice{Value: c.convert(n.Value), Other: c.convert(n.Other)}
+		cond, ok := c.convert(n.Cond).(*Binary)
+		if c.err != nil {
+			return nil
+		}
+		if !ok || !isComparison(cond.Op) {
+			return c.fail(n.Cond, "write a comparison after when, such as B <= 1.5 T", "the condition of a conditional value must be a comparison")
+		}
+		e.Cond = cond
+		e.setPos(pos)
+		return e
 	case *syntax.Index:
 		e := &Index{X: c.convert(n.X), I: c.convert(n.I)}
 		e.setPos(c.t.pos(n.Span().Start))

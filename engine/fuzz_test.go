@@ -37,6 +37,7 @@ func FuzzStatement(f *testing.F) {
 		"phi = [2.41 mWb, 2.38 mWb, 2.30 mWb]\nlambda = sum(phi)\nPhi_e = lambda / count(phi)\nb = phi[2] + phi[4]",
 		"k = 1 .. 12\nth = 0 deg .. 90 deg by 15 deg\ny = sin(th) * k[1 .. 7]\nc = [1 m, 2 s] + (1 .. 3)",
 		"a = [1, 2] + [1, 2, 3]\nm = max(a)\nr = rms(1 / (k - 3))\nk = 1 .. 5\ncheck a <= 3",
+		"B = 1.62 T\nk = 1 when B <= 1.5 T otherwise 1.5 T / B\ny = 1 / B when B > 2 T otherwise 0 / T\nz = (1 when k < 1 otherwise 2 s) * 2",
 	} {
 		f.Add(seed)
 	}

@@ -50,6 +50,8 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 		return inferRange(n)
 	case *Index:
 		return inferIndex(n)
+	case *Choice:
+		return inferChoice(n)
 	case *Unary:
 		*t = *n.X.Type()
 		if n.Op == "-" {

@@ -207,7 +207,7 @@ func inferListOperands(n *Binary) *diag.Diagnostic {
 			side, what = n.Y, "right"
 		}
 		return errAt(side.Pos(), "compare one value: max(...) <= limit, or min(...) >= limit",
-			"a check compares single values; its %s side is a list of %d", what, side.Type().Len)
+			"a comparison takes single values; its %s side is a list of %d", what, side.Type().Len)
 	}
 	if n.Op == "^" && y.IsList() {
 		return errAt(n.Y.Pos(), "raise to one fixed number", "the exponent is a list; an exponent is one number")

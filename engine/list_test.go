@@ -60,7 +60,7 @@ func TestLists(t *testing.T) {
 				"g":              "error 9:7 index 0 is out of range: the list has 3 elements",
 				"h":              "error 10:9 sum works on the elements of a list, but this is a single value",
 				"i":              "error 11:9 max of one single value is that value",
-				"check a <= 3 m": "error 12:7 a check compares single values; its left side is a list of 3",
+				"check a <= 3 m": "error 12:7 a comparison takes single values; its left side is a list of 3",
 				"j":              "error 14:10 the ends and the step of a range must be fixed values, not results",
 				"l":              "error 15:9 a range of quantities needs its step",
 				"m":              "error 16:15 the step of the range is zero, or leads away from its second end",

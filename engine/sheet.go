@@ -656,6 +656,9 @@ func checkUnit(st *Statement, l, r float64, res []Result) units.Unit {
 // diagnose finds the operation that first produced a non-finite value and
 // says what went wrong there.
 func diagnose(e Expr, v []float64) *diag.Diagnostic {
+	if c, ok := e.(*Choice); ok {
+		return diagnoseChoice(c, v)
+	}
 	children := e.children()
 	if c, ok := e.(*Call); ok && c.Func.table != "" {
 		children = c.Args[2:3] // the columns are data

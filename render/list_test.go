@@ -39,3 +39,21 @@ func TestListsShowInlineOrAsATable(t *testing.T) {
 		t.Error("the table shows rows it should leave out")
 	}
 }
+
+// A conditional value shows as a piecewise rule: a brace, the value with
+// its condition, and the other value with "otherwise".
+func TestChoiceShowsAsAPiecewiseRule(t *testing.T) {
+	sheet := "# Knee\n\n```sheaf\nB = 1.62 T ; flux density\nB_s = 1.5 T ; knee\nk_s = 1 when B <= B_s otherwise B_s / B ; saturation factor\n```\n"
+	_, pages := build(t, map[string]string{"knee.md": sheet})
+	page := pages["sheets/knee.html"]
+	for _, want := range []string{
+		`<mo fence="true" stretchy="true">{</mo><mtable columnalign="left"><mtr><mtd><mn>1</mn></mtd><mtd><mtext>when</mtext>`,
+		`<mtd><mtext>otherwise</mtext></mtd></mtr></mtable></mrow>`,
+		// 1.5 T / 1.62 T = 0.9259.
+		"<mn>0.9259</mn>",
+	} {
+		if !strings.Contains(page, want) {
+			t.Errorf("sheet page lacks %q", want)
+		}
+	}
+}

@@ -139,7 +139,9 @@ func (w *mathWriter) expr(e engine.Expr, _ int) {
 	case *engine.Call:
 		w.call(n)
 	default:
-		w.list(e)
+		if !w.list(e) {
+			w.choice(e)
+		}
 	}
 }
 

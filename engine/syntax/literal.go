@@ -32,8 +32,8 @@ func scanLiteral(r []rune, i, to int) (*Number, *Quantity, int, *Error) {
 	j := skipBlanks(r, i, to)
 	rest := string(r[j:to])
 	n := units.ScanCompact(rest)
-	if j > i && isWord(r, j, to, StepWord) {
-		n = 0 // "0 .. 10 by 2": the step of a range, not a unit
+	if j > i && (isWord(r, j, to, StepWord) || isWord(r, j, to, WhenWord) || isWord(r, j, to, OtherwiseWord)) {
+		n = 0 // "0 .. 10 by 2", "1 when ...": the words of the grammar, not units
 	}
 	if n == 0 {
 		if j == i && j < to && IsNameStart(r[j]) {

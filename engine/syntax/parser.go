@@ -47,7 +47,7 @@ func Parse(r []rune, from, to int) (Node, *Error) {
 		return nil, err
 	}
 	p := &parser{r: r, toks: toks}
-	n := p.expr(0)
+	n := p.choice()
 	if p.err == nil && p.peek().kind != tokEOF {
 		p.unexpected(p.peek())
 	}
@@ -94,8 +94,8 @@ func (p *parser) expr(minBP int) Node {
 	for p.err == nil {
 		t := p.peek()
 		if t.kind != tokOp {
-			if t.kind == tokName && t.text == StepWord {
-				return left // a range's step, or misplaced: the caller says
+			if t.kind == tokName && (t.text == StepWord || t.text == WhenWord || t.text == OtherwiseWord) {
+				return left // a range's step or a conditional's words: the caller reads them
 			}
 			if startsOperand(t) {
 				return p.juxtaposed(t)
@@ -157,7 +157,7 @@ func (p *parser) primary() Node {
 	case tokLBracket:
 		return p.list(t)
 	case tokLParen:
-		inner := p.expr(0)
+		inner := p.choice()
 		if p.err != nil {
 			return nil
 		}
@@ -189,7 +189,7 @@ func (p *parser) call(name token) Node {
 		return c
 	}
 	for {
-		a := p.expr(0)
+		a := p.choice()
 		if p.err != nil {
 			return nil
 		}
@@ -204,6 +204,33 @@ func (p *parser) call(name token) Node {
 			return p.unexpected(t)
 		}
 	}
+}
+
+// choice parses a value that may hold a condition: value when condition
+// otherwise other, where other may hold a condition of its own.
+func (p *parser) choice() Node {
+	v := p.expr(0)
+	if p.err != nil || p.peek().kind != tokName || p.peek().text != WhenWord {
+		return v
+	}
+	if p.depth++; p.depth > maxDepth {
+		return p.fail(p.peek(), "split it into named parts", "formula nested too deeply: more than %d conditions inside one another", maxDepth)
+	}
+	defer func() { p.depth-- }()
+	when := p.next()
+	cond := p.expr(0)
+	if p.err != nil {
+		return nil
+	}
+	if t := p.peek(); t.kind != tokName || t.text != OtherwiseWord {
+		return p.fail(t, "write value "+WhenWord+" condition "+OtherwiseWord+" other value", "a condition needs the value %s it does not hold", OtherwiseWord)
+	}
+	p.next()
+	other := p.choice()
+	if p.err != nil {
+		return nil
+	}
+	return &Choice{Pos: Span{v.Span().Start, other.Span().End}, WhenAt: when.start, Value: v, Cond: cond, Other: other}
 }
 
 // rangeAfter parses the end of a range, and its step, after "..".
@@ -234,7 +261,7 @@ func (p *parser) list(open token) Node {
 		return p.fail(p.peek(), "write the elements between [ and ], separated by commas", "a list needs at least one element")
 	}
 	for {
-		e := p.expr(0)
+		e := p.choice()
 		if p.err != nil {
 			return nil
 		}
@@ -257,7 +284,7 @@ func (p *parser) index(x Node) Node {
 	if p.peek().kind == tokRBracket {
 		return p.fail(p.peek(), "write the element's number, as phi[1] for the first", "an index is missing between [ and ]")
 	}
-	i := p.expr(0)
+	i := p.choice()
 	if p.err != nil {
 		return nil
 	}
@@ -298,6 +325,8 @@ func (p *parser) unexpected(t token) Node {
 	switch {
 	case t.kind == tokEOF:
 		return p.endsEarly()
+	case t.kind == tokName && (t.text == WhenWord || t.text == OtherwiseWord):
+		return p.fail(t, "write value "+WhenWord+" condition "+OtherwiseWord+" other value, in parentheses inside a formula", "%s belongs to a conditional value: value %s condition %s other value", t.text, WhenWord, OtherwiseWord)
 	case t.kind == tokName && t.text == StepWord:
 		return p.fail(t, "write a range with its step as from .. to by step", "%s gives the step of a range, and follows from .. to", StepWord)
 	case t.kind == tokComma && p.decimalComma(t):

@@ -5,17 +5,19 @@
 //
 // The grammar, as EBNF (README, "Formula grammar"):
 //
-//	formula    = span [ relation span ] .
+//	formula    = choice .
+//	choice     = comparison [ "when" comparison "otherwise" choice ] .
+//	comparison = span [ relation span ] .
 //	relation   = "<" | "<=" | ">" | ">=" | "==" | "≤" | "≥" .
 //	span       = sum [ ".." sum [ "by" sum ] ] .
 //	sum        = product { ( "+" | "-" ) product } .
 //	product    = unary { ( "*" | "/" ) unary } .
 //	unary      = [ "-" | "+" ] power .
 //	power      = postfix [ ( "^" | "**" ) unary ] .
-//	postfix    = primary { "[" span "]" } .
-//	primary    = quantity | number | name | call | list | "(" span ")" .
-//	list       = "[" span { "," span } "]" .
-//	call       = name "(" [ span { "," span } ] ")" .
+//	postfix    = primary { "[" choice "]" } .
+//	primary    = quantity | number | name | call | list | "(" choice ")" .
+//	list       = "[" choice { "," choice } "]" .
+//	call       = name "(" [ choice { "," choice } ] ")" .
 //	quantity   = number unit .
 //	name       = letter { letter | digit | "_" } { "." letter { letter | digit | "_" } } .
 //
@@ -107,8 +109,20 @@ type Index struct {
 	I   Node
 }
 
-// StepWord is the word that gives a range its step.
-const StepWord = "by"
+// Choice is a conditional value: Value when Cond holds, otherwise Other.
+type Choice struct {
+	Pos          Span
+	WhenAt       int
+	Value, Other Node
+	Cond         Node
+}
+
+// The words of ranges and conditional values.
+const (
+	StepWord      = "by"
+	WhenWord      = "when"
+	OtherwiseWord = "otherwise"
+)
 
 // Span implementations.
 func (n *Number) Span() Span   { return n.Pos }
@@ -120,6 +134,7 @@ func (n *Call) Span() Span     { return n.Pos }
 func (n *List) Span() Span     { return n.Pos }
 func (n *Range) Span() Span    { return n.Pos }
 func (n *Index) Span() Span    { return n.Pos }
+func (n *Choice) Span() Span   { return n.Pos }
 
 // At implementations.
 func (n *Number) At() int   { return n.Pos.Start }
@@ -131,6 +146,7 @@ func (n *Call) At() int     { return n.Pos.Start }
 func (n *List) At() int     { return n.Pos.Start }
 func (n *Range) At() int    { return n.OpAt }
 func (n *Index) At() int    { return n.I.Span().Start }
+func (n *Choice) At() int   { return n.WhenAt }
 
 // IsRelation reports whether op compares two sides.
 func IsRelation(op string) bool {
