@@ -157,14 +157,32 @@ func (u *Unary) children() []Expr  { return []Expr{u.X} }
 func (b *Binary) children() []Expr { return []Expr{b.X, b.Y} }
 func (c *Call) children() []Expr   { return c.Args }
 
-// Walk calls f for every node of the tree, parents before children.
+// Walk calls f for every node of the tree as written, parents before
+// children: a call of a sheet's function is visited with its arguments,
+// not the copy of the function's formula it runs.
 func Walk(e Expr, f func(Expr)) {
 	if e == nil {
 		return
 	}
 	f(e)
-	for _, c := range e.children() {
+	kids := e.children()
+	if a, ok := e.(*Apply); ok {
+		kids = a.Args
+	}
+	for _, c := range kids {
 		Walk(c, f)
+	}
+}
+
+// walkAll is Walk into the bodies of calls of the sheet's functions too:
+// every node that is checked and compiled.
+func walkAll(e Expr, f func(Expr)) {
+	if e == nil {
+		return
+	}
+	f(e)
+	for _, c := range e.children() {
+		walkAll(c, f)
 	}
 }
 

@@ -47,6 +47,9 @@ func compileNode(e Expr) evalFn {
 	if c, ok := e.(*Choice); ok {
 		return compileChoice(c)
 	}
+	if a, ok := e.(*Apply); ok {
+		return compileApply(a)
+	}
 	if t.IsList() {
 		return compileList(e)
 	}

@@ -130,11 +130,13 @@ func (c *converter) name(n *syntax.Name, pos diag.Pos) Expr {
 func (c *converter) call(n *syntax.Call, pos diag.Pos) Expr {
 	f, ok := functions[n.Name]
 	if !ok {
-		hint := "the functions are " + functionList()
-		if s := closest(n.Name, functionNames()); s != "" {
-			hint = "did you mean " + s + "? " + hint
+		// A function of the sheet's own, or none: applyFunctions says.
+		a := &Apply{Name: n.Name}
+		a.setPos(pos)
+		for _, x := range n.Args {
+			a.Args = append(a.Args, c.convert(x))
 		}
-		return c.fail(n, hint, "unknown function %s", n.Name)
+		return a
 	}
 	e := &Call{Name: n.Name, Func: f}
 	e.setPos(pos)

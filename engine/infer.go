@@ -21,6 +21,9 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 	if c, ok := e.(*Call); ok && c.Func.table != "" {
 		return c.Func.check(c) // the columns are data, not values to infer
 	}
+	if a, ok := e.(*Apply); ok {
+		return inferApply(a)
+	}
 	product := isProduct(e)
 	for _, c := range e.children() {
 		if err := inferNode(c, product); err != nil {

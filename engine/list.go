@@ -76,7 +76,7 @@ type arena struct {
 // the place of the statement it names.
 func (a *arena) layout(e Expr) *diag.Diagnostic {
 	var err *diag.Diagnostic
-	Walk(e, func(e Expr) {
+	walkAll(e, func(e Expr) {
 		t := e.Type()
 		if err != nil || !t.IsList() {
 			return

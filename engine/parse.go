@@ -114,6 +114,9 @@ func parseDefinition(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	if err := validName(name, st.NamePos); err != nil {
 		return err
 	}
+	if j < end && r[j] == '(' {
+		return parseFunctionDef(st, t, j, end)
+	}
 	i, err := parseDisplay(st, t, skipSpace(r, j), end)
 	if err != nil {
 		return err

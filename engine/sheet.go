@@ -84,6 +84,7 @@ func CompileWith(src SheetSource, opt Options) *Calc {
 	}
 	x := &expander{sheet: s, resolve: opt.Resolve, stack: []string{src.Path}, statements: len(parsed)}
 	s.Statements = x.expand(parsed, src.Path)
+	s.applyFunctions()
 	for _, ts := range append(src.Tables, x.tables...) {
 		t := readTable(ts, ts.Name)
 		if t.Err != nil {
@@ -144,7 +145,7 @@ func (s *Calc) define() {
 		}
 	}
 	for _, st := range s.Statements {
-		if (st.Kind != Definition && st.Kind != Param && st.Kind != Take) || st.Name == "" {
+		if (st.Kind != Definition && st.Kind != Param && st.Kind != Take && st.Kind != FunctionDef) || st.Name == "" {
 			continue
 		}
 		if inst, clash := instances[st.Name]; clash && st.Instance == "" {
@@ -171,14 +172,18 @@ func (s *Calc) resolve() {
 		// linkSolves sorts them out once every statement is resolved.
 		inRelation := map[Expr]bool{}
 		if st.solve != nil {
-			Walk(st.solve.relation, func(e Expr) { inRelation[e] = true })
+			walkAll(st.solve.relation, func(e Expr) { inRelation[e] = true })
 		}
-		Walk(st.Expr, func(e Expr) {
+		walkAll(st.Expr, func(e Expr) {
 			r, ok := e.(*Ref)
-			if !ok || st.Verdict == Errored {
+			if !ok || st.Verdict == Errored || st.Kind == FunctionDef && slices.Contains(st.Params, r.Name) {
 				return
 			}
 			if target, ok := s.byName[r.Name]; ok {
+				if target.Kind == FunctionDef {
+					s.fail(st, errAt(r.Pos(), "call it with its arguments: "+target.Name+"("+strings.Join(target.Params, ", ")+")", "%s is a function of the sheet, not a value", r.Name))
+					return
+				}
 				r.Target = target
 				if inRelation[e] {
 					if !containsStmt(st.solve.refs, target) {
@@ -339,6 +344,10 @@ func (s *Calc) check(st *Statement) {
 	switch st.Kind {
 	case Use:
 		st.Verdict = OK // the instance's own statements carry its results
+		return
+	case FunctionDef:
+		// A definition has no value of its own and stays pending: each
+		// call is checked and evaluated with its arguments.
 		return
 	case Param:
 		s.fail(st, errAt(st.NamePos, "this sheet is a template: use it from another sheet with use ... with "+st.Name+" = ...",
@@ -556,11 +565,11 @@ func (s *Calc) Release() {
 	for _, st := range s.Statements {
 		st.fn, st.right = nil, nil
 		if st.Expr != nil {
-			Walk(st.Expr, func(e Expr) { e.base().fn = nil })
+			walkAll(st.Expr, func(e Expr) { e.base().fn = nil })
 		}
 		if st.solve != nil {
 			for _, e := range []Expr{st.solve.lo, st.solve.hi, st.solve.relation} {
-				Walk(e, func(e Expr) { e.base().fn = nil })
+				walkAll(e, func(e Expr) { e.base().fn = nil })
 			}
 			st.solve.inner = nil
 		}
@@ -658,6 +667,14 @@ func checkUnit(st *Statement, l, r float64, res []Result) units.Unit {
 func diagnose(e Expr, v []float64) *diag.Diagnostic {
 	if c, ok := e.(*Choice); ok {
 		return diagnoseChoice(c, v)
+	}
+	if a, ok := e.(*Apply); ok {
+		for _, x := range a.Args {
+			if !valueOK(x, v) {
+				return diagnose(x, v)
+			}
+		}
+		return a.relocate(diagnose(a.Body, v))
 	}
 	children := e.children()
 	if c, ok := e.(*Call); ok && c.Func.table != "" {

@@ -27,6 +27,9 @@ const (
 	// result of another sheet of the package, live, under a name of this
 	// sheet's own.
 	Take
+	// FunctionDef is `name(p, q) = formula`: a function of the sheet's
+	// own, checked at each call with the call's arguments.
+	FunctionDef
 )
 
 // Status is how a statement came out.
@@ -74,6 +77,8 @@ type Statement struct {
 
 	Name    string // definitions only
 	NamePos diag.Pos
+	// Params are a function's parameters, in order.
+	Params []string
 
 	// Display is the unit the author asked for, if any.
 	Display     *units.Unit

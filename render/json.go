@@ -105,6 +105,20 @@ type JSONSheet struct {
 	Meta       sheets.Meta     `json:"meta"`
 	Tables     []JSONTable     `json:"tables"`
 	Statements []JSONStatement `json:"statements"`
+	Functions  []JSONFunction  `json:"functions,omitempty"`
+}
+
+// JSONFunction is a function of the sheet's own: its definition, which has
+// no value; each call is checked and evaluated in the statement it is in.
+type JSONFunction struct {
+	Name        string    `json:"name"`
+	Params      []string  `json:"params"`
+	Pos         diag.Pos  `json:"pos"`
+	Text        string    `json:"text"`
+	Formula     string    `json:"formula"`
+	Description string    `json:"description,omitempty"`
+	Instance    string    `json:"instance,omitempty"`
+	Error       *JSONDiag `json:"error,omitempty"`
 }
 
 // JSONTable is a named table of the sheet, or of one of its instances.
@@ -361,9 +375,25 @@ func jsonSheet(s *project.Sheet, opt Options) JSONSheet {
 		js.Tables = append(js.Tables, jt)
 	}
 	for _, st := range s.Calc.Statements {
+		if st.Kind == engine.FunctionDef {
+			js.Functions = append(js.Functions, jsonFunction(st))
+			continue
+		}
 		js.Statements = append(js.Statements, jsonStatement(s.Calc, st, digits))
 	}
 	return js
+}
+
+func jsonFunction(st *engine.Statement) JSONFunction {
+	f := JSONFunction{Name: st.Name, Params: st.Params, Pos: st.Pos, Text: st.Text, Formula: st.Formula, Description: st.Description, Instance: st.Instance}
+	if f.Params == nil {
+		f.Params = []string{}
+	}
+	if st.Problem != nil {
+		d := jsonDiag(*st.Problem)
+		f.Error = &d
+	}
+	return f
 }
 
 // Document builds the JSON form of a package in memory.

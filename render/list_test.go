@@ -57,3 +57,22 @@ func TestChoiceShowsAsAPiecewiseRule(t *testing.T) {
 		}
 	}
 }
+
+// A function of the sheet shows its definition with its parameters and no
+// value; a call shows as written, with its value. Values from the
+// closed form sin(7/9 · 90°) = 0.9397.
+func TestSheetFunctionShowsDefinitionAndCalls(t *testing.T) {
+	sheet := "# Pitch\n\n```sheaf\ny = 7 / 9 ; coil pitch over pole pitch\nk_p(nu) = sin(nu * y * pi / 2) ; pitch factor\nk_p1 = k_p(1) ; fundamental\n```\n"
+	_, pages := build(t, map[string]string{"pitch.md": sheet})
+	page := pages["sheets/pitch.html"]
+	for _, want := range []string{
+		`<div class="row def function" id="`,
+		"<mo>\u2061</mo><mrow><mo>(</mo><mi>ν</mi><mo>)</mo></mrow></mrow><mo>=</mo>",
+		"<mo>\u2061</mo><mrow><mo>(</mo><mn>1</mn><mo>)</mo></mrow></mrow>",
+		"<mn>0.9397</mn>",
+	} {
+		if !strings.Contains(page, want) {
+			t.Errorf("sheet page lacks %q", want)
+		}
+	}
+}

@@ -139,9 +139,7 @@ func (w *mathWriter) expr(e engine.Expr, _ int) {
 	case *engine.Call:
 		w.call(n)
 	default:
-		if !w.list(e) {
-			w.choice(e)
-		}
+		_ = w.list(e) || w.choice(e) || w.apply(e)
 	}
 }
 

@@ -79,7 +79,8 @@ func loadDemo(t *testing.T, dir string) *project.Package {
 // reduction (invented values).
 var listSheets = map[string][]byte{
 	"turns.md": []byte("# Field coil turns\n\n```sheaf\nphi_k = [2.41 mWb, 2.38 mWb, 2.30 mWb, 2.17 mWb] ; flux linked by each turn group\n" +
-		"lambda = sum(phi_k) ; flux linkage\ntheta [deg] = 0 deg .. 180 deg by 10 deg ; rotor positions\n```\n"),
+		"lambda = sum(phi_k) ; flux linkage\ntheta [deg] = 0 deg .. 180 deg by 10 deg ; rotor positions\n" +
+		"k_p(nu) = sin(nu * 7 / 9 * pi / 2) ; pitch factor\nk_p5 = k_p(5) ; fifth harmonic\nbad(x, x) = x\n```\n"),
 }
 
 var brokenSheets = map[string][]byte{
@@ -344,6 +345,9 @@ func TestRealOutputValidates(t *testing.T) {
 						l, ok := m["list"].(map[string]any)
 						if !ok || l["length"] != json.Number("4") || len(l["text"].([]any)) != 4 {
 							return "phi_k should carry its four elements"
+						}
+						if fs, _ := sh.(map[string]any)["functions"].([]any); len(fs) != 2 {
+							return "the sheet should list its two functions"
 						}
 						return ""
 					}

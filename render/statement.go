@@ -17,6 +17,10 @@ func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int)
 		writeUse(w, calc, st, digits)
 		return
 	}
+	if st.Kind == engine.FunctionDef {
+		writeFunction(w, calc, st, digits)
+		return
+	}
 	switch res.Status {
 	case engine.Errored, engine.Blocked, engine.Pending:
 		writeProblem(w, st, res)
