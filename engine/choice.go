@@ -1,6 +1,8 @@
 package engine
 
 import (
+	"strconv"
+
 	"github.com/sheaf-calc/sheaf/diag"
 	"github.com/sheaf-calc/sheaf/units"
 )
@@ -55,18 +57,7 @@ func plural(n int, what string) string {
 	if n == 1 {
 		return "1 " + what
 	}
-	return itoa(n) + " " + what + "s"
-}
-
-func itoa(n int) string {
-	if n == 0 {
-		return "0"
-	}
-	var b []byte
-	for ; n > 0; n /= 10 {
-		b = append([]byte{byte('0' + n%10)}, b...)
-	}
-	return string(b)
+	return strconv.Itoa(n) + " " + what + "s"
 }
 
 // holdsAt evaluates a condition.

@@ -60,7 +60,7 @@ func (t *Type) IsList() bool { return t.Shape == List }
 // listAt is where a list node's elements lie in a frame's values.
 func listAt(e Expr) (at, n int) { return int(e.base().at), e.Type().Len }
 
-// ListOf returns a statement's list in v, the values of a frame.
+// listIn returns a statement's list in v, the values of a frame.
 func (st *Statement) listIn(v []float64) []float64 {
 	at, n := listAt(st.Expr)
 	return v[at : at+n]

@@ -138,18 +138,7 @@ type applier struct {
 func (ap *applier) apply(a *Apply) *diag.Diagnostic {
 	def, ok := ap.defs[a.Name]
 	if !ok {
-		names := functionNames()
-		for n := range ap.defs {
-			names = append(names, n)
-		}
-		hint := "the functions are " + functionList()
-		if len(ap.defs) > 0 {
-			hint += ", and the sheet's own"
-		}
-		if c := closest(a.Name, names); c != "" {
-			hint = "did you mean " + c + "? " + hint
-		}
-		return errAt(a.Pos(), hint, "unknown function %s", a.Name)
+		return ap.unknown(a)
 	}
 	if def.Verdict == Errored {
 		return errAt(a.Pos(), "fix the function first", "function %s has an error (at %d:%d)", def.Name, def.Problem.Pos.Line, def.Problem.Pos.Col)
@@ -158,15 +147,8 @@ func (ap *applier) apply(a *Apply) *diag.Diagnostic {
 		return errAt(a.Pos(), fmt.Sprintf("write %s(%s)", def.Name, strings.Join(def.Params, ", ")),
 			"%s takes %s", def.Name, plural(len(def.Params), "argument"))
 	}
-	for i, f := range ap.stack {
-		if f == def {
-			chain := []string{}
-			for _, g := range ap.stack[i:] {
-				chain = append(chain, g.Name)
-			}
-			return errAt(a.Pos(), "write the rule without calling the function inside itself",
-				"function %s calls itself: %s → %s", def.Name, strings.Join(chain, " → "), def.Name)
-		}
+	if err := ap.cycle(a, def); err != nil {
+		return err
 	}
 	for _, x := range a.Args {
 		var err *diag.Diagnostic
@@ -206,6 +188,38 @@ func (ap *applier) apply(a *Apply) *diag.Diagnostic {
 		return expansionError(a, def, err)
 	}
 	a.Body, a.Def = body, def
+	return nil
+}
+
+// unknown reports a call of a function that is neither built in nor the
+// sheet's, with the nearest name.
+func (ap *applier) unknown(a *Apply) *diag.Diagnostic {
+	names := functionNames()
+	for n := range ap.defs {
+		names = append(names, n)
+	}
+	hint := "the functions are " + functionList()
+	if len(ap.defs) > 0 {
+		hint += ", and the sheet's own"
+	}
+	if c := closest(a.Name, names); c != "" {
+		hint = "did you mean " + c + "? " + hint
+	}
+	return errAt(a.Pos(), hint, "unknown function %s", a.Name)
+}
+
+// cycle reports a call of a function that is being expanded already.
+func (ap *applier) cycle(a *Apply, def *Statement) *diag.Diagnostic {
+	for i, f := range ap.stack {
+		if f == def {
+			chain := []string{}
+			for _, g := range ap.stack[i:] {
+				chain = append(chain, g.Name)
+			}
+			return errAt(a.Pos(), "write the rule without calling the function inside itself",
+				"function %s calls itself: %s → %s", def.Name, strings.Join(chain, " → "), def.Name)
+		}
+	}
 	return nil
 }
 
