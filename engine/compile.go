@@ -257,20 +257,28 @@ func constOf(e Expr) (float64, bool) {
 	return 0, false
 }
 
+// tableReader reads a table call's y column at one x: between rows for
+// interp and spline, in the matching row for pick (NaN when none is).
+func tableReader(n *Call) func(float64) float64 {
+	if n.table != nil {
+		return n.table.at
+	}
+	ix, ys := newExactIndex(n.x), n.y
+	return func(x float64) float64 {
+		if i := ix.find(x); i >= 0 {
+			return ys.Values[i]
+		}
+		return math.NaN()
+	}
+}
+
 func compileCall(n *Call) evalFn {
 	if n.Func.table != "" {
-		x := compile(n.Args[2])
-		if n.table != nil {
-			ip := n.table
-			return func(v []float64) float64 { return ip.at(x(v)) }
+		x, read := compile(n.Args[2]), tableReader(n)
+		if n.Args[2].Type().IsList() {
+			return compileTableList(n, x, read)
 		}
-		ix, ys := newExactIndex(n.x), n.y
-		return func(v []float64) float64 {
-			if i := ix.find(x(v)); i >= 0 {
-				return ys.Values[i]
-			}
-			return math.NaN()
-		}
+		return func(v []float64) float64 { return read(x(v)) }
 	}
 	f := n.Func
 	if f.reduce != nil && n.Args[0].Type().IsList() {

@@ -122,9 +122,6 @@ func inferTableCall(n *Call) *diag.Diagnostic {
 		return err
 	}
 	at := n.Args[2].Type()
-	if at.IsList() {
-		return errAt(n.Args[2].Pos(), "read one value at a time, as "+n.Name+"(..., x[1])", "%s reads the table at one value; this is a list", n.Name)
-	}
 	if at.Dim != x.Column.Unit.Dim {
 		return errAt(n.Args[2].Pos(), "give a value of the x column's kind",
 			"%s reads %s against %s, which is %s, but the value given is %s", n.Name, y.Name, x.Name,
@@ -146,7 +143,8 @@ func inferTableCall(n *Call) *diag.Diagnostic {
 		}
 		n.table = ip
 	}
-	*n.Type() = Type{Dim: y.Column.Unit.Dim, Kind: y.Column.Unit.Kind}
+	// At a list of x, the table is read at each element.
+	*n.Type() = Type{Shape: at.Shape, Len: at.Len, Dim: y.Column.Unit.Dim, Kind: y.Column.Unit.Kind}
 	return nil
 }
 

@@ -297,6 +297,9 @@ func diagnoseList(e Expr, v []float64) *diag.Diagnostic {
 			return errAt(b.Pos(), "a negative number has no real fractional power", "negative number raised to a fractional power in element %d", k+1)
 		}
 	case *Call:
+		if b.Func.table != "" {
+			return tableProblem(b, el(b.Args[2]), fmt.Sprintf(" (element %d)", k+1))
+		}
 		if b.Func.domain != "" {
 			return errAt(b.Pos(), "check the list's elements", "%s in element %d", b.Func.domain, k+1)
 		}

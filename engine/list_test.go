@@ -77,15 +77,21 @@ func TestLists(t *testing.T) {
 	}
 }
 
-// A table's columns are lists of its rows, in the column's unit.
+// A table's columns are lists of its rows, in the column's unit, and a
+// table read at a list is read at each element.
 func TestTableColumnsAreLists(t *testing.T) {
-	src := sheetOf("s.md", "l = sum(T.phi)", "N = count(T.k)", "e = T.phi / T.k", "m = interp(T.phi, T.k, T.k)")
+	src := sheetOf("s.md", "l = sum(T.phi)", "N = count(T.k)", "e = T.phi / T.k", "m = interp(T.phi, T.k, T.k)",
+		"i = interp(T.phi, T.k, [1.5, 3])", "o = interp(T.phi, T.k, [1, 5])", "p = pick(T.phi, T.k, [4, 2])", "q = pick(T.phi, T.k, [4, 3])")
 	src.Tables = append(src.Tables, fuzzTable("k [1]|phi [mWb]\n1|2.0\n2|4.5\n4|9.0"))
 	calc := engine.Compile(src)
 	calc.Evaluate()
-	// 2.0 + 4.5 + 9.0 = 15.5 mWb; 3 rows; [2, 2.25, 2.25] mWb.
+	// 2.0 + 4.5 + 9.0 = 15.5 mWb; 3 rows; [2, 2.25, 2.25] mWb; the rows
+	// themselves; halfway between rows 1 and 2, and between 2 and 4:
+	// 3.25 and 6.75 mWb; rows 4 and 2.
 	for name, want := range map[string]string{"l": "ok 15.50 mWb", "N": "ok 3 1", "e": "ok [2.000, 2.250, 2.250] mWb",
-		"m": "error 5:24 interp reads the table at one value; this is a list"} {
+		"m": "ok [2.000, 4.500, 9.000] mWb", "i": "ok [3.250, 6.750] mWb",
+		"o": "error 7:24 k = 5.000 (element 2) lies outside table T (k from 1.000 … 4.000)",
+		"p": "ok [9.000, 4.500] mWb", "q": "error 9:22 no row of table T has k = 3.000 (element 2)"} {
 		if got := outcome(calc, calc.Lookup(name)); got != want {
 			t.Errorf("%s is %q, want %q", name, got, want)
 		}

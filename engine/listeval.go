@@ -234,6 +234,20 @@ var listLoops = map[string]listLoop{
 	},
 }
 
+// compileTableList reads a table at each element of a list.
+func compileTableList(n *Call, x evalFn, read func(float64) float64) evalFn {
+	at, l := listAt(n)
+	xa := int(n.Args[2].base().at)
+	return func(v []float64) float64 {
+		x(v)
+		a, o := v[xa:xa+l], v[at:at+l]
+		for i := range o {
+			o[i] = read(a[i])
+		}
+		return 0
+	}
+}
+
 // compileIndex reads element k of a list, counted from 1. An index that
 // is not a whole number within the list gives NaN, which diagnose turns
 // into a message at the index.

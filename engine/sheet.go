@@ -662,6 +662,21 @@ func checkUnit(st *Statement, l, r float64, res []Result) units.Unit {
 	return units.AutoUnit(math.Max(math.Abs(l), math.Abs(r)), st.Type.Dim, st.Type.Kind)
 }
 
+// tableProblem explains a table read that has no value at x; where says
+// which element of a list x is, or is empty.
+func tableProblem(c *Call, x float64, where string) *diag.Diagnostic {
+	shown := units.FormatNumber(c.x.Unit.FromSI(x), 4)
+	if c.x.Unit.Symbol != "1" {
+		shown += " " + c.x.Unit.Symbol
+	}
+	if c.Func.table == "exact" {
+		return errAt(c.Args[2].Pos(), "add the row, or read between rows with interp",
+			"no row of table %s has %s = %s%s", c.x.Table.Name, c.x.Name, shown, where)
+	}
+	return errAt(c.Args[2].Pos(), "extend the table, or write "+c.Name+"(..., extrapolate) to extend its end segments",
+		"%s = %s%s lies outside table %s (%s from %s)", c.x.Name, shown, where, c.x.Table.Name, c.x.Name, rangeText(c.x))
+}
+
 // diagnose finds the operation that first produced a non-finite value and
 // says what went wrong there.
 func diagnose(e Expr, v []float64) *diag.Diagnostic {
@@ -693,17 +708,7 @@ func diagnose(e Expr, v []float64) *diag.Diagnostic {
 	}
 	result := fnOf(e)(v)
 	if c, ok := e.(*Call); ok && c.Func.table != "" && math.IsNaN(result) {
-		x := fnOf(c.Args[2])(v)
-		shown := units.FormatNumber(c.x.Unit.FromSI(x), 4)
-		if c.x.Unit.Symbol != "1" {
-			shown += " " + c.x.Unit.Symbol
-		}
-		if c.Func.table == "exact" {
-			return errAt(c.Args[2].Pos(), "add the row, or read between rows with interp",
-				"no row of table %s has %s = %s", c.x.Table.Name, c.x.Name, shown)
-		}
-		return errAt(c.Args[2].Pos(), "extend the table, or write "+c.Name+"(..., extrapolate) to extend its end segments",
-			"%s = %s lies outside table %s (%s from %s)", c.x.Name, shown, c.x.Table.Name, c.x.Name, rangeText(c.x))
+		return tableProblem(c, fnOf(c.Args[2])(v), "")
 	}
 	switch n := e.(type) {
 	case *Binary:
