@@ -2,6 +2,7 @@ package engine
 
 import (
 	"fmt"
+	"slices"
 	"strings"
 
 	"github.com/sheaf-calc/sheaf/diag"
@@ -198,6 +199,7 @@ func (ap *applier) unknown(a *Apply) *diag.Diagnostic {
 	for n := range ap.defs {
 		names = append(names, n)
 	}
+	slices.Sort(names) // the nearest name must not depend on map order
 	hint := "the functions are " + functionList()
 	if len(ap.defs) > 0 {
 		hint += ", and the sheet's own"
