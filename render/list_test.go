@@ -3,6 +3,8 @@ package render
 import (
 	"strings"
 	"testing"
+
+	"github.com/sheaf-calc/sheaf/project"
 )
 
 // A short list shows inline with its unit; a long one by its ends inline
@@ -74,5 +76,29 @@ func TestSheetFunctionShowsDefinitionAndCalls(t *testing.T) {
 		if !strings.Contains(page, want) {
 			t.Errorf("sheet page lacks %q", want)
 		}
+	}
+}
+
+// The same sheet of lists, conditional values and functions gives the same
+// bytes, page and JSON, build after build.
+func TestListsRenderDeterministically(t *testing.T) {
+	files := map[string]string{"turns.md": "# Turns\n\n```sheaf\nphi_k = [2.41 mWb, 2.38 mWb, 2.30 mWb] ; flux per turn group\nlambda = sum(phi_k)\n" +
+		"k_p(nu) = sin(nu * 7 / 9 * pi / 2) ; pitch factor\nw = k_p([1, 5, 7])\n```\n"}
+	files["more.md"] = "# More\n\n```sheaf\nk = 1 .. 300\nx = 2 when count(k) > 10 otherwise 3\nf(a, b) = a * b + x\ny = f(k, 2)\nz = frob(k)\n```\n"
+	_, first := build(t, files)
+	_, second := build(t, files)
+	for name, page := range first {
+		if page != second[name] {
+			t.Errorf("%s differs between two renders", name)
+		}
+	}
+	in := map[string][]byte{}
+	for k, v := range files {
+		in[k] = []byte(v)
+	}
+	a, errA := JSON(project.FromFiles("pkg", in), Options{Version: "test"})
+	b, errB := JSON(project.FromFiles("pkg", in), Options{Version: "test"})
+	if errA != nil || errB != nil || string(a) != string(b) {
+		t.Errorf("the JSON differs between two builds (%v, %v)", errA, errB)
 	}
 }
