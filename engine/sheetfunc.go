@@ -112,11 +112,18 @@ func (s *Calc) applyFunctions() {
 				continue
 			}
 			ap := applier{defs: defs, total: &total}
+			root := st.Expr
 			if fns {
+				// A definition keeps its formula as written, so that each
+				// call's copy expands the calls inside it with their own
+				// arguments (a name in g's formula stays the sheet's when f
+				// calls g); expanding a copy here finds cycles and unknown
+				// functions at the definition.
 				ap.stack = []*Statement{st}
+				root = ap.clone(st.Expr, nil)
 			}
 			var err *diag.Diagnostic
-			walkAll(st.Expr, func(e Expr) {
+			walkAll(root, func(e Expr) {
 				if a, ok := e.(*Apply); ok && err == nil && a.Body == nil {
 					err = ap.apply(a)
 				}

@@ -145,3 +145,11 @@ func TestSheetFunctionsAreBounded(t *testing.T) {
 		t.Errorf("y_399 is %q, want the sheet's limit", got)
 	}
 }
+
+// Names in a function's formula are the sheet's, whoever calls it: a
+// parameter of the caller does not reach into the function it calls.
+func TestSheetFunctionsScopeIsTheSheet(t *testing.T) {
+	// g(2) = 2 + 10 = 12 wherever it is called; f(5) = 12 · 5 = 60.
+	checkerCase{"lexical names", []string{"x = 10", "g(y) = y + x", "f(x) = g(2) * x", "z = f(5)", "w = g(2)"},
+		map[string]string{"z": "ok 60 1", "w": "ok 12 1"}}.run(t, engine.Options{})
+}
