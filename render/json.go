@@ -43,12 +43,15 @@ type JSONRegisters struct {
 
 // JSONInput is a row of the inputs register.
 type JSONInput struct {
-	Sheet       string    `json:"sheet"`
-	Name        string    `json:"name"`
-	Pos         diag.Pos  `json:"pos"`
-	Value       string    `json:"value"` // as written
-	Unit        string    `json:"unit"`
-	SI          JSONValue `json:"si"`
+	Sheet string    `json:"sheet"`
+	Name  string    `json:"name"`
+	Pos   diag.Pos  `json:"pos"`
+	Value string    `json:"value"` // as written
+	Unit  string    `json:"unit"`
+	SI    JSONValue `json:"si"`
+	// ListSI holds the SI values of an input that is a list; SI is then
+	// its element of largest magnitude.
+	ListSI      []float64 `json:"list_si,omitempty"`
 	Description string    `json:"description,omitempty"`
 	Source      string    `json:"source,omitempty"`
 	// Instance names the template instance the input belongs to;
@@ -334,8 +337,8 @@ func registers(pkg *project.Package) JSONRegisters {
 			}
 			v, u := InputText(st)
 			r.Inputs = append(r.Inputs, JSONInput{Sheet: s.Path(), Name: st.Name, Pos: st.Pos, Value: v, Unit: u,
-				SI: JSONValue{Value: s.Calc.Result(st).Value, Unit: st.Type.Dim.SIUnits()}, Description: st.Description, Source: st.Source,
-				Instance: st.Instance, Overridden: st.Overridden})
+				SI: JSONValue{Value: s.Calc.Result(st).Value, Unit: st.Type.Dim.SIUnits()}, ListSI: s.Calc.Result(st).List,
+				Description: st.Description, Source: st.Source, Instance: st.Instance, Overridden: st.Overridden})
 		}
 		for _, a := range s.Calc.Assumptions {
 			ja := JSONAssumption{Sheet: s.Path(), ID: a.ID, Text: a.Text, Pos: a.Pos, Dependents: []JSONRef{}}

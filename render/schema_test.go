@@ -349,6 +349,16 @@ func TestRealOutputValidates(t *testing.T) {
 						if fs, _ := sh.(map[string]any)["functions"].([]any); len(fs) != 2 {
 							return "the sheet should list its two functions"
 						}
+						found := false
+						for _, in := range doc["registers"].(map[string]any)["inputs"].([]any) {
+							if m := in.(map[string]any); m["name"] == "phi_k" {
+								l, _ := m["list_si"].([]any)
+								found = len(l) == 4
+							}
+						}
+						if !found {
+							return "the inputs register should carry phi_k's four elements"
+						}
 						return ""
 					}
 				}
