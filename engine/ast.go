@@ -23,13 +23,14 @@ type Expr interface {
 	base() *node
 }
 
-// Shape says how many values a node holds: one (a scalar) today; lists and
-// sampled series are the shapes to come.
+// Shape says how many values a node holds: one (a scalar), or a list of
+// values of one dimension; sampled series are the shape to come.
 type Shape uint8
 
 // The shapes.
 const (
 	Scalar Shape = iota
+	List
 )
 
 // Domain says what numbers a node holds: real today; complex phasors are
@@ -46,8 +47,10 @@ const (
 type Type struct {
 	Shape  Shape
 	Domain Domain
-	Dim    units.Dim
-	Kind   units.Kind
+	// Len is the number of elements of a list, fixed when it is checked.
+	Len  int
+	Dim  units.Dim
+	Kind units.Kind
 	// Const is set when the node's value is fixed at compile time (literals,
 	// built-in constants and arithmetic over them); Val holds it in SI.
 	Const bool
@@ -64,6 +67,8 @@ type node struct {
 	file      *string
 	line, col int32
 	T         Type
+	// at is where a list node's elements lie in a frame's values.
+	at int32
 	// fn evaluates the node over the sheet's slot values; set by compile.
 	fn evalFn
 }
@@ -152,14 +157,32 @@ func (u *Unary) children() []Expr  { return []Expr{u.X} }
 func (b *Binary) children() []Expr { return []Expr{b.X, b.Y} }
 func (c *Call) children() []Expr   { return c.Args }
 
-// Walk calls f for every node of the tree, parents before children.
+// Walk calls f for every node of the tree as written, parents before
+// children: a call of a sheet's function is visited with its arguments,
+// not the copy of the function's formula it runs.
 func Walk(e Expr, f func(Expr)) {
 	if e == nil {
 		return
 	}
 	f(e)
-	for _, c := range e.children() {
+	kids := e.children()
+	if a, ok := e.(*Apply); ok {
+		kids = a.Args
+	}
+	for _, c := range kids {
 		Walk(c, f)
+	}
+}
+
+// walkAll is Walk into the bodies of calls of the sheet's functions too:
+// every node that is checked and compiled.
+func walkAll(e Expr, f func(Expr)) {
+	if e == nil {
+		return
+	}
+	f(e)
+	for _, c := range e.children() {
+		walkAll(c, f)
 	}
 }
 
@@ -180,6 +203,8 @@ func Precedence(e Expr) int {
 		}
 	case *Unary:
 		return 3
+	case *Choice, *Range:
+		return 0 // written in parentheses inside any operation
 	}
 	return 5
 }

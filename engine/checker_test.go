@@ -20,6 +20,14 @@ func outcome(calc *engine.Calc, st *engine.Statement) string {
 		if st.Kind == engine.Use {
 			return "ok"
 		}
+		if r.List != nil {
+			// A list: "ok [1.000, 2.000] mWb".
+			var els []string
+			for _, x := range r.List {
+				els = append(els, units.FormatNumber(r.Shown.FromSI(x), 4))
+			}
+			return fmt.Sprintf("ok [%s] %s", strings.Join(els, ", "), r.Shown.Symbol)
+		}
 		return fmt.Sprintf("ok %s %s", units.FormatNumber(r.Shown.FromSI(r.Value), r.Digits(4)), r.Shown.Symbol)
 	case engine.Pass, engine.Fail:
 		s := r.Status.String()

@@ -44,6 +44,15 @@ func constant(c float64) evalFn { return func([]float64) float64 { return c } }
 
 func compileNode(e Expr) evalFn {
 	t := e.Type()
+	if c, ok := e.(*Choice); ok {
+		return compileChoice(c)
+	}
+	if a, ok := e.(*Apply); ok {
+		return compileApply(a)
+	}
+	if t.IsList() {
+		return compileList(e)
+	}
 	if t.Const && !math.IsNaN(t.Val) && !math.IsInf(t.Val, 0) {
 		return constant(t.Val)
 	}
@@ -68,6 +77,8 @@ func compileNode(e Expr) evalFn {
 		return compileBinary(n)
 	case *Call:
 		return compileCall(n)
+	case *Index:
+		return compileIndex(n)
 	}
 	return constant(math.NaN())
 }
@@ -232,7 +243,7 @@ func compilePow(x evalFn, exp Expr) evalFn {
 }
 
 func slotOf(e Expr) (int, bool) {
-	if r, ok := e.(*Ref); ok && r.Target != nil && !r.T.Const {
+	if r, ok := e.(*Ref); ok && r.Target != nil && !r.T.Const && !r.T.IsList() {
 		return r.Target.slot, true
 	}
 	return 0, false
@@ -246,22 +257,33 @@ func constOf(e Expr) (float64, bool) {
 	return 0, false
 }
 
+// tableReader reads a table call's y column at one x: between rows for
+// interp and spline, in the matching row for pick (NaN when none is).
+func tableReader(n *Call) func(float64) float64 {
+	if n.table != nil {
+		return n.table.at
+	}
+	ix, ys := newExactIndex(n.x), n.y
+	return func(x float64) float64 {
+		if i := ix.find(x); i >= 0 {
+			return ys.Values[i]
+		}
+		return math.NaN()
+	}
+}
+
 func compileCall(n *Call) evalFn {
 	if n.Func.table != "" {
-		x := compile(n.Args[2])
-		if n.table != nil {
-			ip := n.table
-			return func(v []float64) float64 { return ip.at(x(v)) }
+		x, read := compile(n.Args[2]), tableReader(n)
+		if n.Args[2].Type().IsList() {
+			return compileTableList(n, x, read)
 		}
-		ix, ys := newExactIndex(n.x), n.y
-		return func(v []float64) float64 {
-			if i := ix.find(x(v)); i >= 0 {
-				return ys.Values[i]
-			}
-			return math.NaN()
-		}
+		return func(v []float64) float64 { return read(x(v)) }
 	}
 	f := n.Func
+	if f.reduce != nil && n.Args[0].Type().IsList() {
+		return compileReduce(n)
+	}
 	args := make([]evalFn, len(n.Args))
 	for i, a := range n.Args {
 		args[i] = fnOf(a)

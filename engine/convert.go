@@ -78,6 +78,36 @@ func (c *converter) convert(n syntax.Node) Expr {
 		return e
 	case *syntax.Call:
 		return c.call(n, pos)
+	case *syntax.List:
+		e := &ListLit{}
+		e.setPos(pos)
+		for _, x := range n.Elems {
+			e.Elems = append(e.Elems, c.convert(x))
+		}
+		return e
+	case *syntax.Range:
+		e := &Range{From: c.convert(n.From), To: c.convert(n.To)}
+		if n.Step != nil {
+			e.Step = c.convert(n.Step)
+		}
+		e.setPos(pos)
+		return e
+	case *syntax.Choice:
+		e := &Choice{Value: c.convert(n.Value), Other: c.convert(n.Other)}
+		cond, ok := c.convert(n.Cond).(*Binary)
+		if c.err != nil {
+			return nil
+		}
+		if !ok || !isComparison(cond.Op) {
+			return c.fail(n.Cond, "write a comparison after when, such as B <= 1.5 T", "the condition of a conditional value must be a comparison")
+		}
+		e.Cond = cond
+		e.setPos(pos)
+		return e
+	case *syntax.Index:
+		e := &Index{X: c.convert(n.X), I: c.convert(n.I)}
+		e.setPos(c.t.pos(n.Span().Start))
+		return e
 	}
 	return c.fail(n, "formulas use names, numbers with units, + - * / ^ ( ) and functions", "this is not a formula sheaf understands")
 }
@@ -100,11 +130,13 @@ func (c *converter) name(n *syntax.Name, pos diag.Pos) Expr {
 func (c *converter) call(n *syntax.Call, pos diag.Pos) Expr {
 	f, ok := functions[n.Name]
 	if !ok {
-		hint := "the functions are " + functionList()
-		if s := closest(n.Name, functionNames()); s != "" {
-			hint = "did you mean " + s + "? " + hint
+		// A function of the sheet's own, or none: applyFunctions says.
+		a := &Apply{Name: n.Name}
+		a.setPos(pos)
+		for _, x := range n.Args {
+			a.Args = append(a.Args, c.convert(x))
 		}
-		return c.fail(n, hint, "unknown function %s", n.Name)
+		return a
 	}
 	e := &Call{Name: n.Name, Func: f}
 	e.setPos(pos)

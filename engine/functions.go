@@ -28,6 +28,7 @@ const (
 	halfArg                    // sqrt
 	plainOne                   // exp, ln, sin, round
 	angle                      // asin, acos, atan, atan2
+	powLen                     // product: the dimension to the power of the list's length
 )
 
 // Function is one entry of the function table. Adding a function is adding
@@ -52,6 +53,9 @@ type Function struct {
 	whole bool
 	f1    func(float64) float64
 	f2    func(float64, float64) float64
+	// reduce is the arithmetic of a reduction of a list (sum, mean, ...);
+	// min and max have it beside f2, for one list or several values.
+	reduce func([]float64) float64
 }
 
 func (f *Function) arity() string {
@@ -80,8 +84,15 @@ func two(name, doc string, args argRule, result resultRule, f func(float64, floa
 	return &Function{Name: name, MinArgs: 2, MaxArgs: 2, Usage: name + "(x, y)", Doc: doc, check: inferCall, args: args, result: result, f2: f}
 }
 
-func many(name, doc string, f func(float64, float64) float64) *Function {
-	return &Function{Name: name, MinArgs: 2, MaxArgs: -1, Usage: name + "(x, y, ...)", Doc: doc, check: inferCall, args: sameDim, result: likeArg, f2: f}
+func many(name, doc string, f func(float64, float64) float64, reduce func([]float64) float64) *Function {
+	return &Function{Name: name, MinArgs: 1, MaxArgs: -1, Usage: name + "(list) or " + name + "(x, y, ...)", Doc: doc, check: inferMinMax, args: sameDim, result: likeArg, f2: f, reduce: reduce}
+}
+
+// reduction is a function of one list that gives one value; its result
+// follows the rule, with product's dimension the element's to the
+// power of the list's length.
+func reduction(name, doc string, result resultRule, f func([]float64) float64) *Function {
+	return &Function{Name: name, MinArgs: 1, MaxArgs: 1, Usage: name + "(list)", Doc: doc, check: inferReduce, result: result, reduce: f}
 }
 
 // functions is the function table.
@@ -91,8 +102,13 @@ func init() {
 	for _, f := range []*Function{
 		one("sqrt", "square root; halves the exponents of the dimension", anyDim, halfArg, "square root of a negative number", math.Sqrt),
 		one("abs", "absolute value", anyDim, likeArg, "", math.Abs),
-		many("min", "smallest argument; all arguments of one dimension", math.Min),
-		many("max", "largest argument; all arguments of one dimension", math.Max),
+		many("min", "smallest element of a list, or smallest argument; all of one dimension", math.Min, minOf),
+		many("max", "largest element of a list, or largest argument; all of one dimension", math.Max, maxOf),
+		reduction("sum", "sum of the elements of a list", likeArg, sumOf),
+		reduction("product", "product of the elements of a list; the dimension to the power of the length", powLen, productOf),
+		reduction("mean", "arithmetic mean of the elements of a list", likeArg, meanOf),
+		reduction("rms", "root mean square of the elements of a list", likeArg, rmsOf),
+		reduction("count", "number of elements of a list", plainOne, countOf),
 		one("exp", "e to the power x; x a pure number", dimensionless, plainOne, "", math.Exp),
 		one("ln", "natural logarithm; x a pure number", dimensionless, plainOne, "logarithm of zero or a negative number", math.Log),
 		one("log10", "common logarithm; x a pure number", dimensionless, plainOne, "logarithm of zero or a negative number", math.Log10),

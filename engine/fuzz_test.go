@@ -34,6 +34,11 @@ func FuzzStatement(f *testing.F) {
 		"θ = 30 °\nk = sin(θ) * 2 µm",
 		"y [nm] = 1e306 m\ncheck 1e306 m <= 1 nm\nz = y",
 		"x = 1 m^99\ny = x*x\nw = 5 V * _q0",
+		"phi = [2.41 mWb, 2.38 mWb, 2.30 mWb]\nlambda = sum(phi)\nPhi_e = lambda / count(phi)\nb = phi[2] + phi[4]",
+		"k = 1 .. 12\nth = 0 deg .. 90 deg by 15 deg\ny = sin(th) * k[1 .. 7]\nc = [1 m, 2 s] + (1 .. 3)",
+		"a = [1, 2] + [1, 2, 3]\nm = max(a)\nr = rms(1 / (k - 3))\nk = 1 .. 5\ncheck a <= 3",
+		"B = 1.62 T\nk = 1 when B <= 1.5 T otherwise 1.5 T / B\ny = 1 / B when B > 2 T otherwise 0 / T\nz = (1 when k < 1 otherwise 2 s) * 2",
+		"k_p(nu) = sin(nu * y * pi / 2)\ny = 7 / 9\nw = k_p([1, 5, 7])\nf(x) = f(x)\ng(a, a) = a\nh = k_p(1 m) + k_p(1, 2) + nope(3)\nm(x) = n(x)\nn(x) = m(x) * x",
 	} {
 		f.Add(seed)
 	}
@@ -76,6 +81,10 @@ func FuzzStatement(f *testing.F) {
 			case engine.Errored, engine.Blocked:
 				if r.Err == nil {
 					t.Fatalf("%q: %v without a reason", st.Text, r.Status)
+				}
+			case engine.Pending:
+				if st.Kind != engine.FunctionDef {
+					t.Fatalf("%q: status %v after Evaluate", st.Text, r.Status)
 				}
 			default:
 				t.Fatalf("%q: status %v after Evaluate", st.Text, r.Status)

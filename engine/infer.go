@@ -21,6 +21,9 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 	if c, ok := e.(*Call); ok && c.Func.table != "" {
 		return c.Func.check(c) // the columns are data, not values to infer
 	}
+	if a, ok := e.(*Apply); ok {
+		return inferApply(a)
+	}
 	product := isProduct(e)
 	for _, c := range e.children() {
 		if err := inferNode(c, product); err != nil {
@@ -34,15 +37,24 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 	case *Quantity:
 		*t = Type{Dim: n.Unit.Dim, Kind: n.Unit.Kind, Const: true, Val: n.SI}
 	case *Ref:
-		if n.Column != nil {
-			return errAt(n.Pos(), "read it with interp("+n.Name+", ...), spline(...) or pick(...)",
-				"%s is a column of table %s, not a single value", n.Name, n.Column.Table.Name)
-		}
-		if n.Constant != nil {
+		switch {
+		case n.Column != nil:
+			// A column is a list of its rows.
+			*t = Type{Shape: List, Len: len(n.Column.Values), Dim: n.Column.Unit.Dim, Kind: n.Column.Unit.Kind}
+		case n.Constant != nil:
 			*t = Type{Dim: n.Constant.Dim, Const: true, Val: n.Constant.Value}
-		} else {
-			*t = Type{Dim: n.Target.Type.Dim, Kind: n.Target.Type.Kind, Count: n.Target.Type.Count}
+		default:
+			tt := n.Target.Type
+			*t = Type{Shape: tt.Shape, Len: tt.Len, Dim: tt.Dim, Kind: tt.Kind, Count: tt.Count}
 		}
+	case *ListLit:
+		return inferList(n)
+	case *Range:
+		return inferRange(n)
+	case *Index:
+		return inferIndex(n)
+	case *Choice:
+		return inferChoice(n)
 	case *Unary:
 		*t = *n.X.Type()
 		if n.Op == "-" {
@@ -53,6 +65,9 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 		}
 	case *Binary:
 		if err := inferBinary(n); err != nil {
+			return err
+		}
+		if err := inferListOperands(n); err != nil {
 			return err
 		}
 		if product && !inChain {
@@ -128,7 +143,8 @@ func inferTableCall(n *Call) *diag.Diagnostic {
 		}
 		n.table = ip
 	}
-	*n.Type() = Type{Dim: y.Column.Unit.Dim, Kind: y.Column.Unit.Kind}
+	// At a list of x, the table is read at each element.
+	*n.Type() = Type{Shape: at.Shape, Len: at.Len, Dim: y.Column.Unit.Dim, Kind: y.Column.Unit.Kind}
 	return nil
 }
 
@@ -290,6 +306,10 @@ func inferCall(n *Call) *diag.Diagnostic {
 	case angle:
 		t.Dim, t.Kind, t.Count = units.Dimensionless, units.Angle, false
 	}
+	if first.IsList() {
+		// A function of one number applies to each element of a list.
+		t.Shape, t.Len, t.Const = List, first.Len, false
+	}
 	if t.Const {
 		t.Val = evalConstCall(n)
 		if math.IsNaN(t.Val) || math.IsInf(t.Val, 0) {
@@ -303,8 +323,12 @@ func inferCall(n *Call) *diag.Diagnostic {
 // of its dimension and kind.
 func checkArg(n *Call, a Expr) *diag.Diagnostic {
 	f, at, first := n.Func, a.Type(), n.Args[0].Type()
-	if at.Shape != Scalar || at.Domain != Real {
-		return errAt(a.Pos(), "give it one real value", "%s takes one real value for each argument", n.Name)
+	if at.IsList() && f.f1 != nil {
+		// sqrt, sin, abs ... apply to each element; the rules below hold
+		// for the element.
+	} else if at.Shape != Scalar || at.Domain != Real {
+		return errAt(a.Pos(), "apply it to one element, as "+n.Name+"(x[1], ...), or reduce the list first, as "+n.Name+"(max(x), ...)",
+			"%s takes one real value for each argument; this is a list", n.Name)
 	}
 	switch f.args {
 	case dimensionless, angleArg:
@@ -334,6 +358,50 @@ func checkArg(n *Call, a Expr) *diag.Diagnostic {
 	case anyDim:
 		if at.Kind.IsAbsTemp() && f.result == halfArg {
 			return errAt(a.Pos(), "write the temperature in K", "cannot take the square root of an absolute temperature")
+		}
+	}
+	return nil
+}
+
+// inferMinMax checks min and max: of one list, its smallest or largest
+// element; of several single values, the smallest or largest of them.
+func inferMinMax(n *Call) *diag.Diagnostic {
+	if len(n.Args) == 1 {
+		if !n.Args[0].Type().IsList() {
+			return errAt(n.Args[0].Pos(), "give a list, as "+n.Name+"(phi), or two or more values, as "+n.Name+"(a, b)",
+				"%s of one single value is that value", n.Name)
+		}
+		return inferReduce(n)
+	}
+	return inferCall(n)
+}
+
+// inferReduce checks a reduction: its argument is a list, and its result
+// one value of the element's dimension (product: to the power of the
+// length; count: a pure number).
+func inferReduce(n *Call) *diag.Diagnostic {
+	a := n.Args[0].Type()
+	if !a.IsList() {
+		return errAt(n.Args[0].Pos(), "give it a list, as "+n.Name+"(phi) or "+n.Name+"([a, b, c]); single values add with +",
+			"%s works on the elements of a list, but this is a single value", n.Name)
+	}
+	t := n.Type()
+	*t = Type{Dim: a.Dim, Kind: a.Kind, Count: a.Count && n.Name != "mean" && n.Name != "rms"}
+	if a.Kind.IsAbsTemp() && (n.Name == "sum" || n.Name == "product" || n.Name == "rms") {
+		return errAt(n.Args[0].Pos(), "work with temperature differences in K", "cannot take the %s of absolute temperatures (°C or °F)", n.Name)
+	}
+	switch n.Func.result {
+	case plainOne:
+		*t = Type{Dim: units.Dimensionless, Kind: units.Plain, Count: true}
+	case powLen:
+		d, ok := a.Dim.PowFits(float64(a.Len))
+		if !ok {
+			return errAt(n.Pos(), "multiply fewer quantities with units, or make them pure numbers first",
+				"the product of %d values of %s has no unit that sheaf can hold", a.Len, units.Describe(a.Dim))
+		}
+		t.Dim, t.Kind = d, units.Plain
+		if units.KindPowFits(a.Kind, a.Len) {
+			t.Kind = a.Kind.Exponents().Pow(a.Len)
 		}
 	}
 	return nil

@@ -23,6 +23,9 @@ type Program struct {
 	// stepOf maps a slot to its step, or -1 for a statement that is not
 	// evaluated (an error, a use, a parameter).
 	stepOf []int32
+	// lists is the number of list elements a frame holds after the
+	// statements' slots.
+	lists int
 }
 
 // step is one statement's compiled code.
@@ -34,7 +37,10 @@ type step struct {
 }
 
 // Frame holds the results of one run of a Program: a value, a status and,
-// for checks, both sides, by statement slot, all in coherent SI.
+// for checks, both sides, by statement slot, all in coherent SI. Values
+// goes on past the slots with the elements of the sheet's lists, each at
+// a place fixed when the sheet was checked; a list statement's own slot
+// holds its length.
 type Frame struct {
 	Values      []float64
 	Status      []Status
@@ -57,11 +63,12 @@ type Set struct {
 // buildProgram collects the compiled statements of a checked sheet.
 func (s *Calc) buildProgram() *Program {
 	n := len(s.Statements)
-	p := &Program{stmts: s.Statements, initial: make([]Status, n), inputs: map[string]int{}, stepOf: make([]int32, n), after: make([][]int32, n)}
+	p := &Program{stmts: s.Statements, initial: make([]Status, n), inputs: map[string]int{}, stepOf: make([]int32, n), after: make([][]int32, n), lists: s.lists.used}
 	for i, st := range s.Statements {
 		p.initial[i] = st.Verdict
 		p.stepOf[i] = -1
-		if st.Kind == Definition && st.Name != "" && st.IsInput() && st.compiled {
+		// A list input keeps its length: a run sets single values only.
+		if st.Kind == Definition && st.Name != "" && st.IsInput() && st.compiled && !st.Type.IsList() {
 			p.inputs[st.Name] = i
 		}
 	}
@@ -104,7 +111,7 @@ func (p *Program) Input(name string) (int, bool) {
 // NewFrame returns a frame that has not run.
 func (p *Program) NewFrame() *Frame {
 	n := len(p.initial)
-	f := &Frame{Values: make([]float64, n), Status: slices.Clone(p.initial), Left: make([]float64, n), Right: make([]float64, n),
+	f := &Frame{Values: make([]float64, n+p.lists), Status: slices.Clone(p.initial), Left: make([]float64, n), Right: make([]float64, n),
 		Errs: make([]*diag.Diagnostic, n), dirty: make([]bool, len(p.steps))}
 	for _, st := range f.Status {
 		if !settled(st) {

@@ -29,6 +29,7 @@ type Calc struct {
 	Tables []*LookupTable
 
 	byName  map[string]*Statement
+	lists   arena // the places of the sheet's lists in a frame
 	prog    *Program
 	results []Result // by slot, from Evaluate
 	// names are the sheet's names and the constants, sorted, once an
@@ -83,6 +84,7 @@ func CompileWith(src SheetSource, opt Options) *Calc {
 	}
 	x := &expander{sheet: s, resolve: opt.Resolve, stack: []string{src.Path}, statements: len(parsed)}
 	s.Statements = x.expand(parsed, src.Path)
+	s.applyFunctions()
 	for _, ts := range append(src.Tables, x.tables...) {
 		t := readTable(ts, ts.Name)
 		if t.Err != nil {
@@ -107,6 +109,7 @@ func CompileWith(src SheetSource, opt Options) *Calc {
 			}
 		}
 	}
+	s.lists.base = len(s.Statements)
 	s.define()
 	s.resolveTakes(opt.Take)
 	s.resolve()
@@ -142,7 +145,7 @@ func (s *Calc) define() {
 		}
 	}
 	for _, st := range s.Statements {
-		if (st.Kind != Definition && st.Kind != Param && st.Kind != Take) || st.Name == "" {
+		if (st.Kind != Definition && st.Kind != Param && st.Kind != Take && st.Kind != FunctionDef) || st.Name == "" {
 			continue
 		}
 		if inst, clash := instances[st.Name]; clash && st.Instance == "" {
@@ -169,14 +172,18 @@ func (s *Calc) resolve() {
 		// linkSolves sorts them out once every statement is resolved.
 		inRelation := map[Expr]bool{}
 		if st.solve != nil {
-			Walk(st.solve.relation, func(e Expr) { inRelation[e] = true })
+			walkAll(st.solve.relation, func(e Expr) { inRelation[e] = true })
 		}
-		Walk(st.Expr, func(e Expr) {
+		walkAll(st.Expr, func(e Expr) {
 			r, ok := e.(*Ref)
-			if !ok || st.Verdict == Errored {
+			if !ok || st.Verdict == Errored || st.Kind == FunctionDef && slices.Contains(st.Params, r.Name) {
 				return
 			}
 			if target, ok := s.byName[r.Name]; ok {
+				if target.Kind == FunctionDef {
+					s.fail(st, errAt(r.Pos(), "call it with its arguments: "+target.Name+"("+strings.Join(target.Params, ", ")+")", "%s is a function of the sheet, not a value", r.Name))
+					return
+				}
 				r.Target = target
 				if inRelation[e] {
 					if !containsStmt(st.solve.refs, target) {
@@ -338,6 +345,10 @@ func (s *Calc) check(st *Statement) {
 	case Use:
 		st.Verdict = OK // the instance's own statements carry its results
 		return
+	case FunctionDef:
+		// A definition has no value of its own and stays pending: each
+		// call is checked and evaluated with its arguments.
+		return
 	case Param:
 		s.fail(st, errAt(st.NamePos, "this sheet is a template: use it from another sheet with use ... with "+st.Name+" = ...",
 			"%s is a template parameter and has no value here", st.Name))
@@ -393,11 +404,19 @@ func (s *Calc) check(st *Statement) {
 		}
 		st.Type.Kind = shownKind(st.Type.Kind, st.Display.Kind)
 	}
+	if err := s.lists.layout(st.Expr); err != nil {
+		s.fail(st, err)
+		return
+	}
 	if st.Kind == Check {
 		cmp := st.Compare()
 		st.fn, st.right = compile(cmp.X), compile(cmp.Y)
 	} else {
 		st.fn = compile(st.Expr)
+		if st.Type.IsList() {
+			at, n := listAt(st.Expr)
+			st.fn = listStep(st.fn, at, n)
+		}
 	}
 	st.compiled = true
 }
@@ -405,6 +424,11 @@ func (s *Calc) check(st *Statement) {
 // checkTake readies a result taken from another sheet: its value is that
 // sheet's, fixed for this sheet's runs.
 func (s *Calc) checkTake(st *Statement) {
+	if st.Type.IsList() {
+		s.fail(st, errAt(st.Pos, "take a single value, such as sum(...) or max(...) of the list, named in the other sheet",
+			"%s in %s is a list; take reads single values", st.Remote, st.TakenPath))
+		return
+	}
 	if st.taken.Status != OK {
 		st.Verdict = Blocked
 		st.Problem = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: %s in %s has no value", st.Remote, st.TakenPath)}
@@ -489,6 +513,10 @@ func (p *Program) Results(f *Frame) []Result {
 		switch r.Status {
 		case OK:
 			r.Value = f.Values[slot]
+			if st.Type.IsList() {
+				r.List = slices.Clone(st.listIn(f.Values))
+				r.Value = largest(r.List)
+			}
 			r.Shown = shownUnit(st, r.Value, out)
 			if sv := st.solve; sv != nil {
 				r.Shown = solveUnit(st, fnOf(sv.lo)(f.Values), fnOf(sv.hi)(f.Values))
@@ -537,11 +565,11 @@ func (s *Calc) Release() {
 	for _, st := range s.Statements {
 		st.fn, st.right = nil, nil
 		if st.Expr != nil {
-			Walk(st.Expr, func(e Expr) { e.base().fn = nil })
+			walkAll(st.Expr, func(e Expr) { e.base().fn = nil })
 		}
 		if st.solve != nil {
 			for _, e := range []Expr{st.solve.lo, st.solve.hi, st.solve.relation} {
-				Walk(e, func(e Expr) { e.base().fn = nil })
+				walkAll(e, func(e Expr) { e.base().fn = nil })
 			}
 			st.solve.inner = nil
 		}
@@ -596,6 +624,10 @@ func shownUnit(st *Statement, v float64, res []Result) units.Unit {
 	switch q := e.(type) {
 	case *Quantity:
 		return q.Unit
+	case *ListLit:
+		if u, ok := commonUnit(q); ok {
+			return u
+		}
 	case *Number:
 		return units.One
 	case *Ref:
@@ -630,31 +662,53 @@ func checkUnit(st *Statement, l, r float64, res []Result) units.Unit {
 	return units.AutoUnit(math.Max(math.Abs(l), math.Abs(r)), st.Type.Dim, st.Type.Kind)
 }
 
+// tableProblem explains a table read that has no value at x; where says
+// which element of a list x is, or is empty.
+func tableProblem(c *Call, x float64, where string) *diag.Diagnostic {
+	shown := units.FormatNumber(c.x.Unit.FromSI(x), 4)
+	if c.x.Unit.Symbol != "1" {
+		shown += " " + c.x.Unit.Symbol
+	}
+	if c.Func.table == "exact" {
+		return errAt(c.Args[2].Pos(), "add the row, or read between rows with interp",
+			"no row of table %s has %s = %s%s", c.x.Table.Name, c.x.Name, shown, where)
+	}
+	return errAt(c.Args[2].Pos(), "extend the table, or write "+c.Name+"(..., extrapolate) to extend its end segments",
+		"%s = %s%s lies outside table %s (%s from %s)", c.x.Name, shown, where, c.x.Table.Name, c.x.Name, rangeText(c.x))
+}
+
 // diagnose finds the operation that first produced a non-finite value and
 // says what went wrong there.
 func diagnose(e Expr, v []float64) *diag.Diagnostic {
+	if c, ok := e.(*Choice); ok {
+		return diagnoseChoice(c, v)
+	}
+	if a, ok := e.(*Apply); ok {
+		for _, x := range a.Args {
+			if !valueOK(x, v) {
+				return diagnose(x, v)
+			}
+		}
+		return a.relocate(diagnose(a.Body, v))
+	}
 	children := e.children()
 	if c, ok := e.(*Call); ok && c.Func.table != "" {
 		children = c.Args[2:3] // the columns are data
 	}
 	for _, c := range children {
-		if !finite(fnOf(c)(v)) {
+		if !valueOK(c, v) {
 			return diagnose(c, v)
 		}
 	}
+	if e.Type().IsList() {
+		return diagnoseList(e, v)
+	}
+	if x, ok := e.(*Index); ok {
+		return indexProblem(x, v)
+	}
 	result := fnOf(e)(v)
 	if c, ok := e.(*Call); ok && c.Func.table != "" && math.IsNaN(result) {
-		x := fnOf(c.Args[2])(v)
-		shown := units.FormatNumber(c.x.Unit.FromSI(x), 4)
-		if c.x.Unit.Symbol != "1" {
-			shown += " " + c.x.Unit.Symbol
-		}
-		if c.Func.table == "exact" {
-			return errAt(c.Args[2].Pos(), "add the row, or read between rows with interp",
-				"no row of table %s has %s = %s", c.x.Table.Name, c.x.Name, shown)
-		}
-		return errAt(c.Args[2].Pos(), "extend the table, or write "+c.Name+"(..., extrapolate) to extend its end segments",
-			"%s = %s lies outside table %s (%s from %s)", c.x.Name, shown, c.x.Table.Name, c.x.Name, rangeText(c.x))
+		return tableProblem(c, fnOf(c.Args[2])(v), "")
 	}
 	switch n := e.(type) {
 	case *Binary:

@@ -233,6 +233,14 @@ func (s *Calc) checkSolveBounds(st *Statement) *diag.Diagnostic {
 		}
 	}
 	lo, hi := sv.lo.Type(), sv.hi.Type()
+	for _, b := range []Expr{sv.lo, sv.hi} {
+		if b.Type().IsList() {
+			return errAt(b.Pos(), "give one value, such as min(...) or max(...) of the list", "a bound of solve is one value; this is a list")
+		}
+		if err := s.lists.layout(b); err != nil {
+			return err
+		}
+	}
 	if lo.Dim != hi.Dim {
 		return errAt(sv.hi.Pos(), "give both bounds in units of one kind", "the bounds of solve are %s and %s", units.Describe(lo.Dim), units.Describe(hi.Dim))
 	}
@@ -262,6 +270,11 @@ func (s *Calc) checkSolveRelations() {
 			continue
 		}
 		if err := infer(st.solve.relation); err != nil {
+			st.compiled = false
+			s.fail(st, err)
+			continue
+		}
+		if err := s.lists.layout(st.solve.relation); err != nil {
 			st.compiled = false
 			s.fail(st, err)
 			continue

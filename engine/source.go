@@ -101,15 +101,16 @@ func endsWithComma(s string) bool {
 	return strings.HasSuffix(strings.TrimSpace(s), ",")
 }
 
-// parenDepth counts open parentheses in the formula part of a line (before
-// any ; annotation or # comment).
+// parenDepth counts open parentheses and brackets in the formula part of
+// a line (before any ; annotation or # comment), so that a list may run
+// on over indented lines.
 func parenDepth(s string) int {
 	d := 0
 	for _, r := range s {
 		switch r {
-		case '(':
+		case '(', '[':
 			d++
-		case ')':
+		case ')', ']':
 			d--
 		case ';', '#':
 			return d

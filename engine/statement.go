@@ -27,6 +27,9 @@ const (
 	// result of another sheet of the package, live, under a name of this
 	// sheet's own.
 	Take
+	// FunctionDef is `name(p, q) = formula`: a function of the sheet's
+	// own, checked at each call with the call's arguments.
+	FunctionDef
 )
 
 // Status is how a statement came out.
@@ -74,6 +77,8 @@ type Statement struct {
 
 	Name    string // definitions only
 	NamePos diag.Pos
+	// Params are a function's parameters, in order.
+	Params []string
 
 	// Display is the unit the author asked for, if any.
 	Display     *units.Unit
@@ -175,9 +180,13 @@ func (s *Statement) Compare() *Binary {
 }
 
 // LiteralText returns a literal as its author wrote it: the number (with
-// its sign) and the unit symbol, "" for a pure number. ok is false when e
-// is not a literal.
+// its sign) and the unit symbol, "" for a pure number. A list of literals
+// in one unit is a literal too: "[2.41, 2.38, 2.30]" and "mWb". ok is
+// false when e is not a literal.
 func LiteralText(e Expr) (value, unit string, ok bool) {
+	if l, isList := e.(*ListLit); isList {
+		return listLiteralText(l)
+	}
 	sign := ""
 	if u, isUnary := e.(*Unary); isUnary {
 		e = u.X
@@ -219,6 +228,10 @@ type Result struct {
 	// Err is the statement's own error, or for a blocked statement the
 	// reason it was not evaluated.
 	Err *diag.Diagnostic
+	// List holds the SI values of a list's elements, nil for a single
+	// value; Value is then the element of largest magnitude, which picks
+	// the unit they are shown in.
+	List []float64
 
 	count bool // a definition whose value is a whole-number count
 }

@@ -1,6 +1,7 @@
 package engine
 
 import (
+	"slices"
 	"sort"
 	"strings"
 	"unicode"
@@ -154,14 +155,14 @@ func parseOverrides(st *Statement, t *text, j, end int) *diag.Diagnostic {
 }
 
 // topLevelComma returns the offset of the first comma in r[from:end]
-// outside parentheses, or end.
+// outside parentheses and list brackets, or end.
 func topLevelComma(r []rune, from, end int) int {
 	depth := 0
 	for i := from; i < end; i++ {
 		switch r[i] {
-		case '(':
+		case '(', '[':
 			depth++
-		case ')':
+		case ')', ']':
 			depth--
 		case ',':
 			if depth == 0 {
@@ -292,7 +293,7 @@ func (x *expander) adopt(use *Statement, src SheetSource) map[string]bool {
 func localNames(body []*Statement) map[string]*Statement {
 	local := map[string]*Statement{}
 	for _, st := range body {
-		if st.Name != "" && (st.Kind == Definition || st.Kind == Param) && st.Instance == "" {
+		if st.Name != "" && (st.Kind == Definition || st.Kind == Param || st.Kind == FunctionDef) && st.Instance == "" {
 			local[st.Name] = st
 		}
 	}
@@ -368,8 +369,13 @@ func nameInstance(use *Statement, body []*Statement, mine map[*Statement]bool, t
 		}
 		if !mine[st] {
 			Walk(st.Expr, func(e Expr) {
-				if r, ok := e.(*Ref); ok {
-					r.Name = rename(r.Name)
+				switch n := e.(type) {
+				case *Ref:
+					if st.Kind != FunctionDef || !slices.Contains(st.Params, n.Name) {
+						n.Name = rename(n.Name)
+					}
+				case *Apply:
+					n.Name = rename(n.Name)
 				}
 			})
 		}

@@ -43,12 +43,15 @@ type JSONRegisters struct {
 
 // JSONInput is a row of the inputs register.
 type JSONInput struct {
-	Sheet       string    `json:"sheet"`
-	Name        string    `json:"name"`
-	Pos         diag.Pos  `json:"pos"`
-	Value       string    `json:"value"` // as written
-	Unit        string    `json:"unit"`
-	SI          JSONValue `json:"si"`
+	Sheet string    `json:"sheet"`
+	Name  string    `json:"name"`
+	Pos   diag.Pos  `json:"pos"`
+	Value string    `json:"value"` // as written
+	Unit  string    `json:"unit"`
+	SI    JSONValue `json:"si"`
+	// ListSI holds the SI values of an input that is a list; SI is then
+	// its element of largest magnitude.
+	ListSI      []float64 `json:"list_si,omitempty"`
 	Description string    `json:"description,omitempty"`
 	Source      string    `json:"source,omitempty"`
 	// Instance names the template instance the input belongs to;
@@ -105,6 +108,20 @@ type JSONSheet struct {
 	Meta       sheets.Meta     `json:"meta"`
 	Tables     []JSONTable     `json:"tables"`
 	Statements []JSONStatement `json:"statements"`
+	Functions  []JSONFunction  `json:"functions,omitempty"`
+}
+
+// JSONFunction is a function of the sheet's own: its definition, which has
+// no value; each call is checked and evaluated in the statement it is in.
+type JSONFunction struct {
+	Name        string    `json:"name"`
+	Params      []string  `json:"params"`
+	Pos         diag.Pos  `json:"pos"`
+	Text        string    `json:"text"`
+	Formula     string    `json:"formula"`
+	Description string    `json:"description,omitempty"`
+	Instance    string    `json:"instance,omitempty"`
+	Error       *JSONDiag `json:"error,omitempty"`
 }
 
 // JSONTable is a named table of the sheet, or of one of its instances.
@@ -142,6 +159,7 @@ type JSONStatement struct {
 	QuantityKind string     `json:"quantity_kind,omitempty"`
 	SI           *JSONValue `json:"si,omitempty"`
 	Display      *JSONValue `json:"display,omitempty"`
+	List         *JSONList  `json:"list,omitempty"`
 	Check        *JSONCheck `json:"check,omitempty"`
 	Description  string     `json:"description,omitempty"`
 	Source       string     `json:"source,omitempty"`
@@ -166,6 +184,15 @@ type JSONStatement struct {
 type JSONTrace struct {
 	Inputs      []string `json:"inputs"`
 	Assumptions []string `json:"assumptions"`
+}
+
+// JSONList is a list's elements, in coherent SI and as the page shows
+// them, all in one unit each.
+type JSONList struct {
+	Length  int       `json:"length"`
+	SI      []float64 `json:"si"`
+	Display []float64 `json:"display"`
+	Text    []string  `json:"text"`
 }
 
 // JSONValue is a number in a unit.
@@ -310,8 +337,8 @@ func registers(pkg *project.Package) JSONRegisters {
 			}
 			v, u := InputText(st)
 			r.Inputs = append(r.Inputs, JSONInput{Sheet: s.Path(), Name: st.Name, Pos: st.Pos, Value: v, Unit: u,
-				SI: JSONValue{Value: s.Calc.Result(st).Value, Unit: st.Type.Dim.SIUnits()}, Description: st.Description, Source: st.Source,
-				Instance: st.Instance, Overridden: st.Overridden})
+				SI: JSONValue{Value: s.Calc.Result(st).Value, Unit: st.Type.Dim.SIUnits()}, ListSI: s.Calc.Result(st).List,
+				Description: st.Description, Source: st.Source, Instance: st.Instance, Overridden: st.Overridden})
 		}
 		for _, a := range s.Calc.Assumptions {
 			ja := JSONAssumption{Sheet: s.Path(), ID: a.ID, Text: a.Text, Pos: a.Pos, Dependents: []JSONRef{}}
@@ -351,9 +378,25 @@ func jsonSheet(s *project.Sheet, opt Options) JSONSheet {
 		js.Tables = append(js.Tables, jt)
 	}
 	for _, st := range s.Calc.Statements {
+		if st.Kind == engine.FunctionDef {
+			js.Functions = append(js.Functions, jsonFunction(st))
+			continue
+		}
 		js.Statements = append(js.Statements, jsonStatement(s.Calc, st, digits))
 	}
 	return js
+}
+
+func jsonFunction(st *engine.Statement) JSONFunction {
+	f := JSONFunction{Name: st.Name, Params: st.Params, Pos: st.Pos, Text: st.Text, Formula: st.Formula, Description: st.Description, Instance: st.Instance}
+	if f.Params == nil {
+		f.Params = []string{}
+	}
+	if st.Problem != nil {
+		d := jsonDiag(*st.Problem)
+		f.Error = &d
+	}
+	return f
 }
 
 // Document builds the JSON form of a package in memory.
@@ -443,6 +486,9 @@ func jsonStatement(calc *engine.Calc, st *engine.Statement, digits int) JSONStat
 		j.SI = &JSONValue{Value: res.Value, Unit: st.Type.Dim.SIUnits()}
 		shown := res.Shown.FromSI(res.Value)
 		j.Display = &JSONValue{Value: shown, Unit: res.Shown.Symbol, Text: units.FormatNumber(shown, res.Digits(digits))}
+		if res.List != nil {
+			j.List = jsonList(res, digits)
+		}
 	case engine.Pass, engine.Fail:
 		l, r := res.Shown.FromSI(res.Left), res.Shown.FromSI(res.Right)
 		c := &JSONCheck{
@@ -457,4 +503,14 @@ func jsonStatement(calc *engine.Calc, st *engine.Statement, digits int) JSONStat
 		j.Check = c
 	}
 	return j
+}
+
+// jsonList writes a list's elements in SI and in the unit they are shown in.
+func jsonList(res engine.Result, digits int) *JSONList {
+	l := &JSONList{Length: len(res.List), SI: res.List, Display: make([]float64, len(res.List)), Text: make([]string, len(res.List))}
+	for i, x := range res.List {
+		l.Display[i] = res.Shown.FromSI(x)
+		l.Text[i] = units.FormatNumber(l.Display[i], elementDigits(res, x, digits))
+	}
+	return l
 }

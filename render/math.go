@@ -116,13 +116,12 @@ func (w *mathWriter) expr(e engine.Expr, _ int) {
 		switch {
 		case n.Constant != nil:
 			w.b.WriteString(mi(n.Constant.Symbol))
-		case w.mode == substituted && n.Target != nil && n.Target.IsInput():
+		case w.mode == substituted && n.Target != nil && n.Target.IsInput() && !n.Target.Type.IsList():
 			// An input reads as the author wrote it, so the checker can match it.
 			v, u := InputText(n.Target)
 			w.b.WriteString(numberMathML(v) + unitMathML(u))
 		case w.mode == substituted && n.Target != nil:
-			res := w.calc.Result(n.Target)
-			w.b.WriteString(valueMathML(res.Value, res.Shown, res.Digits(w.digits)))
+			w.b.WriteString(resultMathML(w.calc.Result(n.Target), w.digits))
 		default:
 			w.b.WriteString(symbolMathML(n.Name))
 		}
@@ -139,6 +138,8 @@ func (w *mathWriter) expr(e engine.Expr, _ int) {
 		w.binary(n)
 	case *engine.Call:
 		w.call(n)
+	default:
+		_ = w.list(e) || w.choice(e) || w.apply(e)
 	}
 }
 

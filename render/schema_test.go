@@ -75,6 +75,14 @@ func loadDemo(t *testing.T, dir string) *project.Package {
 // brokenSheets is a package with errors of many kinds, so that statements
 // with status error and blocked, warnings, and the front matter's odd
 // corners all reach the document.
+// listSheets is a sheet of lists: a short one, a long one and a
+// reduction (invented values).
+var listSheets = map[string][]byte{
+	"turns.md": []byte("# Field coil turns\n\n```sheaf\nphi_k = [2.41 mWb, 2.38 mWb, 2.30 mWb, 2.17 mWb] ; flux linked by each turn group\n" +
+		"lambda = sum(phi_k) ; flux linkage\ntheta [deg] = 0 deg .. 180 deg by 10 deg ; rotor positions\n" +
+		"k_p(nu) = sin(nu * 7 / 9 * pi / 2) ; pitch factor\nk_p5 = k_p(5) ; fifth harmonic\nbad(x, x) = x\n```\n"),
+}
+
 var brokenSheets = map[string][]byte{
 	"a-names.md": []byte(`---
 title: Broken on purpose
@@ -326,6 +334,36 @@ func TestRealOutputValidates(t *testing.T) {
 				}
 			}
 			return ""
+		}},
+		{"package with lists", func(t *testing.T) []byte {
+			return withAudit(t, project.FromFiles("lists", listSheets))
+		}, func(doc map[string]any) string {
+			for _, sh := range doc["sheets"].([]any) {
+				for _, st := range sh.(map[string]any)["statements"].([]any) {
+					m := st.(map[string]any)
+					if m["name"] == "phi_k" {
+						l, ok := m["list"].(map[string]any)
+						if !ok || l["length"] != json.Number("4") || len(l["text"].([]any)) != 4 {
+							return "phi_k should carry its four elements"
+						}
+						if fs, _ := sh.(map[string]any)["functions"].([]any); len(fs) != 2 {
+							return "the sheet should list its two functions"
+						}
+						found := false
+						for _, in := range doc["registers"].(map[string]any)["inputs"].([]any) {
+							if m := in.(map[string]any); m["name"] == "phi_k" {
+								l, _ := m["list_si"].([]any)
+								found = len(l) == 4
+							}
+						}
+						if !found {
+							return "the inputs register should carry phi_k's four elements"
+						}
+						return ""
+					}
+				}
+			}
+			return "no statement phi_k"
 		}},
 		{"package with no files", func(t *testing.T) []byte {
 			data, err := render.JSON(project.FromFiles("empty", map[string][]byte{}), render.Options{})

@@ -17,6 +17,10 @@ func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int)
 		writeUse(w, calc, st, digits)
 		return
 	}
+	if st.Kind == engine.FunctionDef {
+		writeFunction(w, calc, st, digits)
+		return
+	}
 	switch res.Status {
 	case engine.Errored, engine.Blocked, engine.Pending:
 		writeProblem(w, st, res)
@@ -53,10 +57,11 @@ func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int)
 		// A name that only repeats an input already shows its value.
 		if r, ok := st.Expr.(*engine.Ref); !ok || r.Target == nil || !r.Target.IsInput() {
 			w.WriteString("<mo>=</mo>")
-			w.WriteString(valueMathML(res.Value, res.Shown, res.Digits(digits)))
+			w.WriteString(resultMathML(res, digits))
 		}
 	}
 	w.WriteString("</mrow></math></div>\n")
+	writeListTable(w, st, res, digits)
 	writeNote(w, calc, st)
 	w.WriteString("</div>\n")
 }

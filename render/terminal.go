@@ -77,6 +77,9 @@ func TerminalLine(st *engine.Statement, r engine.Result, digits int) string {
 	if st.Kind == engine.Use && r.Status == engine.OK {
 		return fmt.Sprintf("use %s = %s", st.Name, strings.Join(strings.Fields(st.Formula), " "))
 	}
+	if st.Kind == engine.FunctionDef && r.Status != engine.Errored {
+		return fmt.Sprintf("%s(%s) = %s", SymbolText(st.Name), strings.Join(st.Params, ", "), strings.Join(strings.Fields(st.Formula), " "))
+	}
 	switch r.Status {
 	case engine.OK:
 		if r, ok := st.Expr.(*engine.Ref); ok && r.Target != nil && r.Target.IsInput() && sameUnit(st.Display, r.Target) {
@@ -97,7 +100,7 @@ func TerminalLine(st *engine.Statement, r engine.Result, digits int) string {
 			}
 			return fmt.Sprintf("%s = %s%s", SymbolText(st.Name), v, u)
 		}
-		return fmt.Sprintf("%s = %s", SymbolText(st.Name), ValueText(r.Value, r.Shown, r.Digits(digits)))
+		return fmt.Sprintf("%s = %s", SymbolText(st.Name), resultText(r, digits))
 	case engine.Pass, engine.Fail:
 		cmp := st.Compare()
 		verdict := "PASS"

@@ -20,6 +20,8 @@ const (
 	tokLParen
 	tokRParen
 	tokComma
+	tokLBracket
+	tokRBracket
 )
 
 type token struct {
@@ -38,7 +40,8 @@ type lexer struct {
 	r        []rune
 	from, to int
 	toks     []token
-	opens    []int
+	opens    []int  // offsets of the open ( and [
+	closes   []rune // the closing character each open one needs
 }
 
 func errAt(start, end int, hint, format string, args ...any) *Error {
@@ -62,7 +65,10 @@ func lex(r []rune, from, to int) ([]token, *Error) {
 		i = next
 	}
 	if len(l.opens) > 0 {
-		at := l.opens[len(l.opens)-1]
+		at, want := l.opens[len(l.opens)-1], l.closes[len(l.closes)-1]
+		if want == ']' {
+			return nil, errAt(at, at+1, "add the missing ]", "unbalanced brackets: this [ is never closed")
+		}
 		return nil, errAt(at, at+1, "add the missing )", "unbalanced parentheses: this ( is never closed")
 	}
 	l.toks = append(l.toks, token{kind: tokEOF, start: to, end: to})
@@ -84,20 +90,13 @@ func (l *lexer) one(i int) (int, *Error) {
 		return l.name(i)
 	case c >= '0' && c <= '9' || c == '.' && i+1 < to && r[i+1] >= '0' && r[i+1] <= '9':
 		return l.number(i)
-	case c == '(':
-		l.opens = append(l.opens, i)
-		if len(l.opens) > MaxNesting {
-			return i, errAt(i, i+1, "name the inner parts as separate statements", "parentheses nested more than %d deep", MaxNesting)
-		}
-		l.emit(tokLParen, i, i+1, "(")
-		return i + 1, nil
-	case c == ')':
-		if len(l.opens) == 0 {
-			return i, errAt(i, i+1, "remove it or add the matching (", "unbalanced parentheses: this ) has no matching (")
-		}
-		l.opens = l.opens[:len(l.opens)-1]
-		l.emit(tokRParen, i, i+1, ")")
-		return i + 1, nil
+	case c == '(' || c == '[':
+		return l.open(i)
+	case c == ')' || c == ']':
+		return l.close(i)
+	case c == '.' && i+1 < to && r[i+1] == '.':
+		l.emit(tokOp, i, i+2, "..")
+		return i + 2, nil
 	case c == ',':
 		l.emit(tokComma, i, i+1, ",")
 		return i + 1, nil
@@ -107,6 +106,46 @@ func (l *lexer) one(i int) (int, *Error) {
 		return i + n, nil
 	}
 	return i, l.refuse(i)
+}
+
+// open reads a ( or a [, which share one count of nesting.
+func (l *lexer) open(i int) (int, *Error) {
+	c := l.r[i]
+	l.opens = append(l.opens, i)
+	if len(l.opens) > MaxNesting {
+		return i, errAt(i, i+1, "name the inner parts as separate statements", "parentheses and brackets nested more than %d deep", MaxNesting)
+	}
+	if c == '(' {
+		l.closes = append(l.closes, ')')
+		l.emit(tokLParen, i, i+1, "(")
+	} else {
+		l.closes = append(l.closes, ']')
+		l.emit(tokLBracket, i, i+1, "[")
+	}
+	return i + 1, nil
+}
+
+// close reads a ) or a ], which must match the last one opened.
+func (l *lexer) close(i int) (int, *Error) {
+	c := l.r[i]
+	if len(l.opens) == 0 {
+		if c == ']' {
+			return i, errAt(i, i+1, "remove it or add the matching [", "unbalanced brackets: this ] has no matching [")
+		}
+		return i, errAt(i, i+1, "remove it or add the matching (", "unbalanced parentheses: this ) has no matching (")
+	}
+	if want := l.closes[len(l.closes)-1]; want != c {
+		at := l.opens[len(l.opens)-1]
+		return i, errAt(i, i+1, fmt.Sprintf("close the %c opened at column %d with %c first", l.r[at], at+1, want),
+			"this %c closes a %c", c, l.r[at])
+	}
+	l.opens, l.closes = l.opens[:len(l.opens)-1], l.closes[:len(l.closes)-1]
+	if c == ')' {
+		l.emit(tokRParen, i, i+1, ")")
+	} else {
+		l.emit(tokRBracket, i, i+1, "]")
+	}
+	return i + 1, nil
 }
 
 // operator reads an operator at the start of r, normalised.
@@ -138,13 +177,9 @@ func operator(r []rune) (string, int) {
 
 // refuse explains a character that starts no token.
 func (l *lexer) refuse(i int) *Error {
-	r, c := l.r, l.r[i]
+	c := l.r[i]
 	one := func(hint, format string, args ...any) *Error { return errAt(i, i+1, hint, format, args...) }
 	switch {
-	case c == '[' || c == ']':
-		return one("use ( ) for grouping", "%c is not allowed in a formula: [ ] are reserved for lists and indexing, which sheaf does not support yet", c)
-	case c == '.' && i+1 < l.to && r[i+1] == '.':
-		return errAt(i, i+2, "write the two ends as separate values", ".. is reserved for ranges, which sheaf does not support yet")
 	case c == '±':
 		return one("write the value without its tolerance", "± is reserved for tolerances, which sheaf does not support yet")
 	case c == '∠':

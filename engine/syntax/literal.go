@@ -32,6 +32,9 @@ func scanLiteral(r []rune, i, to int) (*Number, *Quantity, int, *Error) {
 	j := skipBlanks(r, i, to)
 	rest := string(r[j:to])
 	n := units.ScanCompact(rest)
+	if j > i && (isWord(r, j, to, StepWord) || isWord(r, j, to, WhenWord) || isWord(r, j, to, OtherwiseWord)) {
+		n = 0 // "0 .. 10 by 2", "1 when ...": the words of the grammar, not units
+	}
 	if n == 0 {
 		if j == i && j < to && IsNameStart(r[j]) {
 			// "2_x": an underscore glued to a number.
@@ -57,6 +60,12 @@ func scanLiteral(r []rune, i, to int) (*Number, *Quantity, int, *Error) {
 			"%s %s is too small to hold in SI: it would be 0", numText, unitText)
 	}
 	return nil, &Quantity{Pos: Span{start, end}, Text: numText, UnitText: unitText, Value: val, UnitAt: j, Unit: u, SI: u.ToSI(val)}, end, nil
+}
+
+// isWord reports whether r[j:to] starts with the word w, standing alone.
+func isWord(r []rune, j, to int, w string) bool {
+	k := j + len([]rune(w))
+	return k <= to && string(r[j:k]) == w && (k == to || !IsNamePart(r[k]))
 }
 
 // numberEnd returns the offset after the digits, point and exponent of a

@@ -11,6 +11,7 @@ import (
 // products and the power, so -x^2 is -(x²) and -x*y is (-x)*y.
 const (
 	bpRelation = 10
+	bpRange    = 15
 	bpSum      = 20
 	bpProduct  = 30
 	bpSign     = 40
@@ -25,6 +26,8 @@ func infixPower(op string) int {
 		return bpProduct
 	case "^":
 		return bpPower
+	case "..":
+		return bpRange
 	}
 	if IsRelation(op) {
 		return bpRelation
@@ -44,7 +47,7 @@ func Parse(r []rune, from, to int) (Node, *Error) {
 		return nil, err
 	}
 	p := &parser{r: r, toks: toks}
-	n := p.expr(0)
+	n := p.choice()
 	if p.err == nil && p.peek().kind != tokEOF {
 		p.unexpected(p.peek())
 	}
@@ -91,6 +94,9 @@ func (p *parser) expr(minBP int) Node {
 	for p.err == nil {
 		t := p.peek()
 		if t.kind != tokOp {
+			if t.kind == tokName && (t.text == StepWord || t.text == WhenWord || t.text == OtherwiseWord) {
+				return left // a range's step or a conditional's words: the caller reads them
+			}
 			if startsOperand(t) {
 				return p.juxtaposed(t)
 			}
@@ -108,6 +114,10 @@ func (p *parser) expr(minBP int) Node {
 			return left
 		}
 		p.next()
+		if t.text == ".." {
+			left = p.rangeAfter(left, t)
+			continue
+		}
 		rbp := bp
 		if t.text == "^" {
 			rbp = bp - 1 // right-associative: 2^3^2 is 2^9
@@ -121,8 +131,18 @@ func (p *parser) expr(minBP int) Node {
 	return nil
 }
 
-// prefix parses what may stand at the start of an operand.
+// prefix parses what may stand at the start of an operand, with the
+// indexes that follow it.
 func (p *parser) prefix() Node {
+	x := p.primary()
+	for p.err == nil && p.peek().kind == tokLBracket && p.peek().start == p.toks[p.i-1].end {
+		x = p.index(x)
+	}
+	return x
+}
+
+// primary parses one operand.
+func (p *parser) primary() Node {
 	t := p.next()
 	switch t.kind {
 	case tokNumber:
@@ -134,8 +154,10 @@ func (p *parser) prefix() Node {
 			return p.call(t)
 		}
 		return &Name{Pos: Span{t.start, t.end}, Name: t.text}
+	case tokLBracket:
+		return p.list(t)
 	case tokLParen:
-		inner := p.expr(0)
+		inner := p.choice()
 		if p.err != nil {
 			return nil
 		}
@@ -167,7 +189,7 @@ func (p *parser) call(name token) Node {
 		return c
 	}
 	for {
-		a := p.expr(0)
+		a := p.choice()
 		if p.err != nil {
 			return nil
 		}
@@ -184,9 +206,101 @@ func (p *parser) call(name token) Node {
 	}
 }
 
+// choice parses a value that may hold a condition: value when condition
+// otherwise other, where other may hold a condition of its own.
+func (p *parser) choice() Node {
+	v := p.expr(0)
+	if p.err != nil || p.peek().kind != tokName || p.peek().text != WhenWord {
+		return v
+	}
+	if p.depth++; p.depth > maxDepth {
+		return p.fail(p.peek(), "split it into named parts", "formula nested too deeply: more than %d conditions inside one another", maxDepth)
+	}
+	defer func() { p.depth-- }()
+	when := p.next()
+	cond := p.expr(0)
+	if p.err != nil {
+		return nil
+	}
+	if t := p.peek(); t.kind != tokName || t.text != OtherwiseWord {
+		return p.fail(t, "write value "+WhenWord+" condition "+OtherwiseWord+" other value", "a condition needs the value %s it does not hold", OtherwiseWord)
+	}
+	p.next()
+	other := p.choice()
+	if p.err != nil {
+		return nil
+	}
+	return &Choice{Pos: Span{v.Span().Start, other.Span().End}, WhenAt: when.start, Value: v, Cond: cond, Other: other}
+}
+
+// rangeAfter parses the end of a range, and its step, after "..".
+func (p *parser) rangeAfter(from Node, dots token) Node {
+	if _, ok := from.(*Range); ok {
+		return p.fail(dots, "write one range: from .. to by step", "a range has one ..")
+	}
+	to := p.expr(bpRange)
+	if p.err != nil {
+		return nil
+	}
+	r := &Range{Pos: Span{from.Span().Start, to.Span().End}, OpAt: dots.start, From: from, To: to}
+	if t := p.peek(); t.kind == tokName && t.text == StepWord {
+		p.next()
+		step := p.expr(bpRange)
+		if p.err != nil {
+			return nil
+		}
+		r.Step, r.Pos.End = step, step.Span().End
+	}
+	return r
+}
+
+// list parses the elements of a list literal after its "[".
+func (p *parser) list(open token) Node {
+	l := &List{}
+	if p.peek().kind == tokRBracket {
+		return p.fail(p.peek(), "write the elements between [ and ], separated by commas", "a list needs at least one element")
+	}
+	for {
+		e := p.choice()
+		if p.err != nil {
+			return nil
+		}
+		l.Elems = append(l.Elems, e)
+		switch t := p.next(); t.kind {
+		case tokComma:
+			continue
+		case tokRBracket:
+			l.Pos = Span{open.start, t.end}
+			return l
+		default:
+			return p.unexpected(t)
+		}
+	}
+}
+
+// index parses "[i]" after the list it picks from.
+func (p *parser) index(x Node) Node {
+	p.next() // [
+	if p.peek().kind == tokRBracket {
+		return p.fail(p.peek(), "write the element's number, as phi[1] for the first", "an index is missing between [ and ]")
+	}
+	i := p.choice()
+	if p.err != nil {
+		return nil
+	}
+	t := p.next()
+	if t.kind != tokRBracket {
+		if t.kind == tokComma {
+			return p.fail(t, "a list has one index: write phi[2]", "an index holds one number")
+		}
+		return p.unexpected(t)
+	}
+	return &Index{Pos: Span{x.Span().Start, t.end}, X: x, I: i}
+}
+
 func startsOperand(t token) bool {
 	switch t.kind {
-	case tokNumber, tokQuantity, tokName, tokLParen:
+	case tokNumber, tokQuantity, tokName, tokLParen, tokLBracket:
 		return true
 	}
 	return false
@@ -211,6 +325,10 @@ func (p *parser) unexpected(t token) Node {
 	switch {
 	case t.kind == tokEOF:
 		return p.endsEarly()
+	case t.kind == tokName && (t.text == WhenWord || t.text == OtherwiseWord):
+		return p.fail(t, "write value "+WhenWord+" condition "+OtherwiseWord+" other value, in parentheses inside a formula", "%s belongs to a conditional value: value %s condition %s other value", t.text, WhenWord, OtherwiseWord)
+	case t.kind == tokName && t.text == StepWord:
+		return p.fail(t, "write a range with its step as from .. to by step", "%s gives the step of a range, and follows from .. to", StepWord)
 	case t.kind == tokComma && p.decimalComma(t):
 		return p.fail(t, "sheaf writes decimals with a point: 1.5, not 1,5; a comma separates the arguments of a function",
 			"a comma inside a number")
@@ -234,6 +352,9 @@ func (p *parser) juxtaposed(t token) Node {
 	switch {
 	case t.kind == tokQuantity:
 		return p.fail(t, "put an operator such as * between the two", "a quantity follows another term without an operator")
+	case t.kind == tokLBracket && (prev.kind == tokName || prev.kind == tokRParen || prev.kind == tokRBracket):
+		return p.fail(t, "write the index right after the list, with no space: "+p.text(prev)+"[...]", "a [ follows %s after a space", p.text(prev))
+
 	case t.kind == tokName && (t.text == "and" || t.text == "or"):
 		return p.fail(t, "write each comparison as its own check", "a check holds one comparison; '%s' is not supported", t.text)
 	case t.kind == tokName && prev.kind == tokQuantity:

@@ -27,6 +27,22 @@ func sexp(n Node) string {
 			args = append(args, sexp(a))
 		}
 		return n.Name + "(" + strings.Join(args, ", ") + ")"
+	case *List:
+		var elems []string
+		for _, e := range n.Elems {
+			elems = append(elems, sexp(e))
+		}
+		return "{" + strings.Join(elems, " ") + "}"
+	case *Range:
+		s := "(.. " + sexp(n.From) + " " + sexp(n.To)
+		if n.Step != nil {
+			s += " by " + sexp(n.Step)
+		}
+		return s + ")"
+	case *Index:
+		return "(@ " + sexp(n.X) + " " + sexp(n.I) + ")"
+	case *Choice:
+		return "(when " + sexp(n.Value) + " " + sexp(n.Cond) + " " + sexp(n.Other) + ")"
 	}
 	return "?"
 }
@@ -61,6 +77,28 @@ func TestParseShapes(t *testing.T) {
 		{"3_000 rpm", "[3_000 rpm]"},
 		{"60 cm^2", "[60 cm^2]"},
 		{"-25 degC + 10 K", "(+ (- [25 degC]) [10 K])"},
+		// Lists, ranges and indexes.
+		{"[1.2 mWb, 1.5 mWb, 1.9 mWb]", "{[1.2 mWb] [1.5 mWb] [1.9 mWb]}"},
+		{"[1, 2] * 1 mWb", "(* {1 2} [1 mWb])"},
+		{"[a + b, -c]", "{(+ a b) (- c)}"},
+		{"sum([a, b])", "sum({a b})"},
+		{"phi[3]", "(@ phi 3)"},
+		{"phi[k + 1]^2", "(^ (@ phi (+ k 1)) 2)"},
+		{"BH.B[1]", "(@ BH.B 1)"},
+		{"(a * b)[2]", "(@ (* a b) 2)"},
+		{"1..12", "(.. 1 12)"},
+		{"1 .. N + 1", "(.. 1 (+ N 1))"},
+		{"0 deg .. 90 deg by 15 deg", "(.. [0 deg] [90 deg] by [15 deg])"},
+		{"0 .. 10 by 2", "(.. 0 10 by 2)"},
+		{"[1 .. 3]", "{(.. 1 3)}"},
+		{"2 * (1 .. 3)", "(* 2 (.. 1 3))"},
+		// Conditional values.
+		{"1 when B <= 1.5 T otherwise 1.5 T / B", "(when 1 (<= B [1.5 T]) (/ [1.5 T] B))"},
+		{"a when x < 1 otherwise b when x < 2 otherwise 3", "(when a (< x 1) (when b (< x 2) 3))"},
+		{"2 * (a when x > 0 otherwise -a)", "(* 2 (when a (> x 0) (- a)))"},
+		{"max(0 when a < b otherwise a - b, 1)", "max((when 0 (< a b) (- a b)), 1)"},
+		{"2 * a when b < c otherwise d", "(when (* 2 a) (< b c) d)"},
+		{"5 when n > 2 otherwise 6", "(when 5 (> n 2) 6)"},
 	} {
 		n, err := parse(c.in)
 		if c.want == "?" {
@@ -120,8 +158,18 @@ func TestParseErrors(t *testing.T) {
 		{"a < b < c", "chains two", "its own check", 6, 7},
 		{"a < b and b < c", "'and' is not supported", "its own check", 6, 9},
 		{"a = b", "unexpected =", "", 2, 3},
-		{"[1, 2]", "reserved for lists", "( )", 0, 1},
-		{"1..3", "reserved for ranges", "", 1, 3},
+		{"[1, 2", "this [ is never closed", "add the missing ]", 0, 1},
+		{"1, 2]", "this ] has no matching [", "", 4, 5},
+		{"[1, 2)", "this ) closes a [", "close the [ opened at column 1 with ] first", 5, 6},
+		{"[]", "a list needs at least one element", "", 1, 2},
+		{"phi[]", "an index is missing", "phi[1]", 4, 5},
+		{"phi[1, 2]", "an index holds one number", "phi[2]", 5, 6},
+		{"phi [2]", "a [ follows phi after a space", "phi[...]", 4, 5},
+		{"1 .. 2 .. 3", "a range has one ..", "", 7, 9},
+		{"a by 2", "by gives the step of a range", "from .. to by step", 2, 4},
+		{"a when b < c", "a condition needs the value otherwise", "value when condition otherwise other value", 12, 13},
+		{"a otherwise b", "otherwise belongs to a conditional value", "", 2, 11},
+		{"1 .. ", "formula ends too early", "", 2, 4},
 		{"5 V ± 1 V", "reserved for tolerances", "", 4, 5},
 		{"10 V ∠ 30 deg", "reserved for phasors", "", 5, 6},
 		{"1.2.3", `malformed number "1.2.3"`, "", 0, 5},
@@ -170,7 +218,9 @@ func TestFlatSumIsNotNesting(t *testing.T) {
 // inside the formula, without panicking, and that a tree's spans nest.
 func FuzzParse(f *testing.F) {
 	for _, s := range []string{"1 + 2*3", "-x^2", "sqrt(a, b)", "2π*n", "60 cm^2", "a < b < c", "(", ")", "1,5 V",
-		"3 m s", "f(", "interp(T.y, T.x, 3 A, extrapolate)", "1..2", "±", "∠", "[", "\xff", "2(a)", "x ** -2"} {
+		"3 m s", "f(", "interp(T.y, T.x, 3 A, extrapolate)", "1..2", "±", "∠", "[", "\xff", "2(a)", "x ** -2",
+		"[1.2 mWb, 1.5 mWb]", "phi[2]", "0 deg .. 90 deg by 15 deg", "[1, 2)", "a [1]", "sum(T.x[1 .. 3])", "[[1]][1][1]",
+		"1 when B <= 1.5 T otherwise 1.5 T / B", "a when b otherwise", "(a when b < c otherwise d)[1]"} {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
@@ -204,5 +254,22 @@ func checkSpans(t *testing.T, s string, n Node, outer Span) {
 		for _, a := range n.Args {
 			checkSpans(t, s, a, sp)
 		}
+	case *List:
+		for _, e := range n.Elems {
+			checkSpans(t, s, e, sp)
+		}
+	case *Range:
+		checkSpans(t, s, n.From, sp)
+		checkSpans(t, s, n.To, sp)
+		if n.Step != nil {
+			checkSpans(t, s, n.Step, sp)
+		}
+	case *Index:
+		checkSpans(t, s, n.X, sp)
+		checkSpans(t, s, n.I, sp)
+	case *Choice:
+		checkSpans(t, s, n.Value, sp)
+		checkSpans(t, s, n.Cond, sp)
+		checkSpans(t, s, n.Other, sp)
 	}
 }

@@ -5,21 +5,26 @@
 //
 // The grammar, as EBNF (README, "Formula grammar"):
 //
-//	formula    = sum [ relation sum ] .
+//	formula    = choice .
+//	choice     = comparison [ "when" comparison "otherwise" choice ] .
+//	comparison = span [ relation span ] .
 //	relation   = "<" | "<=" | ">" | ">=" | "==" | "≤" | "≥" .
+//	span       = sum [ ".." sum [ "by" sum ] ] .
 //	sum        = product { ( "+" | "-" ) product } .
 //	product    = unary { ( "*" | "/" ) unary } .
 //	unary      = [ "-" | "+" ] power .
-//	power      = primary [ ( "^" | "**" ) unary ] .
-//	primary    = quantity | number | name | call | "(" sum ")" .
-//	call       = name "(" [ sum { "," sum } ] ")" .
+//	power      = postfix [ ( "^" | "**" ) unary ] .
+//	postfix    = primary { "[" choice "]" } .
+//	primary    = quantity | number | name | call | list | "(" choice ")" .
+//	list       = "[" choice { "," choice } "]" .
+//	call       = name "(" [ choice { "," choice } ] ")" .
 //	quantity   = number unit .
 //	name       = letter { letter | digit | "_" } { "." letter { letter | digit | "_" } } .
 //
 // "·", "×" and "⋅" are written for "*", "−" for "-". A number directly
-// followed by π multiplies it (2π). Reserved for later versions, and
-// refused with a message today: "[" and "]" (lists and indexing), ".."
-// (ranges), "±" (tolerances) and "∠" (phasors in polar form).
+// followed by π multiplies it (2π). An index's "[" follows its list with
+// no space between. Reserved for later versions, and refused with a
+// message today: "±" (tolerances) and "∠" (phasors in polar form).
 package syntax
 
 import "github.com/sheaf-calc/sheaf/units"
@@ -82,6 +87,43 @@ type Call struct {
 	Args []Node
 }
 
+// List is a list literal: [1.2 mWb, 1.5 mWb, 1.9 mWb].
+type List struct {
+	Pos   Span
+	Elems []Node
+}
+
+// Range is the evenly spaced values from From to To: 1 .. 12, or with a
+// step, 0 deg .. 90 deg by 15 deg.
+type Range struct {
+	Pos      Span
+	OpAt     int // where .. stands
+	From, To Node
+	Step     Node // nil when no step is written
+}
+
+// Index is one element of a list: phi[3].
+type Index struct {
+	Pos Span
+	X   Node
+	I   Node
+}
+
+// Choice is a conditional value: Value when Cond holds, otherwise Other.
+type Choice struct {
+	Pos          Span
+	WhenAt       int
+	Value, Other Node
+	Cond         Node
+}
+
+// The words of ranges and conditional values.
+const (
+	StepWord      = "by"
+	WhenWord      = "when"
+	OtherwiseWord = "otherwise"
+)
+
 // Span implementations.
 func (n *Number) Span() Span   { return n.Pos }
 func (n *Quantity) Span() Span { return n.Pos }
@@ -89,6 +131,10 @@ func (n *Name) Span() Span     { return n.Pos }
 func (n *Unary) Span() Span    { return n.Pos }
 func (n *Binary) Span() Span   { return n.Pos }
 func (n *Call) Span() Span     { return n.Pos }
+func (n *List) Span() Span     { return n.Pos }
+func (n *Range) Span() Span    { return n.Pos }
+func (n *Index) Span() Span    { return n.Pos }
+func (n *Choice) Span() Span   { return n.Pos }
 
 // At implementations.
 func (n *Number) At() int   { return n.Pos.Start }
@@ -97,6 +143,10 @@ func (n *Name) At() int     { return n.Pos.Start }
 func (n *Unary) At() int    { return n.Pos.Start }
 func (n *Binary) At() int   { return n.OpAt }
 func (n *Call) At() int     { return n.Pos.Start }
+func (n *List) At() int     { return n.Pos.Start }
+func (n *Range) At() int    { return n.OpAt }
+func (n *Index) At() int    { return n.I.Span().Start }
+func (n *Choice) At() int   { return n.WhenAt }
 
 // IsRelation reports whether op compares two sides.
 func IsRelation(op string) bool {
