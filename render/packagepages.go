@@ -143,14 +143,14 @@ func worse(a, b *engine.Statement) bool {
 func inputsPage(pkg *project.Package, opt Options) []byte {
 	p := packagePage(pkg, opt, "Inputs register")
 	p.f("<p>Every input of the package: a definition whose value is written directly, with the unit, description and source the author gave.</p>\n")
-	p.f("<table>\n<thead><tr><th>Sheet</th><th>Line</th><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th><th>Set by</th></tr></thead>\n<tbody>\n")
+	p.f("<table>\n<thead><tr><th>Sheet</th><th class=\"ck\">Line</th><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th><th class=\"ck\">Set by</th></tr></thead>\n<tbody>\n")
 	for _, s := range pkg.Sheets {
 		for _, st := range s.Calc.Statements {
 			if !st.IsInput() || st.Status != engine.OK {
 				continue
 			}
 			value, unit := InputText(st)
-			p.f("<tr><td><a href=\"%s\">%s</a></td><td><a class=\"loc\" href=\"%s#%s\">%d</a></td><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td>%s</td></tr>\n",
+			p.f("<tr><td><a href=\"%s\">%s</a></td><td class=\"ck\"><a class=\"loc\" href=\"%s#%s\">%d</a></td><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td class=\"ck\">%s</td></tr>\n",
 				pageHref(s.Page), esc(s.Path()), pageHref(s.Page), anchor(st), st.Pos.Line, symbolHTML(st.Name), esc(value), esc(unit), esc(st.Description), esc(st.Source), esc(SetBy(st)))
 		}
 	}
