@@ -9,6 +9,7 @@ import (
 	"html"
 	"net/url"
 	"path"
+	"regexp"
 	"runtime"
 	"strings"
 
@@ -210,11 +211,14 @@ func (b titleBlock) write(p *page) {
 	p.f("</div>\n<dl>\n")
 	for _, kv := range b.fields {
 		if kv[1] != "" {
-			p.f("<div><dt>%s</dt><dd>%s</dd></div>\n", kv[0], esc(kv[1]))
+			// A date does not break at its hyphens in a narrow cell.
+			p.f("<div><dt>%s</dt><dd>%s</dd></div>\n", kv[0], isoDate.ReplaceAllString(esc(kv[1]), `<span class="date">$0</span>`))
 		}
 	}
 	p.f("</dl>\n</header>\n")
 }
+
+var isoDate = regexp.MustCompile(`\b\d{4}-\d{2}-\d{2}\b`)
 
 // close writes the cautions and the footer, and ends the page.
 func (p *page) close(version, what string) {

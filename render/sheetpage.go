@@ -51,7 +51,7 @@ func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, pr *prose) (
 	fr.root = rel(s.Page)
 	m := s.Doc.Meta
 	fr.block = titleBlock{kicker: m.Project, heading: s.Title(), subject: m.Subject, fields: sheetFields(m, s.Path()),
-		number: sheetNumber(pkg, s)}
+		number: sheetNumber(pkg, s, m.Revision)}
 	p.open(fr, opt.Version)
 	history(p, m)
 	statusSection(p, s, digits)
@@ -75,12 +75,16 @@ func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, pr *prose) (
 	return p.Bytes(), nil
 }
 
-// sheetNumber is a sheet's place in the package, "Sheet 2 of 5", as a
-// title block numbers the sheets of a set.
-func sheetNumber(pkg *project.Package, s *project.Sheet) string {
+// sheetNumber is a sheet's place in the package and its revision, "Sheet 2
+// of 5 · Rev. B", as the corner of a title block numbers the sheets of a set.
+func sheetNumber(pkg *project.Package, s *project.Sheet, rev string) string {
 	for i, t := range pkg.Sheets {
 		if t == s {
-			return "Sheet " + strconv.Itoa(i+1) + " of " + strconv.Itoa(len(pkg.Sheets))
+			n := "Sheet " + strconv.Itoa(i+1) + " of " + strconv.Itoa(len(pkg.Sheets))
+			if rev != "" {
+				n += " · Rev. " + rev
+			}
+			return n
 		}
 	}
 	return ""

@@ -52,6 +52,7 @@ table.frame>tfoot{display:none}
 .titleblock dl>div{padding:.25rem .6rem;border-right:1px solid var(--rule);border-bottom:1px solid var(--rule);min-width:0}
 .titleblock dt{color:var(--muted);font-size:.7rem}
 .titleblock dd{margin:0;font-weight:600}
+.titleblock .date{white-space:nowrap}
 nav.pkg{font-size:.88rem;margin:.5rem 0 1rem;display:flex;flex-wrap:wrap;gap:.3rem 1rem;align-items:center}
 .viewswitch{display:inline-flex;align-items:center;gap:.35rem;margin-left:auto;padding:.1rem .5rem;border:1px solid var(--rule);border-radius:2px;background:var(--band);cursor:pointer}
 body:not(:has(#checker-view:checked)) .ck{display:none!important}
@@ -143,11 +144,15 @@ footer{margin-top:2rem;border-top:1px solid var(--rule);padding-top:.5rem;font-s
  table.frame>tbody{display:table-row-group}
  table.frame>*>tr{display:table-row}
  table.frame>*>tr>td{display:table-cell}
- .titleblock{margin-bottom:3mm;border-width:1.5px}
- .tb-head{padding:1.5mm 3mm}
- .titleblock h1{font-size:13pt}
+ .titleblock{margin-bottom:2.5mm;border-width:1.5px;line-height:1.25}
+ .tb-head{padding:1.2mm 2.5mm}
+ .titleblock .kicker{font-size:7.5pt}
+ .titleblock h1{font-size:12pt;margin:.3mm 0}
+ .titleblock .subject{font-size:8pt;margin:0}
+ .titleblock .sheetno{font-size:8.5pt}
  .titleblock dl{grid-template-columns:repeat(4,minmax(0,1fr));font-size:7.5pt}
- .titleblock dl>div{padding:.6mm 2mm}
+ .titleblock dt{font-size:6.5pt}
+ .titleblock dl>div{padding:.4mm 2mm}
  .scroll{overflow:visible}
  table{font-size:8pt}
  td.num{white-space:normal}

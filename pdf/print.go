@@ -1,0 +1,93 @@
+package pdf
+
+import (
+	"context"
+	"fmt"
+	"net/url"
+	"path/filepath"
+	"strings"
+
+	"github.com/chromedp/chromedp"
+)
+
+// Paper is a paper size the pages are laid out for.
+type Paper struct {
+	Name string
+	Size chromedp.PaperSize // inches
+}
+
+// The paper sizes the print stylesheet is made for, portrait.
+var (
+	A4     = Paper{"A4", chromedp.PaperA4}
+	Letter = Paper{"Letter", chromedp.PaperLetter}
+)
+
+// PaperNamed returns the paper of a name, "a4" or "letter".
+func PaperNamed(name string) (Paper, error) {
+	switch strings.ToLower(name) {
+	case "a4":
+		return A4, nil
+	case "letter":
+		return Letter, nil
+	}
+	return Paper{}, fmt.Errorf("unknown paper %q: give a4 or letter", name)
+}
+
+// View says which view of a page is printed.
+type View int
+
+const (
+	// IssueView is what goes to the client: formulas, substitutions,
+	// results, checks, sources and cautions.
+	IssueView View = iota
+	// CheckerView adds positions, uses, used-by and what each result
+	// rests on.
+	CheckerView
+)
+
+// FileURL is the file:// address of a file on disk.
+func FileURL(path string) (string, error) {
+	abs, err := filepath.Abs(path)
+	if err != nil {
+		return "", err
+	}
+	return (&url.URL{Scheme: "file", Path: filepath.ToSlash(abs)}).String(), nil
+}
+
+// SetView turns the page's view switch to view; the page must be open in
+// tab. The switch is the page's own checkbox, so the browser lays the
+// page out exactly as a reader who ticked it sees it.
+func SetView(tab context.Context, view View) error {
+	want := "false"
+	if view == CheckerView {
+		want = "true"
+	}
+	_, err := chromedp.Run(tab, chromedp.Evaluate[bool](
+		`(function(){var b=document.getElementById("checker-view");if(!b)return false;b.checked=`+want+`;return true})()`))
+	return err
+}
+
+// Print opens the page at address in tab and prints it in view on paper:
+// margins and the page counter come from the page's print stylesheet. It
+// returns the PDF and the page's title.
+func Print(tab context.Context, address string, paper Paper, view View) ([]byte, string, error) {
+	if err := chromedp.Do(tab, chromedp.Navigate(address)); err != nil {
+		return nil, "", fmt.Errorf("opening %s: %w", address, err)
+	}
+	if err := SetView(tab, view); err != nil {
+		return nil, "", err
+	}
+	title, err := chromedp.Run(tab, chromedp.Title())
+	if err != nil {
+		return nil, "", err
+	}
+	data, err := chromedp.Run(tab, chromedp.PrintToPDF(
+		chromedp.PDFPaper(paper.Size),
+		chromedp.PDFPrintBackground(),
+		chromedp.PDFOutlineAndTagged(),
+	))
+	if err != nil {
+		return nil, "", fmt.Errorf("printing %s: %w", address, err)
+	}
+	return data, title, nil
+}
