@@ -214,7 +214,7 @@ func TestViews(t *testing.T) {
 	}
 	// Shown elements of each kind the checker reads, and the text of the
 	// page as a reader sees it.
-	const count = `(function(){var n={};["a.loc","details.trace","span.links","span.setby",".row .eq"].forEach(function(s){
+	const count = `(function(){var n={};["a.loc","details.trace","span.links.ck","span.setby",".row .eq"].forEach(function(s){
 n[s]=Array.prototype.filter.call(document.querySelectorAll(s),function(e){return e.getClientRects().length>0}).length});
 n.text=document.body.innerText.indexOf("used by")>=0?1:0;return n})()`
 	for _, kind := range []string{"screen", "print"} {
@@ -233,7 +233,7 @@ n.text=document.body.innerText.indexOf("used by")>=0?1:0;return n})()`
 			t.Fatal(err)
 		}
 		t.Logf("%s: issue view %v, checker view %v", kind, issue, checker)
-		for _, sel := range []string{"a.loc", "details.trace", "span.links", "text"} {
+		for _, sel := range []string{"a.loc", "details.trace", "span.links.ck", "text"} {
 			if issue[sel] != 0 {
 				t.Errorf("%s: the issue view shows %d of %s", kind, issue[sel], sel)
 			}

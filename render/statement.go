@@ -3,6 +3,7 @@ package render
 import (
 	"math"
 	"strconv"
+	"strings"
 
 	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
@@ -45,36 +46,77 @@ func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int)
 	if st.Overridden {
 		class += " set"
 	}
-	w.WriteString(`<div class="` + class + `" id="` + anchor(st) + "\">\n<div class=\"eq\"><math class=\"f\"><mrow>")
-	w.WriteString(symbolMathML(st.Name))
-	w.WriteString("<mo>=</mo>")
-	writeFormula(w, st.Expr, symbolic, digits)
+	w.WriteString(`<div class="` + class + `" id="` + anchor(st) + "\">\n")
+	steps := []string{symbolMathML(st.Name) + "<mo>=</mo>" + formulaML(st.Expr, symbolic, digits)}
 	if shownConverted(st) {
 		// B [T] = 12 kG: the value as written, then in the unit asked for.
-		nextStep(w)
-		w.WriteString(valueMathML(st.Value, st.Shown, st.Digits(digits)))
+		steps = append(steps, "<mo>=</mo>"+valueMathML(st.Value, st.Shown, st.Digits(digits)))
 	}
 	if !st.IsInput() {
 		if substitutes(st.Expr) {
-			nextStep(w)
-			writeFormula(w, st.Expr, substituted, digits)
+			steps = append(steps, "<mo>=</mo>"+formulaML(st.Expr, substituted, digits))
 		}
 		// A name that only repeats an input already shows its value.
 		if r, ok := st.Expr.(*engine.Ref); !ok || r.Target == nil || !r.Target.IsInput() {
-			nextStep(w)
-			w.WriteString(valueMathML(st.Value, st.Shown, st.Digits(digits)))
+			steps = append(steps, "<mo>=</mo>"+valueMathML(st.Value, st.Shown, st.Digits(digits)))
 		}
 	}
-	w.WriteString("</mrow></math></div>\n")
+	writeSteps(w, steps)
 	writeNote(w, calc, st)
 	w.WriteString("</div>\n")
 }
 
-// nextStep starts the next step of an equation, "= ...", as a math element
-// of its own: a browser does not break a line inside MathML, so a long
-// equation wraps between its steps, at the equals sign, and never clips.
-func nextStep(w sink) {
-	w.WriteString("</mrow></math><math class=\"f step\"><mrow><mo>=</mo>")
+// writeSteps writes the steps of an equation (name = formula, = values,
+// = result), each as a math element of its own: a browser does not break a
+// line inside MathML, so a long equation wraps between its steps, at the
+// equals sign. A step too long for a line of the printed page is set
+// smaller on paper rather than clipped.
+func writeSteps(w sink, steps []string) {
+	w.WriteString("<div class=\"eq\">")
+	for i, step := range steps {
+		class := "f"
+		if i > 0 {
+			class += " step"
+		}
+		switch n := visibleLen(step); {
+		case n > 120:
+			class += " longer"
+		case n > 80:
+			class += " long"
+		}
+		w.WriteString(`<math class="` + class + `"><mrow>` + step + "</mrow></math>")
+	}
+	w.WriteString("</div>\n")
+}
+
+// formulaML is a formula's MathML as a string.
+func formulaML(e engine.Expr, mode mathMode, digits int) string {
+	var b strings.Builder
+	writeFormula(&b, e, mode, digits)
+	return b.String()
+}
+
+// visibleLen counts the characters of MathML that a reader sees: the text
+// outside the tags, an entity counted as one.
+func visibleLen(ml string) int {
+	n, inTag, inEntity := 0, false, false
+	for _, r := range ml {
+		switch {
+		case r == '<':
+			inTag = true
+		case r == '>':
+			inTag = false
+		case inTag:
+		case r == '&':
+			inEntity = true
+			n++
+		case inEntity:
+			inEntity = r != ';'
+		default:
+			n++
+		}
+	}
+	return n
 }
 
 // writeTake draws a result taken from another sheet: its value, and a
@@ -252,9 +294,8 @@ func writeCheck(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
 	}
 	cmp := st.Compare()
 	w.WriteString(`<div class="row check ` + cls + `" id="` + anchor(st) + "\">\n<span class=\"stamp\">" + verdict + "</span>\n<div>\n")
-	w.WriteString("<div class=\"eq\"><math class=\"f\"><mrow>")
-	writeFormula(w, cmp, symbolic, digits)
-	w.WriteString("</mrow></math></div>\n<p class=\"inval\">in numbers <math><mrow>")
+	writeSteps(w, []string{formulaML(cmp, symbolic, digits)})
+	w.WriteString("<p class=\"inval\">in numbers <math><mrow>")
 	w.WriteString(valueMathML(st.Left, st.Shown, digits))
 	w.WriteString("<mo>" + esc(relations[cmp.Op]) + "</mo>")
 	w.WriteString(valueMathML(st.Right, st.Shown, digits))

@@ -159,6 +159,8 @@ footer{margin-top:2rem;border-top:1px solid var(--rule);padding-top:.5rem;font-s
  th,td{padding:.6mm 1.2mm;overflow-wrap:anywhere}
  .eq{overflow:visible}
  .eq math{font-size:1em}
+ .eq math.long{font-size:.82em}
+ .eq math.longer{font-size:.68em}
  .calc{border-left-width:2px}
  .stampline{font-size:7pt}
 }
