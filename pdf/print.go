@@ -7,6 +7,8 @@ import (
 	"path/filepath"
 	"strings"
 
+	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/emulation"
 	"github.com/chromedp/chromedp"
 )
 
@@ -71,7 +73,12 @@ func SetView(tab context.Context, view View) error {
 // margins and the page counter come from the page's print stylesheet. It
 // returns the PDF and the page's title.
 func Print(tab context.Context, address string, paper Paper, view View) ([]byte, string, error) {
-	if err := chromedp.Do(tab, chromedp.Navigate(address)); err != nil {
+	// Print as the print stylesheet says, whatever medium the tab emulated.
+	reset := chromedp.Func(func(ctx context.Context, t *chromedp.Target) error {
+		_, err := cdp.Call(ctx, t, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{})
+		return err
+	})
+	if err := chromedp.Do(tab, reset, chromedp.Navigate(address)); err != nil {
 		return nil, "", fmt.Errorf("opening %s: %w", address, err)
 	}
 	if err := SetView(tab, view); err != nil {
