@@ -137,7 +137,10 @@ footer{margin-top:2rem;border-top:1px solid var(--rule);padding-top:.5rem;font-s
  a{color:inherit;text-decoration:none}
  .row,.titleblock,.status>p,tr,.caution,.assumption,.stamp,.reach{break-inside:avoid}
  .error,.blocked,.stamp,.reach .bar i,.titleblock,.status{-webkit-print-color-adjust:exact;print-color-adjust:exact}
- h2,h3,p.caption{break-after:avoid}
+ h2,h3,p.caption,.caution{break-after:avoid}
+ footer{break-before:avoid;break-inside:avoid;margin-top:3mm}
+ .row.use{break-inside:auto}
+ .use .usehead{break-after:avoid}
  table.frame{display:table;width:100%;border-collapse:collapse;table-layout:fixed}
  table.frame>thead{display:table-header-group}
  table.frame>tfoot{display:table-footer-group}
