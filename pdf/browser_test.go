@@ -93,7 +93,7 @@ func TestPrintedSheetsCarryTheTitleBlockOnEveryPage(t *testing.T) {
 				if err != nil {
 					t.Fatal(err)
 				}
-				data, _, err := Print(tab, address, paper, IssueView)
+				data, _, err := Print(tab, address, Layout{Paper: paper})
 				if err != nil {
 					t.Fatal(err)
 				}

@@ -28,7 +28,7 @@ type Part struct {
 // with a bookmark at the first page of each part. Each part is printed on
 // its own, so that "page x of y" counts the pages of that sheet. It
 // returns the PDF and its number of pages.
-func Package(ctx context.Context, b *Browser, parts []Part, paper Paper, view View) ([]byte, int, error) {
+func Package(ctx context.Context, b *Browser, parts []Part, l Layout) ([]byte, int, error) {
 	tab, cancel := b.Tab()
 	defer cancel()
 	var (
@@ -41,7 +41,7 @@ func Package(ctx context.Context, b *Browser, parts []Part, paper Paper, view Vi
 		if err := ctx.Err(); err != nil {
 			return nil, 0, err
 		}
-		data, title, err := Print(tab, part.Address, paper, view)
+		data, title, err := Print(tab, part.Address, l)
 		if err != nil {
 			return nil, 0, err
 		}

@@ -43,7 +43,7 @@ func TestPackagePDF(t *testing.T) {
 	}
 	var texts []string
 	for range 2 {
-		data, n, err := Package(context.Background(), b, parts, A4, IssueView)
+		data, n, err := Package(context.Background(), b, parts, Layout{Paper: A4})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -69,5 +69,48 @@ func TestPackagePDF(t *testing.T) {
 	}
 	if texts[0] != texts[1] {
 		t.Error("the same sources printed twice give different text")
+	}
+}
+
+// TestGraphOnItsOwnPage: asked for, a sheet's dependency graph prints on
+// a page of its own after the sheet, under the title block; not asked
+// for, no page shows it.
+func TestGraphOnItsOwnPage(t *testing.T) {
+	b := startBrowser(t)
+	tab, cancel := b.Tab()
+	defer cancel()
+	out, res := demo(t, "corran-hill-conveyor")
+	u, err := FileURL(filepath.Join(out, filepath.FromSlash(res.Package.Sheets[0].Page)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, graphs := range []bool{false, true} {
+		data, _, err := Print(tab, u, Layout{Paper: A4, Graphs: graphs})
+		if err != nil {
+			t.Fatal(err)
+		}
+		pages := pdfPages(t, data)
+		var with []int
+		for i, p := range pages {
+			if strings.Contains(p, "Dependency graph") {
+				with = append(with, i+1)
+			}
+		}
+		switch {
+		case !graphs && len(with) > 0:
+			t.Errorf("not asked for, the graph prints on pages %v", with)
+		case graphs && len(with) != 1:
+			t.Errorf("asked for, the graph prints on pages %v, want one page", with)
+		case graphs:
+			// The graph follows the sheet's statements, before the inputs
+			// register, on a page that starts with it under the title block.
+			p := pages[with[0]-1]
+			if !strings.Contains(p, "Sheet 1 of 3") || with[0] == 1 {
+				t.Errorf("the graph's page lacks the title block or is the sheet's first page:\n%s", clip(p))
+			}
+			if len(p) > 0 && strings.Contains(p[:strings.Index(p, "Dependency graph")], "holds") {
+				t.Errorf("the graph shares its page with the sheet's checks:\n%s", clip(p))
+			}
+		}
 	}
 }

@@ -47,6 +47,15 @@ const (
 	CheckerView
 )
 
+// Layout says how pages are printed.
+type Layout struct {
+	Paper Paper
+	View  View
+	// Graphs prints each sheet's dependency graph on a page of its own
+	// after the sheet; without it the graph stays off paper.
+	Graphs bool
+}
+
 // FileURL is the file:// address of a file on disk.
 func FileURL(path string) (string, error) {
 	abs, err := filepath.Abs(path)
@@ -60,19 +69,24 @@ func FileURL(path string) (string, error) {
 // tab. The switch is the page's own checkbox, so the browser lays the
 // page out exactly as a reader who ticked it sees it.
 func SetView(tab context.Context, view View) error {
+	return setBox(tab, "checker-view", view == CheckerView)
+}
+
+// setBox ticks or clears one of the page's checkboxes.
+func setBox(tab context.Context, id string, on bool) error {
 	want := "false"
-	if view == CheckerView {
+	if on {
 		want = "true"
 	}
 	_, err := chromedp.Run(tab, chromedp.Evaluate[bool](
-		`(function(){var b=document.getElementById("checker-view");if(!b)return false;b.checked=`+want+`;return true})()`))
+		`(function(){var b=document.getElementById("`+id+`");if(!b)return false;b.checked=`+want+`;return true})()`))
 	return err
 }
 
-// Print opens the page at address in tab and prints it in view on paper:
-// margins and the page counter come from the page's print stylesheet. It
-// returns the PDF and the page's title.
-func Print(tab context.Context, address string, paper Paper, view View) ([]byte, string, error) {
+// Print opens the page at address in tab and prints it as the layout
+// says: margins and the page counter come from the page's print
+// stylesheet. It returns the PDF and the page's title.
+func Print(tab context.Context, address string, l Layout) ([]byte, string, error) {
 	// Print as the print stylesheet says, whatever medium the tab emulated.
 	reset := chromedp.Func(func(ctx context.Context, t *chromedp.Target) error {
 		_, err := cdp.Call(ctx, t, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{})
@@ -81,7 +95,10 @@ func Print(tab context.Context, address string, paper Paper, view View) ([]byte,
 	if err := chromedp.Do(tab, reset, chromedp.Navigate(address)); err != nil {
 		return nil, "", fmt.Errorf("opening %s: %w", address, err)
 	}
-	if err := SetView(tab, view); err != nil {
+	if err := SetView(tab, l.View); err != nil {
+		return nil, "", err
+	}
+	if err := setBox(tab, "print-graph", l.Graphs); err != nil {
 		return nil, "", err
 	}
 	title, err := chromedp.Run(tab, chromedp.Title())
@@ -89,7 +106,7 @@ func Print(tab context.Context, address string, paper Paper, view View) ([]byte,
 		return nil, "", err
 	}
 	data, err := chromedp.Run(tab, chromedp.PrintToPDF(
-		chromedp.PDFPaper(paper.Size),
+		chromedp.PDFPaper(l.Paper.Size),
 		chromedp.PDFPrintBackground(),
 		chromedp.PDFOutlineAndTagged(),
 	))

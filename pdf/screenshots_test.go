@@ -47,7 +47,7 @@ func TestScreenshots(t *testing.T) {
 			t.Fatal(err)
 		}
 	}
-	data, _, err := Print(tab, u, A4, IssueView)
+	data, _, err := Print(tab, u, Layout{Paper: A4})
 	if err != nil {
 		t.Fatal(err)
 	}

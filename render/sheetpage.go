@@ -66,7 +66,8 @@ func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, pr *prose) (
 		if err != nil {
 			return nil, err
 		}
-		p.f("<section class=\"graph\">\n<h2>Dependency graph</h2>\n<p class=\"loc hint-screen\">Each arrow runs from a statement to one that uses it; select a box to go to its statement.</p>\n<figure>\n")
+		p.f("<section class=\"graph\">\n<h2>Dependency graph</h2>\n<p class=\"loc hint-screen\">Each arrow runs from a statement to one that uses it; select a box to go to its statement. " +
+			"<label><input type=\"checkbox\" id=\"print-graph\"> print the graph on a page of its own</label></p>\n<figure>\n")
 		p.Write(svg)
 		p.f("</figure>\n</section>\n")
 	}

@@ -139,6 +139,9 @@ footer{margin-top:2rem;border-top:1px solid var(--rule);padding-top:.5rem;font-s
  .error,.blocked,.stamp,.reach .bar i,.titleblock,.status{-webkit-print-color-adjust:exact;print-color-adjust:exact}
  h2,h3,p.caption,.caution{break-after:avoid}
  footer{break-before:avoid;break-inside:avoid;margin-top:3mm}
+ body:has(#print-graph:checked) section.graph{display:block!important;break-before:page}
+ section.graph figure{border:0;padding:0;margin:0}
+ .graph svg{max-width:100%;max-height:215mm;width:auto}
  .row.use{break-inside:auto}
  .use .usehead{break-after:avoid}
  table.frame{display:table;width:100%;border-collapse:collapse;table-layout:fixed}

@@ -19,14 +19,15 @@ import (
 func printCmd(stdout, stderr io.Writer) *cobra.Command {
 	var flags commonFlags
 	var out, paper string
-	var checker bool
+	var checker, graphs bool
 	c := &cobra.Command{
 		Use:   "print <folder|file> -o <file.pdf>",
 		Short: "Print the package as one PDF through a local Chromium: index and contents, every sheet, the registers, the audit",
 		Long: "print builds the package in a temporary folder and prints each page with a locally installed Chromium\n" +
 			"(headless, through the DevTools protocol), each on its own so that its pages count \"page x of y\" of\n" +
 			"that sheet, then joins them with a bookmark per page. On Debian: apt-get install chromium. Set\n" +
-			"SHEAF_CHROMIUM to use another browser. The issue view is printed unless --checker is given.",
+			"SHEAF_CHROMIUM to use another browser. The issue view is printed unless --checker is given; the\n" +
+			"dependency graphs only with --graphs.",
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			size, err := pdf.PaperNamed(paper)
@@ -37,20 +38,21 @@ func printCmd(stdout, stderr io.Writer) *cobra.Command {
 			if checker {
 				view = pdf.CheckerView
 			}
-			return printPackage(args[0], out, size, view, flags, stdout, stderr)
+			return printPackage(args[0], out, pdf.Layout{Paper: size, View: view, Graphs: graphs}, flags, stdout, stderr)
 		},
 	}
 	flags.register(c)
 	c.Flags().StringVarP(&out, "out", "o", "", "PDF file to write (required; outside the sources)")
 	c.Flags().StringVar(&paper, "paper", "a4", "paper size: a4 or letter")
 	c.Flags().BoolVar(&checker, "checker", false, "print the checker view: positions, uses, used-by and what each result rests on")
+	c.Flags().BoolVar(&graphs, "graphs", false, "print each sheet's dependency graph on a page of its own after the sheet")
 	_ = c.MarkFlagRequired("out")
 	return c
 }
 
 // printPackage builds the package at src into a temporary folder and
 // prints it to out.
-func printPackage(src, out string, paper pdf.Paper, view pdf.View, flags commonFlags, stdout, stderr io.Writer) error {
+func printPackage(src, out string, layout pdf.Layout, flags commonFlags, stdout, stderr io.Writer) error {
 	if _, err := pdf.FindChromium(); err != nil {
 		return err
 	}
@@ -90,13 +92,13 @@ func printPackage(src, out string, paper pdf.Paper, view pdf.View, flags commonF
 		return err
 	}
 	defer browser.Close()
-	data, n, err := pdf.Package(ctx, browser, parts, paper, view)
+	data, n, err := pdf.Package(ctx, browser, parts, layout)
 	if err != nil {
 		return err
 	}
 	if err := atomicfile.Write(out, data, 0o644); err != nil {
 		return err
 	}
-	fmt.Fprintf(stdout, "wrote %s (%d pages on %s: the index, %d sheets, the registers and the audit)\n", out, n, paper.Name, len(res.Package.Sheets))
+	fmt.Fprintf(stdout, "wrote %s (%d pages on %s: the index, %d sheets, the registers and the audit)\n", out, n, layout.Paper.Name, len(res.Package.Sheets))
 	return outcome(res.Package)
 }
