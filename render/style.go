@@ -67,8 +67,8 @@ body:has(#checker-view:checked) .iv{display:none!important}
 .row:last-child{border-bottom:0}
 .eq{display:flex;flex-wrap:wrap;align-items:baseline;column-gap:.35em;max-width:100%;overflow-x:auto;overflow-y:hidden}
 .eq math{math-style:normal;display:inline-block;margin:.15rem 0;font-size:1.08em;max-width:100%}
-.eq math.step{padding-left:1.2em}
-.eq math.step:first-child{padding-left:0}
+.eq{padding-left:1.5em}
+.eq math:first-child{margin-left:-1.5em}
 .note{font-size:.8rem;color:var(--muted);display:flex;flex-wrap:wrap;gap:.15rem .9rem}
 .note .desc{color:var(--ink)}
 .loc{color:var(--muted);font-size:.76rem;text-decoration:none;font-family:ui-monospace,Menlo,monospace}
