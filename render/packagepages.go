@@ -81,6 +81,7 @@ func indexPage(pkg *project.Package, opt Options) []byte {
 			pageHref(s.Page), esc(s.Title()), esc(s.Path()), esc(s.Doc.Meta.Subject), esc(s.Doc.Meta.Revision), sc.Results, sc.Pass, sc.Fail, sc.Errors)
 	}
 	p.f("</tbody>\n</table>\n")
+	revisionHistory(p, pkg)
 
 	// Every check of the package, the closest to its limit first.
 	type located struct {
@@ -119,6 +120,25 @@ func indexPage(pkg *project.Package, opt Options) []byte {
 	}
 	p.close(opt.Version, "Package index.")
 	return p.Bytes()
+}
+
+// revisionHistory lists the revisions of every sheet, for the cover of
+// an issued package.
+func revisionHistory(p *page, pkg *project.Package) {
+	n := 0
+	for _, s := range pkg.Sheets {
+		for _, r := range s.Doc.Meta.History {
+			if n == 0 {
+				p.f("<h2>Revision history</h2>\n<table class=\"history\">\n<thead><tr><th>Sheet</th><th>Rev.</th><th>Date</th><th>By</th><th>Revision</th></tr></thead>\n<tbody>\n")
+			}
+			n++
+			p.f("<tr><td><a href=\"%s\">%s</a></td><td>%s</td><td class=\"date\">%s</td><td>%s</td><td>%s</td></tr>\n",
+				pageHref(s.Page), esc(s.Path()), esc(r.Rev), esc(r.Date), esc(r.By), esc(r.Note))
+		}
+	}
+	if n > 0 {
+		p.f("</tbody>\n</table>\n")
+	}
 }
 
 // worse orders checks for the package index: failures first, then by

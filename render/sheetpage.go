@@ -98,7 +98,7 @@ func history(p *page, m sheets.Meta) {
 	}
 	p.f("<section class=\"history\">\n<table>\n<thead><tr><th>Rev.</th><th>Date</th><th>By</th><th>Revision</th></tr></thead>\n<tbody>\n")
 	for _, r := range m.History {
-		p.f("<tr><td>%s</td><td>%s</td><td>%s</td><td>%s</td></tr>\n", esc(r.Rev), esc(r.Date), esc(r.By), esc(r.Note))
+		p.f("<tr><td>%s</td><td class=\"date\">%s</td><td>%s</td><td>%s</td></tr>\n", esc(r.Rev), esc(r.Date), esc(r.By), esc(r.Note))
 	}
 	p.f("</tbody>\n</table>\n</section>\n")
 }

@@ -37,6 +37,7 @@ th,td{border:1px solid var(--rule);padding:.3rem .45rem;text-align:left;vertical
 th{background:var(--band);font-weight:600}
 td.num{text-align:right;font-variant-numeric:tabular-nums;white-space:nowrap}
 td code{overflow-wrap:anywhere}
+td.date{white-space:nowrap}
 table.frame,table.frame>thead,table.frame>tbody,table.frame>tfoot,table.frame>*>tr,table.frame>*>tr>td{display:block;border:0;padding:0;margin:0;width:auto;font-size:inherit;font-family:inherit}
 table.frame>tfoot{display:none}
 .scroll{overflow-x:auto;margin:.75rem 0}
