@@ -91,7 +91,7 @@ func TestChecksShowUtilisationEitherSideOfOne(t *testing.T) {
 		if r.Status != w.status || math.Abs(r.Utilisation-w.util) > 1e-12 {
 			t.Errorf("check %d: %v at %g, want %v at %g", i, r.Status, r.Utilisation, w.status, w.util)
 		}
-		if !strings.Contains(page, "utilisation "+w.text) {
+		if !strings.Contains(page, "demand "+w.text+" of capacity") {
 			t.Errorf("page lacks utilisation %s", w.text)
 		}
 	}

@@ -9,6 +9,7 @@ import (
 	"html"
 	"net/url"
 	"path"
+	"regexp"
 	"runtime"
 	"strings"
 	"sync"
@@ -179,6 +180,7 @@ func (p *page) f(format string, args ...any) { fmt.Fprintf(&p.Buffer, format, ar
 // the top of every printed page.
 type titleBlock struct {
 	kicker, heading, subject string
+	number                   string      // "Sheet 2 of 5", for a sheet's page
 	fields                   [][2]string // label, value; empty values are left out
 }
 
@@ -204,22 +206,8 @@ func (p *page) open(fr frame, version string) {
 	p.f("<meta name=\"sheaf-stamp\" content=\"%s\">\n", esc(fr.stamp))
 	p.f("<title>%s</title>\n<style>%s</style>\n</head>\n<body>\n", esc(fr.title), pageCSS)
 	p.f("<table class=\"frame\">\n<thead><tr><td>\n")
-	b := fr.block
-	p.f("<header class=\"titleblock\">\n<div>\n")
-	if b.kicker != "" {
-		p.f("<p class=\"kicker\">%s</p>\n", esc(b.kicker))
-	}
-	p.f("<h1>%s</h1>\n", esc(b.heading))
-	if b.subject != "" {
-		p.f("<p>%s</p>\n", esc(b.subject))
-	}
-	p.f("</div>\n<dl>\n")
-	for _, kv := range b.fields {
-		if kv[1] != "" {
-			p.f("<dt>%s</dt><dd>%s</dd>\n", kv[0], esc(kv[1]))
-		}
-	}
-	p.f("</dl>\n</header>\n</td></tr></thead>\n")
+	fr.block.write(p)
+	p.f("</td></tr></thead>\n")
 	p.f("<tfoot><tr><td><p class=\"stampline\">Package stamp <code>%s</code>", esc(fr.stamp))
 	if fr.date != "" {
 		p.f(" · built %s", esc(fr.date))
@@ -232,8 +220,40 @@ func (p *page) open(fr frame, version string) {
 		}
 		p.f("<a href=\"%s%s\">%s</a>", fr.root, n.path, esc(n.label))
 	}
+	// The view switch: a checkbox that the stylesheet reads with :has(),
+	// so that a page without scripts still shows the checker's notes on
+	// demand, on screen and on paper.
+	p.f("<label class=\"viewswitch\" title=\"Show positions, uses, used-by and what each result rests on\">" +
+		"<input type=\"checkbox\" id=\"checker-view\"> Checker view</label>")
 	p.f("</nav>\n")
 }
+
+// write draws a title block as a drawing office does: the project, the
+// heading and the subject, over a grid of ruled cells, one per field, that
+// wraps to the width of the page rather than losing its right half.
+func (b titleBlock) write(p *page) {
+	p.f("<header class=\"titleblock\">\n<div class=\"tb-head\">\n")
+	if b.kicker != "" {
+		p.f("<p class=\"kicker\">%s</p>\n", esc(b.kicker))
+	}
+	if b.number != "" {
+		p.f("<p class=\"sheetno\">%s</p>\n", esc(b.number))
+	}
+	p.f("<h1>%s</h1>\n", esc(b.heading))
+	if b.subject != "" {
+		p.f("<p class=\"subject\">%s</p>\n", esc(b.subject))
+	}
+	p.f("</div>\n<dl>\n")
+	for _, kv := range b.fields {
+		if kv[1] != "" {
+			// A date does not break at its hyphens in a narrow cell.
+			p.f("<div><dt>%s</dt><dd>%s</dd></div>\n", kv[0], isoDate.ReplaceAllString(esc(kv[1]), `<span class="date">$0</span>`))
+		}
+	}
+	p.f("</dl>\n</header>\n")
+}
+
+var isoDate = regexp.MustCompile(`\b\d{4}-\d{2}-\d{2}\b`)
 
 // close writes the cautions and the footer, and ends the page.
 func (p *page) close(version, what string) {
@@ -259,7 +279,7 @@ func packageFrame(pkg *project.Package, opt Options) frame {
 // sheetFields are a sheet's title-block fields.
 func sheetFields(m sheets.Meta, sheetPath string) [][2]string {
 	return [][2]string{
-		{"Client", m.Client}, {"Job", m.Job}, {"Sheet", sheetPath}, {"Revision", m.Revision}, {"Date", m.Date},
+		{"Client", m.Client}, {"Job", m.Job}, {"Revision", m.Revision}, {"Date", m.Date}, {"File", sheetPath},
 		{"Prepared", signed(m.PreparedBy, m.PreparedOn)}, {"Checked", signed(m.CheckedBy, m.CheckedOn)},
 		{"Approved", signed(m.ApprovedBy, m.ApprovedOn)},
 	}

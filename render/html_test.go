@@ -60,7 +60,7 @@ func TestSheetPageShowsFormulaValuesAndChecks(t *testing.T) {
 		"<msub><mi>λ</mi><mi>f</mi></msub><mo>=</mo>",
 		"<mn>120</mn><mo>⋅</mo><mn>2.5</mn><mspace width=\"0.2em\"></mspace><mtext>mWb</mtext>",
 		"<mn>0.3000</mn><mspace width=\"0.2em\"></mspace><mtext>Wb</mtext>",
-		"class=\"row check pass\"", "class=\"row check fail\"", ">PASS<", ">FAIL<", "utilisation 60.0 %", "utilisation 150 %",
+		"class=\"row check pass\"", "class=\"row check fail\"", ">holds<", ">not met<", "demand 60.0 % of capacity", "demand 150 % of capacity",
 		"Inputs register", "flux per pole",
 		"class=\"row error\"", "cannot add a pure number and magnetic flux (Wb)",
 		"coil.md:20:9",

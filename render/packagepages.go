@@ -82,6 +82,7 @@ func indexPage(pkg *project.Package, opt Options) []byte {
 			pageHref(s.Page), esc(s.Title()), esc(s.Path()), esc(s.Doc.Meta.Subject), esc(s.Doc.Meta.Revision), sc.Results, sc.Pass, sc.Fail, sc.Errors)
 	}
 	p.f("</tbody>\n</table>\n")
+	revisionHistory(p, pkg)
 
 	// Every check of the package, the closest to its limit first.
 	var all []checkRow
@@ -103,6 +104,25 @@ func indexPage(pkg *project.Package, opt Options) []byte {
 	}
 	p.close(opt.Version, "Package index.")
 	return p.Bytes()
+}
+
+// revisionHistory lists the revisions of every sheet, for the cover of
+// an issued package.
+func revisionHistory(p *page, pkg *project.Package) {
+	n := 0
+	for _, s := range pkg.Sheets {
+		for _, r := range s.Doc.Meta.History {
+			if n == 0 {
+				p.f("<h2>Revision history</h2>\n<table class=\"history\">\n<thead><tr><th>Sheet</th><th>Rev.</th><th>Date</th><th>By</th><th>Revision</th></tr></thead>\n<tbody>\n")
+			}
+			n++
+			p.f("<tr><td><a href=\"%s\">%s</a></td><td>%s</td><td class=\"date\">%s</td><td>%s</td><td>%s</td></tr>\n",
+				pageHref(s.Page), esc(s.Path()), esc(r.Rev), esc(r.Date), esc(r.By), esc(r.Note))
+		}
+	}
+	if n > 0 {
+		p.f("</tbody>\n</table>\n")
+	}
 }
 
 // worse orders checks for the package index: failures first, then by
@@ -127,14 +147,14 @@ func worse(a, b engine.Result) bool {
 func inputsPage(pkg *project.Package, opt Options) []byte {
 	p := packagePage(pkg, opt, "Inputs register")
 	p.f("<p>Every input of the package: a definition whose value is written directly, with the unit, description and source the author gave.</p>\n")
-	p.f("<table>\n<thead><tr><th>Sheet</th><th>Line</th><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th><th>Set by</th></tr></thead>\n<tbody>\n")
+	p.f("<table>\n<thead><tr><th>Sheet</th><th class=\"ck\">Line</th><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th><th class=\"ck\">Set by</th></tr></thead>\n<tbody>\n")
 	for _, s := range pkg.Sheets {
 		for _, st := range s.Calc.Statements {
 			if !st.IsInput() || s.Calc.Result(st).Status != engine.OK {
 				continue
 			}
 			value, unit := InputText(st)
-			p.f("<tr><td><a href=\"%s\">%s</a></td><td><a class=\"loc\" href=\"%s#%s\">%d</a></td><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td>%s</td></tr>\n",
+			p.f("<tr><td><a href=\"%s\">%s</a></td><td class=\"ck\"><a class=\"loc\" href=\"%s#%s\">%d</a></td><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td class=\"ck\">%s</td></tr>\n",
 				pageHref(s.Page), esc(s.Path()), pageHref(s.Page), anchor(st), st.Pos.Line, symbolHTML(st.Name), esc(value), esc(unit), esc(st.Description), esc(st.Source), esc(SetBy(st)))
 		}
 	}

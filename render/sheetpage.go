@@ -1,6 +1,8 @@
 package render
 
 import (
+	"strconv"
+
 	"github.com/yuin/goldmark"
 	"github.com/yuin/goldmark/renderer"
 	"github.com/yuin/goldmark/util"
@@ -48,7 +50,8 @@ func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, pr *prose) (
 	fr.title = s.Title()
 	fr.root = rel(s.Page)
 	m := s.Doc.Meta
-	fr.block = titleBlock{kicker: m.Project, heading: s.Title(), subject: m.Subject, fields: sheetFields(m, s.Path())}
+	fr.block = titleBlock{kicker: m.Project, heading: s.Title(), subject: m.Subject, fields: sheetFields(m, s.Path()),
+		number: sheetNumber(pkg, s, m.Revision)}
 	p.open(fr, opt.Version)
 	history(p, m)
 	statusSection(p, s, digits)
@@ -63,13 +66,29 @@ func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, pr *prose) (
 		if err != nil {
 			return nil, err
 		}
-		p.f("<section class=\"graph\">\n<h2>Dependency graph</h2>\n<p class=\"loc\">Each arrow runs from a statement to one that uses it; select a box to go to its statement.</p>\n<figure>\n")
+		p.f("<section class=\"graph\">\n<h2>Dependency graph</h2>\n<p class=\"loc hint-screen\">Each arrow runs from a statement to one that uses it; select a box to go to its statement. " +
+			"<label><input type=\"checkbox\" id=\"print-graph\"> print the graph on a page of its own</label></p>\n<figure>\n")
 		p.Write(svg)
 		p.f("</figure>\n</section>\n")
 	}
 	inputsRegister(p, s)
 	p.close(opt.Version, "Page of "+esc(s.Path())+".")
 	return p.Bytes(), nil
+}
+
+// sheetNumber is a sheet's place in the package and its revision, "Sheet 2
+// of 5 · Rev. B", as the corner of a title block numbers the sheets of a set.
+func sheetNumber(pkg *project.Package, s *project.Sheet, rev string) string {
+	for i, t := range pkg.Sheets {
+		if t == s {
+			n := "Sheet " + strconv.Itoa(i+1) + " of " + strconv.Itoa(len(pkg.Sheets))
+			if rev != "" {
+				n += " · Rev. " + rev
+			}
+			return n
+		}
+	}
+	return ""
 }
 
 // history writes the revision history, when the front matter has one.
@@ -79,7 +98,7 @@ func history(p *page, m sheets.Meta) {
 	}
 	p.f("<section class=\"history\">\n<table>\n<thead><tr><th>Rev.</th><th>Date</th><th>By</th><th>Revision</th></tr></thead>\n<tbody>\n")
 	for _, r := range m.History {
-		p.f("<tr><td>%s</td><td>%s</td><td>%s</td><td>%s</td></tr>\n", esc(r.Rev), esc(r.Date), esc(r.By), esc(r.Note))
+		p.f("<tr><td>%s</td><td class=\"date\">%s</td><td>%s</td><td>%s</td></tr>\n", esc(r.Rev), esc(r.Date), esc(r.By), esc(r.Note))
 	}
 	p.f("</tbody>\n</table>\n</section>\n")
 }
@@ -143,14 +162,14 @@ func checksTable(p *page, checks []checkRow, sheetCol bool) {
 	if sheetCol {
 		p.f("<th>Sheet</th>")
 	}
-	p.f("<th>Check</th><th>Left</th><th></th><th>Right</th><th>Utilisation</th><th>Description</th></tr></thead>\n<tbody>\n")
+	p.f("<th>Check</th><th>Left</th><th></th><th>Right</th><th>Demand / capacity</th><th>Description</th></tr></thead>\n<tbody>\n")
 	for _, c := range checks {
 		st, r, digits := c.st, c.r, c.digits
-		verdict, cls := "PASS", "pass"
+		cls := "pass"
 		if r.Status == engine.Fail {
-			verdict, cls = "FAIL", "fail"
+			cls = "fail"
 		}
-		p.f("<tr class=\"%s\"><td><span class=\"verdict\">%s</span></td>", cls, verdict)
+		p.f("<tr class=\"%s\"><td><span class=\"stamp\">%s</span></td>", cls, Verdict(r.Status))
 		if sheetCol {
 			p.f("<td>%s</td>", esc(c.sheet))
 		}
@@ -175,10 +194,10 @@ func inputsRegister(p *page, s *project.Sheet) {
 		p.f("<p>This sheet has no inputs of its own.</p>\n</section>\n")
 		return
 	}
-	p.f("<table>\n<thead><tr><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th><th>Set by</th><th>Line</th></tr></thead>\n<tbody>\n")
+	p.f("<table>\n<thead><tr><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th><th class=\"ck\">Set by</th><th class=\"ck\">Line</th></tr></thead>\n<tbody>\n")
 	for _, st := range rows {
 		value, unit := InputText(st)
-		p.f("<tr><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td>%s</td><td><a class=\"loc\" href=\"#%s\">%d</a></td></tr>\n",
+		p.f("<tr><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td class=\"ck\">%s</td><td class=\"ck\"><a class=\"loc\" href=\"#%s\">%d</a></td></tr>\n",
 			symbolHTML(st.Name), esc(value), esc(unit), esc(st.Description), esc(st.Source), esc(SetBy(st)), anchor(st), st.Pos.Line)
 	}
 	p.f("</tbody>\n</table>\n</section>\n")

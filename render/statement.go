@@ -3,6 +3,7 @@ package render
 import (
 	"math"
 	"strconv"
+	"strings"
 
 	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
@@ -40,30 +41,78 @@ func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int)
 	if st.Overridden {
 		class += " set"
 	}
-	w.WriteString(`<div class="` + class + `" id="` + anchor(st) + "\">\n<div class=\"eq\"><math class=\"f\"><mrow>")
-	w.WriteString(symbolMathML(st.Name))
-	w.WriteString("<mo>=</mo>")
-	writeFormula(w, calc, st.Expr, symbolic, digits)
+	w.WriteString(`<div class="` + class + `" id="` + anchor(st) + "\">\n")
+	steps := []string{symbolMathML(st.Name) + "<mo>=</mo>" + formulaML(calc, st.Expr, symbolic, digits)}
 	if shownConverted(st) {
 		// B [T] = 12 kG: the value as written, then in the unit asked for.
-		w.WriteString("<mo>=</mo>")
-		w.WriteString(valueMathML(res.Value, res.Shown, res.Digits(digits)))
+		steps = append(steps, "<mo>=</mo>"+valueMathML(res.Value, res.Shown, res.Digits(digits)))
 	}
 	if !st.IsInput() {
 		if substitutes(st.Expr) {
-			w.WriteString("<mo>=</mo>")
-			writeFormula(w, calc, st.Expr, substituted, digits)
+			steps = append(steps, "<mo>=</mo>"+formulaML(calc, st.Expr, substituted, digits))
 		}
 		// A name that only repeats an input already shows its value.
 		if r, ok := st.Expr.(*engine.Ref); !ok || r.Target == nil || !r.Target.IsInput() {
-			w.WriteString("<mo>=</mo>")
-			w.WriteString(resultMathML(res, digits))
+			steps = append(steps, "<mo>=</mo>"+resultMathML(res, digits))
 		}
 	}
-	w.WriteString("</mrow></math></div>\n")
+	writeSteps(w, steps)
 	writeListTable(w, st, res, digits)
 	writeNote(w, calc, st)
 	w.WriteString("</div>\n")
+}
+
+// writeSteps writes the steps of an equation (name = formula, = values,
+// = result), each as a math element of its own: a browser does not break a
+// line inside MathML, so a long equation wraps between its steps, at the
+// equals sign. A step too long for a line of the printed page is set
+// smaller on paper rather than clipped.
+func writeSteps(w sink, steps []string) {
+	w.WriteString("<div class=\"eq\">")
+	for i, step := range steps {
+		class := "f"
+		if i > 0 {
+			class += " step"
+		}
+		switch n := visibleLen(step); {
+		case n > 120:
+			class += " longer"
+		case n > 80:
+			class += " long"
+		}
+		w.WriteString(`<math class="` + class + `"><mrow>` + step + "</mrow></math>")
+	}
+	w.WriteString("</div>\n")
+}
+
+// formulaML is a formula's MathML as a string.
+func formulaML(calc *engine.Calc, e engine.Expr, mode mathMode, digits int) string {
+	var b strings.Builder
+	writeFormula(&b, calc, e, mode, digits)
+	return b.String()
+}
+
+// visibleLen counts the characters of MathML that a reader sees: the text
+// outside the tags, an entity counted as one.
+func visibleLen(ml string) int {
+	n, inTag, inEntity := 0, false, false
+	for _, r := range ml {
+		switch {
+		case r == '<':
+			inTag = true
+		case r == '>':
+			inTag = false
+		case inTag:
+		case r == '&':
+			inEntity = true
+			n++
+		case inEntity:
+			inEntity = r != ';'
+		default:
+			n++
+		}
+	}
+	return n
 }
 
 // writeTake draws a result taken from another sheet: its value, and a
@@ -146,8 +195,10 @@ func writeNote(w sink, calc *engine.Calc, st *engine.Statement) {
 		}
 		w.WriteString("</span>")
 	}
+	// What follows is for the checker: who set an input, where the
+	// statement is, what it uses and what uses it, what it rests on.
 	if st.Overridden {
-		w.WriteString("<span class=\"setby\">set by ")
+		w.WriteString("<span class=\"setby ck\">set by ")
 		if st.Use != nil {
 			w.WriteString(`<a href="#` + anchor(st.Use) + `">use ` + esc(st.Use.Name) + "</a>")
 		}
@@ -158,15 +209,15 @@ func writeNote(w sink, calc *engine.Calc, st *engine.Statement) {
 		}
 		w.WriteString("</span>")
 	} else if st.Instance != "" && st.IsInput() {
-		w.WriteString("<span class=\"setby\">template default</span>")
+		w.WriteString("<span class=\"setby ck\">template default</span>")
 	}
-	w.WriteString(`<a class="loc" href="#` + anchor(st) + `">` + esc(st.Pos.String()) + "</a>")
+	w.WriteString(`<a class="loc ck" href="#` + anchor(st) + `">` + esc(st.Pos.String()) + "</a>")
 	writeLinks(w, "uses", st.Deps)
 	writeLinks(w, "used by", st.Users)
 	w.WriteString("</div>\n")
 	if !st.IsInput() && len(st.Deps) > 0 {
 		inputs, assumptions := calc.RestsOn(st)
-		w.WriteString("<details class=\"trace\"><summary>rests on ")
+		w.WriteString("<details class=\"trace ck\"><summary>rests on ")
 		w.WriteString(Count(len(inputs), "input"))
 		if len(assumptions) > 0 {
 			w.WriteString(" and " + Count(len(assumptions), "assumption"))
@@ -203,7 +254,7 @@ func writeLinks(w sink, label string, sts []*engine.Statement) {
 	if len(sts) == 0 {
 		return
 	}
-	w.WriteString("<span class=\"links\">" + label + " ")
+	w.WriteString("<span class=\"links ck\">" + label + " ")
 	for i, d := range sts {
 		if i > 0 {
 			w.WriteString(", ")
@@ -229,26 +280,51 @@ func assumptionAnchor(a *engine.Assumption) string {
 	return "A-" + a.ID
 }
 
+// writeCheck draws a check as a stamp that says whether it holds, beside
+// the relation as written, the same relation in numbers with both sides in
+// the check's unit, and a reach bar: how much of its capacity the demand
+// takes, with the limit marked.
 func writeCheck(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
 	res := calc.Result(st)
-	cls, verdict := "pass", "PASS"
+	cls, verdict := "pass", Verdict(res.Status)
 	if res.Status == engine.Fail {
-		cls, verdict = "fail", "FAIL"
+		cls = "fail"
 	}
 	cmp := st.Compare()
-	w.WriteString(`<div class="row check ` + cls + `" id="` + anchor(st) + "\">\n<span class=\"verdict\">" + verdict + "</span>\n<div>\n")
-	w.WriteString("<div class=\"eq\"><math class=\"f\"><mrow>")
-	writeFormula(w, calc, cmp, symbolic, digits)
-	w.WriteString("<mspace width=\"1em\"></mspace><mo>⇒</mo><mspace width=\"1em\"></mspace><mrow>")
+	w.WriteString(`<div class="row check ` + cls + `" id="` + anchor(st) + "\">\n<span class=\"stamp\">" + verdict + "</span>\n<div>\n")
+	writeSteps(w, []string{formulaML(calc, cmp, symbolic, digits)})
+	w.WriteString("<p class=\"inval\">in numbers <math><mrow>")
 	w.WriteString(valueMathML(res.Left, res.Shown, digits))
 	w.WriteString("<mo>" + esc(relations[cmp.Op]) + "</mo>")
 	w.WriteString(valueMathML(res.Right, res.Shown, digits))
-	w.WriteString("</mrow></mrow></math></div>\n")
-	if u := UtilisationText(res.Utilisation); u != "" {
-		w.WriteString("<div class=\"note\"><span class=\"util\">utilisation " + u + "</span></div>\n")
-	}
+	w.WriteString("</mrow></math></p>\n")
+	writeReach(w, res.Utilisation)
 	writeNote(w, calc, st)
 	w.WriteString("</div>\n</div>\n")
+}
+
+// Verdict is the word a check's stamp shows.
+func Verdict(s engine.Status) string {
+	if s == engine.Fail {
+		return "not met"
+	}
+	return "holds"
+}
+
+// reachScale is the share of a reach bar's length at which the limit
+// stands: demands up to a quarter over capacity still show their excess.
+const reachScale = 1.25
+
+// writeReach draws how much of its capacity a check's demand takes: a bar
+// filled to the demand, a mark at the limit, and the figure in words.
+func writeReach(w sink, u float64) {
+	text := UtilisationText(u)
+	if text == "" {
+		return
+	}
+	fill := math.Min(u/reachScale, 1) * 100
+	w.WriteString(`<div class="reach"><span class="bar" aria-hidden="true"><i style="width:` +
+		strconv.FormatFloat(fill, 'f', 1, 64) + `%"></i><b></b></span><span class="util">demand ` + text + " of capacity</span></div>\n")
 }
 
 // UtilisationText writes a utilisation as a percentage, or "" when it has

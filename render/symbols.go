@@ -44,10 +44,12 @@ func SymbolText(name string) string {
 }
 
 // symbolMathML writes a name as MathML: a letter with its subscript, after
-// the instance it belongs to, if any.
+// the instance it belongs to and a colon, if any.
 func symbolMathML(name string) string {
 	if i := strings.LastIndexByte(name, '.'); i >= 0 {
-		return `<mrow><mi mathvariant="normal">` + html.EscapeString(name[:i]) + "</mi><mo>.</mo>" + symbolMathML(name[i+1:]) + "</mrow>"
+		// g1:Q_s, the instance and its name read as one name, not as a
+		// product of two.
+		return `<mrow><mi mathvariant="normal">` + html.EscapeString(name[:i]) + `</mi><mo lspace="0" rspace="0">:</mo>` + symbolMathML(name[i+1:]) + "</mrow>"
 	}
 	base, subs := splitName(name)
 	b := mi(base)
@@ -59,10 +61,11 @@ func symbolMathML(name string) string {
 
 func mi(s string) string { return "<mi>" + html.EscapeString(s) + "</mi>" }
 
-// symbolHTML writes a name as HTML text with a <sub> subscript, for tables.
+// symbolHTML writes a name as HTML text with a <sub> subscript, for tables;
+// an instance's name reads g1:Q<sub>s</sub>.
 func symbolHTML(name string) string {
 	if i := strings.LastIndexByte(name, '.'); i >= 0 {
-		return html.EscapeString(name[:i+1]) + symbolHTML(name[i+1:])
+		return html.EscapeString(name[:i]) + ":" + symbolHTML(name[i+1:])
 	}
 	base, subs := splitName(name)
 	out := "<var>" + html.EscapeString(base) + "</var>"

@@ -73,6 +73,7 @@ func newRoot(stdout, stderr io.Writer) *cobra.Command {
 	root.SetErr(stderr)
 	root.CompletionOptions.DisableDefaultCmd = true
 	root.AddCommand(buildCmd(stdout, stderr), checkCmd(stdout, stderr), auditCmd(stdout, stderr),
-		diffCmd(stdout, stderr), verifyCmd(stdout, stderr), templatesCmd(stdout), unitsCmd(stdout))
+		diffCmd(stdout, stderr), verifyCmd(stdout, stderr), templatesCmd(stdout), unitsCmd(stdout),
+		printCmd(stdout, stderr), previewCmd(stdout, stderr))
 	return root
 }
