@@ -40,15 +40,7 @@ func compileList(e Expr) evalFn {
 	case *Binary:
 		return compileListBinary(e, at, n)
 	case *Call:
-		fx, xa, g := fnOf(e.Args[0]), int(e.Args[0].base().at), e.Func.f1
-		return func(v []float64) float64 {
-			fx(v)
-			a, o := v[xa:xa+n], v[at:at+n]
-			for i := range o {
-				o[i] = g(a[i])
-			}
-			return 0
-		}
+		return mapList(fnOf(e.Args[0]), int(e.Args[0].base().at), at, n, e.Func.f1)
 	}
 	return func([]float64) float64 { return math.NaN() }
 }
@@ -237,12 +229,17 @@ var listLoops = map[string]listLoop{
 // compileTableList reads a table at each element of a list.
 func compileTableList(n *Call, x evalFn, read func(float64) float64) evalFn {
 	at, l := listAt(n)
-	xa := int(n.Args[2].base().at)
+	return mapList(x, int(n.Args[2].base().at), at, l, read)
+}
+
+// mapList evaluates the list x (its n elements at xa) and writes g of
+// each element to the n places at at.
+func mapList(x evalFn, xa, at, n int, g func(float64) float64) evalFn {
 	return func(v []float64) float64 {
 		x(v)
-		a, o := v[xa:xa+l], v[at:at+l]
+		a, o := v[xa:xa+n], v[at:at+n]
 		for i := range o {
-			o[i] = read(a[i])
+			o[i] = g(a[i])
 		}
 		return 0
 	}

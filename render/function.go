@@ -35,15 +35,6 @@ func (w *mathWriter) apply(e engine.Expr) bool {
 	if !ok {
 		return false
 	}
-	w.b.WriteString("<mrow>" + symbolMathML(n.Name) + "<mo>\u2061</mo><mrow>")
-	w.op("(")
-	for i, a := range n.Args {
-		if i > 0 {
-			w.op(",")
-		}
-		w.expr(a, 0)
-	}
-	w.op(")")
-	w.b.WriteString("</mrow></mrow>")
+	w.applied(symbolMathML(n.Name), n.Args)
 	return true
 }

@@ -193,9 +193,14 @@ func (w *mathWriter) call(n *engine.Call) {
 		w.b.WriteString(`<mo fence="true">|</mo></mrow>`)
 		return
 	}
-	w.b.WriteString("<mrow>" + mi(n.Name) + "<mo>\u2061</mo><mrow>")
+	w.applied(mi(n.Name), n.Args)
+}
+
+// applied writes a function, given as MathML, applied to its arguments.
+func (w *mathWriter) applied(fn string, args []engine.Expr) {
+	w.b.WriteString("<mrow>" + fn + "<mo>\u2061</mo><mrow>")
 	w.op("(")
-	for i, a := range n.Args {
+	for i, a := range args {
 		if i > 0 {
 			w.op(",")
 		}
