@@ -45,6 +45,10 @@ type Sheet struct {
 	// Page is the path of the sheet's page inside a built package, with
 	// forward slashes: "sheets/field-coil.html".
 	Page string
+	// Number is the sheet's place in the package, from 1, in the order of
+	// Package.Sheets; it is set before the sheet is compiled, so that a
+	// page rendered while other sheets still compile can say "Sheet n of N".
+	Number int
 }
 
 // Path is the sheet's path inside the package, with forward slashes.
@@ -210,7 +214,7 @@ func build(root string, files map[string][]byte, page func(string) bool, more *f
 			calc := engine.CompileWith(sourceOf(doc), engine.Options{Resolve: r.resolve, Take: t.find})
 			calc.Evaluate()
 			calc.Release()
-			s := &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path)}
+			s := &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path), Number: i + 1}
 			pkg.Sheets[i] = s
 			t.done(i, calc)
 			if evaluated != nil {

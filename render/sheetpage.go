@@ -79,16 +79,14 @@ func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, pr *prose) (
 // sheetNumber is a sheet's place in the package and its revision, "Sheet 2
 // of 5 · Rev. B", as the corner of a title block numbers the sheets of a set.
 func sheetNumber(pkg *project.Package, s *project.Sheet, rev string) string {
-	for i, t := range pkg.Sheets {
-		if t == s {
-			n := "Sheet " + strconv.Itoa(i+1) + " of " + strconv.Itoa(len(pkg.Sheets))
-			if rev != "" {
-				n += " · Rev. " + rev
-			}
-			return n
-		}
+	if s.Number < 1 {
+		return ""
 	}
-	return ""
+	n := "Sheet " + strconv.Itoa(s.Number) + " of " + strconv.Itoa(len(pkg.Sheets))
+	if rev != "" {
+		n += " · Rev. " + rev
+	}
+	return n
 }
 
 // history writes the revision history, when the front matter has one.
