@@ -18,6 +18,7 @@ import (
 
 	"github.com/sheaf-calc/sheaf/diag"
 	"github.com/sheaf-calc/sheaf/engine"
+	"github.com/sheaf-calc/sheaf/fixity"
 	"github.com/sheaf-calc/sheaf/sheets"
 )
 
@@ -43,6 +44,16 @@ type Sheet struct {
 	// Page is the path of the sheet's page inside a built package, with
 	// forward slashes: "sheets/field-coil.html".
 	Page string
+
+	fixed map[*engine.Statement]fixity.Outcome
+}
+
+// Fixed reports whether a check of the sheet cannot fail (or cannot pass):
+// its outcome does not depend on its inputs, so it is not counted as a
+// pass. holds is the outcome it always has.
+func (s *Sheet) Fixed(st *engine.Statement) (fixed, holds bool) {
+	o := s.fixed[st]
+	return o.Fixed, o.Holds
 }
 
 // Path is the sheet's path inside the package, with forward slashes.
@@ -167,8 +178,9 @@ func build(root string, files map[string][]byte, page func(string) bool, more *f
 			doc := pages[i]
 			calc := engine.CompileWith(sourceOf(doc), engine.Options{Resolve: r.resolve, Take: t.find})
 			calc.Evaluate()
+			fixed := fixity.Find(calc) // while the program can still run
 			calc.Release()
-			pkg.Sheets[i] = &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path)}
+			pkg.Sheets[i] = &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path), fixed: fixed}
 			t.done(i, calc)
 		})
 	}
@@ -314,19 +326,30 @@ func (r *resolver) resolve(ref, from string) (engine.SheetSource, string, error)
 // Counts tallies a sheet's or a package's outcomes.
 type Counts struct {
 	Results, Inputs, Pass, Fail, Errors, Blocked int
+	// Fixed counts the checks whose outcome cannot depend on their inputs;
+	// they are neither passes nor failures.
+	Fixed int
 }
 
 // Add sums two tallies.
 func (c Counts) Add(o Counts) Counts {
-	return Counts{c.Results + o.Results, c.Inputs + o.Inputs, c.Pass + o.Pass, c.Fail + o.Fail, c.Errors + o.Errors, c.Blocked + o.Blocked}
+	return Counts{c.Results + o.Results, c.Inputs + o.Inputs, c.Pass + o.Pass, c.Fail + o.Fail, c.Errors + o.Errors, c.Blocked + o.Blocked, c.Fixed + o.Fixed}
 }
+
+// Checks counts the checks that were evaluated: passes, failures and fixed.
+func (c Counts) Checks() int { return c.Pass + c.Fail + c.Fixed }
 
 // Counts tallies the sheet. Errors counts every error diagnostic of the
 // sheet, including those outside statements (front matter, empty blocks).
 func (s *Sheet) Counts() Counts {
 	var c Counts
 	for _, st := range s.Calc.Statements {
-		switch s.Calc.Result(st).Status {
+		status := s.Calc.Result(st).Status
+		if fixed, _ := s.Fixed(st); fixed && (status == engine.Pass || status == engine.Fail) {
+			c.Fixed++
+			continue
+		}
+		switch status {
 		case engine.OK:
 			if st.Kind == engine.Use {
 				continue // an instance's results are its own statements

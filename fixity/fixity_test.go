@@ -1,0 +1,121 @@
+package fixity_test
+
+import (
+	"path/filepath"
+	"testing"
+
+	"github.com/sheaf-calc/sheaf/engine"
+	"github.com/sheaf-calc/sheaf/project"
+)
+
+// sheet builds a one-sheet package from formula lines.
+func sheet(t *testing.T, lines string) *project.Sheet {
+	t.Helper()
+	pkg := project.FromFiles("t", map[string][]byte{"s.md": []byte("# s\n\n```sheaf\n" + lines + "```\n")})
+	for _, d := range pkg.Diags {
+		t.Fatalf("diagnostic: %v", d)
+	}
+	return pkg.Sheets[0]
+}
+
+func fixedOf(t *testing.T, s *project.Sheet, formula string) (fixed, holds bool) {
+	t.Helper()
+	for _, st := range s.Calc.Statements {
+		if st.Kind == engine.Check && st.Formula == formula {
+			return s.Fixed(st)
+		}
+	}
+	t.Fatalf("no check %s", formula)
+	return false, false
+}
+
+func TestFixedChecks(t *testing.T) {
+	s := sheet(t, `N = 42 ; turns ; source: x
+f = 50 Hz ; frequency ; source: x
+Phi = 12 mWb ; flux ; source: x
+U_max = 150 V ; limit ; source: x
+E_a = 4.44 * f * N * Phi ; the short form
+E_b = sqrt(2) * pi * f * N * Phi ; the exact form
+E_c = 2 * pi * f * N * Phi / sqrt(2) ; the exact form written otherwise
+k_w = 0.955 ; winding factor ; source: x
+E_d = E_b * k_w ; with the winding factor
+check E_b == E_c ; an identity: the same algebra both sides
+check 4.44 <= sqrt(2) * pi ; a fixed ratio, resting on no input
+check E_a <= E_b ; a fixed ratio: 4.44 against sqrt(2)*pi, whatever the coil
+check E_d + 1 V >= E_d ; a fixed difference
+check E_d <= U_max ; a real check: it moves with every input
+check round(N / 2) * 2 == N ; a real check on a count: an odd N fails it
+check E_a >= 0 V ; a real check against zero
+`)
+	for _, c := range []struct {
+		formula      string
+		fixed, holds bool
+	}{
+		{"E_b == E_c", true, true},
+		{"4.44 <= sqrt(2) * pi", true, true},
+		{"E_a <= E_b", true, true},
+		{"E_d + 1 V >= E_d", true, true},
+		{"E_d <= U_max", false, false},
+		{"round(N / 2) * 2 == N", false, false},
+		{"E_a >= 0 V", false, false},
+	} {
+		fixed, holds := fixedOf(t, s, c.formula)
+		if fixed != c.fixed || (fixed && holds != c.holds) {
+			t.Errorf("check %s: fixed %v holds %v, want fixed %v holds %v", c.formula, fixed, holds, c.fixed, c.holds)
+		}
+	}
+	c := s.Counts()
+	if c.Fixed != 4 || c.Pass != 3 || c.Fail != 0 {
+		t.Errorf("counts: %d fixed, %d pass, %d fail; want 4, 3, 0", c.Fixed, c.Pass, c.Fail)
+	}
+}
+
+// A check that never holds is fixed too: it is a mistake in the sheet, not
+// a finding about the design, and it is not counted as a failure.
+func TestFixedFailure(t *testing.T) {
+	s := sheet(t, "a = 3 m ; x ; source: x\ncheck 2 * a <= a ; never holds for a positive a\n")
+	if fixed, holds := fixedOf(t, s, "2 * a <= a"); !fixed || holds {
+		t.Errorf("fixed %v holds %v, want fixed and never holding", fixed, holds)
+	}
+	if c := s.Counts(); c.Fail != 0 || c.Fixed != 1 {
+		t.Errorf("counts %+v: want the fixed check apart from the failures", c)
+	}
+}
+
+// A check whose input cannot be varied without leaving its model's range
+// (a table read outside its rows) is not called fixed on no evidence.
+func TestNoEvidenceNotFixed(t *testing.T) {
+	s := sheet(t, "x = 2 m ; x ; source: x\ny = sqrt((x - 2 m) * (2 m - x)) ; zero only at 2 m\ncheck y <= y ; would be an identity, but no varied run evaluates\n")
+	if fixed, _ := fixedOf(t, s, "y <= y"); fixed {
+		t.Errorf("called fixed with no run that varied x and evaluated")
+	}
+}
+
+// The demo's saturating pole circuit checks that the solve and the direct
+// reading of the curve agree: an agreement of two methods, fixed for every
+// input, which the variation must find.
+func TestDemoAgreementFixed(t *testing.T) {
+	pkg, err := project.Load(filepath.Join("..", "examples", "tarnwick-weir"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	found := 0
+	for _, s := range pkg.Sheets {
+		for _, st := range s.Calc.Statements {
+			if st.Kind != engine.Check {
+				continue
+			}
+			fixed, _ := s.Fixed(st)
+			t.Logf("%v: check %s: fixed %v", st.Pos, st.Formula, fixed)
+			if st.Formula == "I_s == I_w" {
+				found++
+				if !fixed {
+					t.Errorf("%v: check I_s == I_w (instance %s) is not found fixed", st.Pos, st.Instance)
+				}
+			}
+		}
+	}
+	if found == 0 {
+		t.Errorf("the demo has no check I_s == I_w to find")
+	}
+}
