@@ -16,6 +16,7 @@ import (
 	"strings"
 	"sync"
 
+	"github.com/sheaf-calc/sheaf/band"
 	"github.com/sheaf-calc/sheaf/diag"
 	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/fixity"
@@ -46,6 +47,17 @@ type Sheet struct {
 	Page string
 
 	fixed map[*engine.Statement]fixity.Outcome
+
+	bandOnce sync.Once
+	bands    map[*engine.Statement]band.Band
+}
+
+// Band returns the tolerance band a check is one side of: the sheet checks
+// the same quantity against a lower and an upper limit.
+func (s *Sheet) Band(st *engine.Statement) (band.Band, bool) {
+	s.bandOnce.Do(func() { s.bands = band.Find(s.Calc.Statements, s.Calc.Result) })
+	b, ok := s.bands[st]
+	return b, ok
 }
 
 // Fixed reports whether a check of the sheet cannot fail (or cannot pass):

@@ -11,10 +11,11 @@ import (
 
 // writeStatement draws one statement as the checker reads it: the formula
 // with symbols, the same with values, and the result.
-func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
+func writeStatement(w sink, s *project.Sheet, st *engine.Statement, digits int) {
+	calc := s.Calc
 	res := calc.Result(st)
 	if st.Kind == engine.Use && res.Status == engine.OK {
-		writeUse(w, calc, st, digits)
+		writeUse(w, s, st, digits)
 		return
 	}
 	switch res.Status {
@@ -22,7 +23,7 @@ func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int)
 		writeProblem(w, st, res)
 		return
 	case engine.Pass, engine.Fail:
-		writeCheck(w, calc, st, digits)
+		writeCheck(w, s, st, digits)
 		return
 	}
 	if st.Kind == engine.Take {
@@ -80,7 +81,8 @@ func takenLink(from string, st *engine.Statement) string {
 
 // writeUse draws a use statement and, under it, the statements of its
 // instance, each with its value.
-func writeUse(w sink, calc *engine.Calc, use *engine.Statement, digits int) {
+func writeUse(w sink, s *project.Sheet, use *engine.Statement, digits int) {
+	calc := s.Calc
 	w.WriteString(`<div class="row use" id="` + anchor(use) + `">` + "\n" + `<p class="usehead"><span class="kw">use</span> `)
 	w.WriteString(`<strong>` + esc(use.Name) + `</strong> = template <code>` + esc(use.Template) + `</code>`)
 	if len(use.Overrides) > 0 {
@@ -103,7 +105,7 @@ func writeUse(w sink, calc *engine.Calc, use *engine.Statement, digits int) {
 	w.WriteString("<div class=\"instance\">\n")
 	for _, st := range calc.Statements {
 		if st.Use == use {
-			writeStatement(w, calc, st, digits)
+			writeStatement(w, s, st, digits)
 		}
 	}
 	w.WriteString("</div>\n</div>\n")
@@ -122,8 +124,8 @@ func exprText(e engine.Expr) string {
 // uses it, and what it ultimately rests on.
 func writeNote(w sink, calc *engine.Calc, st *engine.Statement) {
 	w.WriteString("<div class=\"note\">")
-	if st.Description != "" {
-		w.WriteString("<span class=\"desc\">" + esc(st.Description) + "</span>")
+	if d := describe(st); d != "" {
+		w.WriteString("<span class=\"desc\">" + esc(d) + "</span>")
 	}
 	if st.Source != "" {
 		w.WriteString("<span class=\"srcref\">Source: " + esc(st.Source) + "</span>")
@@ -224,12 +226,10 @@ func assumptionAnchor(a *engine.Assumption) string {
 	return "A-" + a.ID
 }
 
-func writeCheck(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
+func writeCheck(w sink, s *project.Sheet, st *engine.Statement, digits int) {
+	calc := s.Calc
 	res := calc.Result(st)
-	cls, verdict := "pass", "PASS"
-	if res.Status == engine.Fail {
-		cls, verdict = "fail", "FAIL"
-	}
+	verdict, cls := verdictOf(s, st, res)
 	cmp := st.Compare()
 	w.WriteString(`<div class="row check ` + cls + `" id="` + anchor(st) + "\">\n<span class=\"verdict\">" + verdict + "</span>\n<div>\n")
 	w.WriteString("<div class=\"eq\"><math class=\"f\"><mrow>")
@@ -239,9 +239,12 @@ func writeCheck(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
 	w.WriteString("<mo>" + esc(relations[cmp.Op]) + "</mo>")
 	w.WriteString(valueMathML(res.Right, res.Shown, digits))
 	w.WriteString("</mrow></mrow></math></div>\n")
-	if u := UtilisationText(res.Utilisation); u != "" {
+	if note := fixedNote(s, st); note != "" {
+		w.WriteString("<div class=\"note\"><span class=\"fixednote\">" + esc(note) + "</span></div>\n")
+	} else if u := UtilisationText(res.Utilisation); u != "" && !inBand(s, st) {
 		w.WriteString("<div class=\"note\"><span class=\"util\">utilisation " + u + "</span></div>\n")
 	}
+	writeCheckExtras(w, s, st, digits)
 	writeNote(w, calc, st)
 	w.WriteString("</div>\n</div>\n")
 }

@@ -24,6 +24,7 @@ table.frame>tfoot{display:none}
 table.checks td{vertical-align:middle}
 table.checks tr.pass .verdict{color:var(--ok);background:var(--ok-bg);border:1px solid var(--ok)}
 table.checks tr.fail .verdict{color:var(--bad);background:var(--bad-bg);border:1px solid var(--bad)}
+table.checks tr.fixed .verdict{color:var(--warn);background:var(--warn-bg);border:1px dashed var(--warn)}
 .titleblock{display:grid;grid-template-columns:1fr auto;gap:1rem;border:2px solid var(--ink);padding:.75rem 1rem;margin-bottom:1rem}
 .titleblock h1{margin:.1rem 0;font-size:1.5rem}
 .titleblock .kicker{margin:0;color:var(--muted);text-transform:uppercase;letter-spacing:.06em;font-size:.75rem}
@@ -50,6 +51,7 @@ nav.pkg{font-size:.9rem;margin:.5rem 0 1rem}
 .verdict{display:inline-block;font-weight:700;font-size:.78rem;letter-spacing:.05em;padding:.1rem .4rem;border-radius:3px;text-align:center}
 .pass .verdict{color:var(--ok);background:var(--ok-bg);border:1px solid var(--ok)}
 .fail .verdict{color:var(--bad);background:var(--bad-bg);border:1px solid var(--bad)}
+.fixed .verdict{color:var(--warn);background:var(--warn-bg);border:1px dashed var(--warn)}
 .error,.blocked{background:var(--bad-bg);padding:.45rem .6rem;margin:.3rem -.6rem}
 .blocked{background:var(--warn-bg)}
 .error pre,.blocked pre{margin:0;white-space:pre-wrap;word-break:break-all}
