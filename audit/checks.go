@@ -113,3 +113,34 @@ func plural(n int, noun string) string {
 	}
 	return fmt.Sprintf("%d %ss", n, noun)
 }
+
+// BandEdge is the share of a tolerance band's width, from the edge a check
+// guards, within which a passing side of the band is a thin margin: a
+// value in the middle of a narrow band is not near its limit, however
+// close to 100 % the utilisation of each side.
+const BandEdge = 0.05
+
+// bandMargins reports the sides of tolerance bands that pass with the
+// value within BandEdge of the edge they guard.
+func bandMargins(s *project.Sheet) []Finding {
+	var out []Finding
+	for _, st := range s.Calc.Statements {
+		b, ok := s.Band(st)
+		if !ok || s.Calc.Result(st).Status != engine.Pass {
+			continue
+		}
+		if fixed, _ := s.Fixed(st); fixed {
+			continue
+		}
+		pos := b.Position()
+		from := pos // from the lower edge, for the check of the lower limit
+		if st == b.High {
+			from = 1 - pos
+		}
+		if from < BandEdge {
+			name := "check " + st.Formula
+			out = append(out, finding("thin-margin", st.Pos, name, "%s passes with the value at %.1f %% of its tolerance band, within %.0f %% of the edge", name, pos*100, BandEdge*100).in(s, st))
+		}
+	}
+	return out
+}

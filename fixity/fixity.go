@@ -61,16 +61,31 @@ func Find(calc *engine.Calc) map[*engine.Statement]Outcome {
 		return nil
 	}
 	slots := inputSlots(calc, base)
+	// Each input is varied alone only when a check rests on it, and only
+	// those checks are read: a sheet of many inputs and many checks costs
+	// the sum of their dependencies, not their product.
+	users := map[int][]*probe{}
+	for _, c := range checks {
+		for slot := range c.need {
+			users[slot] = append(users[slot], c)
+		}
+	}
+	one := make([]engine.Set, 1) // reused: a run does not keep it
 	for _, slot := range slots {
+		if len(users[slot]) == 0 {
+			continue
+		}
 		orig := base.Values[slot]
 		for _, f := range factors {
-			p.Run(base, []engine.Set{{Slot: slot, SI: varied(orig, f)}})
-			for _, c := range checks {
-				if c.need[slot] && c.observe(base) {
+			one[0] = engine.Set{Slot: slot, SI: varied(orig, f)}
+			p.Run(base, one)
+			for _, c := range users[slot] {
+				if c.observe(base) {
 					delete(c.need, slot) // varied in a run that evaluated
 				}
 			}
-			p.Run(base, []engine.Set{{Slot: slot, SI: orig}})
+			one[0] = engine.Set{Slot: slot, SI: orig}
+			p.Run(base, one)
 		}
 	}
 	// Runs that vary every input at once catch sides that move only when

@@ -21,7 +21,7 @@ func BandText(s *project.Sheet, st *engine.Statement, digits int) string {
 		// One unit for the pair: "1.7–2.2 V", not "1.7 V–2.2 V".
 		lo = units.FormatNumber(u.FromSI(b.Lo), digits)
 	}
-	where := "at " + units.FormatNumber(b.Position()*100, 3) + " % of the band " + lo + "–" + hi
+	where := "at " + units.FormatNumber(b.Position()*100, 2) + " % of the band " + lo + "–" + hi
 	switch pos := b.Position(); {
 	case pos < 0:
 		where += ", below it"

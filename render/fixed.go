@@ -96,6 +96,11 @@ func sheetLine(s *project.Sheet, st *engine.Statement, digits int) string {
 		return "FIXED" + strings.TrimPrefix(line, verdict) + " — cannot fail, not counted"
 	}
 	if b := BandText(s, st, digits); b != "" {
+		// The place in the band replaces the utilisation, which is near
+		// 100 % on both sides of a narrow band wherever the value sits.
+		if u := UtilisationText(r.Utilisation); u != "" {
+			line = strings.Replace(line, ", utilisation "+u+")", ")", 1)
+		}
 		line += " — " + b
 	}
 	return line

@@ -29,7 +29,7 @@ func Split(description string) (rest string, clauses []Clause) {
 		return description, nil // the common case, without allocating
 	}
 	var kept []string
-	for _, part := range strings.Split(description, "; ") {
+	for _, part := range parts(description) {
 		head, val, ok := strings.Cut(part, ":")
 		if !ok || !strings.EqualFold(strings.TrimSpace(head), Key) {
 			kept = append(kept, part)
@@ -46,4 +46,29 @@ func Split(description string) (rest string, clauses []Clause) {
 		clauses = append(clauses, c)
 	}
 	return strings.Join(kept, "; "), clauses
+}
+
+// parts splits a description at the "; " that join its annotations, but
+// not inside parentheses, where a note keeps its own ("from memory; check
+// the current edition").
+func parts(s string) []string {
+	var out []string
+	depth, start := 0, 0
+	for i := 0; i < len(s); i++ {
+		switch s[i] {
+		case '(':
+			depth++
+		case ')':
+			if depth > 0 {
+				depth--
+			}
+		case ';':
+			if depth == 0 && i+1 < len(s) && s[i+1] == ' ' {
+				out = append(out, s[start:i])
+				start = i + 2
+				i++
+			}
+		}
+	}
+	return append(out, s[start:])
 }

@@ -18,6 +18,8 @@ func TestSplit(t *testing.T) {
 		{"clause: IEC 60085:2007", "", []Clause{{"IEC 60085:2007", "IEC 60085:2007", ""}}},
 		{"a; Clause: A, 1; b; clause: B, 2", "a; b", []Clause{{"A, 1", "A", "1"}, {"B, 2", "B", "2"}}},
 		{"the clause: is empty; clause:", "the clause: is empty", nil},
+		{"x (a; b); clause: IEC TS 60034-18-41:2014, enhancement factor (from memory; to be confirmed)", "x (a; b)",
+			[]Clause{{"IEC TS 60034-18-41:2014, enhancement factor (from memory; to be confirmed)", "IEC TS 60034-18-41:2014", "enhancement factor (from memory; to be confirmed)"}}},
 	} {
 		rest, clauses := Split(c.in)
 		if rest != c.rest || !reflect.DeepEqual(clauses, c.clauses) {
