@@ -43,6 +43,28 @@ func Find(calc *engine.Calc) map[*engine.Statement]Outcome {
 	p := calc.Program()
 	base := p.NewFrame()
 	p.Run(base, nil)
+	checks := probes(calc, base)
+	if len(checks) == 0 {
+		return nil
+	}
+	slots := inputSlots(calc, base)
+	varyEach(p, base, slots, checks)
+	varyTogether(p, base, slots, checks)
+	out := map[*engine.Statement]Outcome{}
+	for _, c := range checks {
+		// A check is fixed only when every input it rests on was varied in
+		// a run that evaluated it, and neither its ratio nor its
+		// difference ever moved.
+		if len(c.need) == 0 && (c.ratio || c.diff) {
+			out[c.st] = Outcome{Fixed: true, Holds: c.holds}
+		}
+	}
+	return out
+}
+
+// probes readies every check that came to a verdict in base, with the
+// inputs it rests on.
+func probes(calc *engine.Calc, base *engine.Frame) []*probe {
 	var checks []*probe
 	for _, st := range calc.Statements {
 		s := base.Status[st.Index]
@@ -57,13 +79,14 @@ func Find(calc *engine.Calc) map[*engine.Statement]Outcome {
 		}
 		checks = append(checks, c)
 	}
-	if len(checks) == 0 {
-		return nil
-	}
-	slots := inputSlots(calc, base)
-	// Each input is varied alone only when a check rests on it, and only
-	// those checks are read: a sheet of many inputs and many checks costs
-	// the sum of their dependencies, not their product.
+	return checks
+}
+
+// varyEach varies each input alone by every factor. An input is varied
+// only when a check rests on it, and only those checks are read: a sheet
+// of many inputs and many checks costs the sum of their dependencies, not
+// their product.
+func varyEach(p *engine.Program, base *engine.Frame, slots []int, checks []*probe) {
 	users := map[int][]*probe{}
 	for _, c := range checks {
 		for slot := range c.need {
@@ -88,18 +111,18 @@ func Find(calc *engine.Calc) map[*engine.Statement]Outcome {
 			p.Run(base, one)
 		}
 	}
-	// Runs that vary every input at once catch sides that move only when
-	// two inputs move together.
+}
+
+// varyTogether varies every input at once, by seeded pseudo-random
+// factors, to catch sides that move only when two inputs move together.
+func varyTogether(p *engine.Program, base *engine.Frame, slots []int, checks []*probe) {
 	rng := uint64(0x5eaf)
+	sets, restore := make([]engine.Set, len(slots)), make([]engine.Set, len(slots))
 	for range joint {
-		sets := make([]engine.Set, len(slots))
 		for i, slot := range slots {
-			rng = rng*6364136223846793005 + 1442695040888963407
+			rng = rng*6364136223846793005 + 1442695040888963407 // Knuth's MMIX generator
 			f := 0.6 + 1.3*float64(rng>>11)/(1<<53)
 			sets[i] = engine.Set{Slot: slot, SI: varied(base.Values[slot], f)}
-		}
-		restore := make([]engine.Set, len(slots))
-		for i, slot := range slots {
 			restore[i] = engine.Set{Slot: slot, SI: base.Values[slot]}
 		}
 		p.Run(base, sets)
@@ -108,16 +131,6 @@ func Find(calc *engine.Calc) map[*engine.Statement]Outcome {
 		}
 		p.Run(base, restore)
 	}
-	out := map[*engine.Statement]Outcome{}
-	for _, c := range checks {
-		// A check is fixed only when every input it rests on was varied in
-		// a run that evaluated it, and neither its ratio nor its
-		// difference ever moved.
-		if len(c.need) == 0 && (c.ratio || c.diff) {
-			out[c.st] = Outcome{Fixed: true, Holds: c.holds}
-		}
-	}
-	return out
 }
 
 // probe is one check under variation.

@@ -132,3 +132,34 @@ func TestDemosFixedChecks(t *testing.T) {
 		t.Logf("%s: %d agreement checks found fixed, %d real checks not flagged", demo, found, real)
 	}
 }
+
+// Revision A of the hydro demo had the two checks that the reviewer of
+// issue 13 found could not fail: sheet 03's "cross-check" of the speed
+// EMF against itself, an identity, and sheet 02's 4.44 form against the
+// exact one, a fixed ratio. The variation finds both, and nothing else.
+func TestRevisionAFixedChecks(t *testing.T) {
+	pkg, err := project.Load(filepath.Join("..", "examples", "tarnwick-weir-rev-A"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	got := map[string]bool{}
+	for _, s := range pkg.Sheets {
+		for _, st := range s.Calc.Statements {
+			if fixed, _ := s.Fixed(st); fixed {
+				got[s.Path()+": "+st.Formula] = true
+			}
+		}
+	}
+	want := map[string]bool{
+		"02-coil-emf.md: abs(coil.E_rms_444 - coil.E_rms) <= 0.001 * coil.E_rms": true,
+		"03-speed-voltage.md: e_t == e_t2":                                       true,
+	}
+	if len(got) != len(want) {
+		t.Errorf("fixed checks %v, want %v", got, want)
+	}
+	for k := range want {
+		if !got[k] {
+			t.Errorf("%s is not found fixed (found %v)", k, got)
+		}
+	}
+}

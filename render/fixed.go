@@ -93,6 +93,9 @@ func sheetLine(s *project.Sheet, st *engine.Statement, digits int) string {
 		if r.Status == engine.Fail {
 			verdict = "FAIL"
 		}
+		if u := UtilisationText(r.Utilisation); u != "" {
+			line = strings.Replace(line, ", utilisation "+u+")", ")", 1) // a margin that cannot move
+		}
 		return "FIXED" + strings.TrimPrefix(line, verdict) + " — cannot fail, not counted"
 	}
 	if b := BandText(s, st, digits); b != "" {
