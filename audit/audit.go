@@ -43,7 +43,9 @@ var Rules = []Rule{
 	{"awkward-magnitude", "result that reads badly", "the number needs an exponent or the unit has no name; give the result a display unit such as [kV] or [mWb]"},
 	{"inconsistent-input", "input that disagrees with another sheet", "the same name has another value in another sheet of the package; make them agree, or rename one"},
 	{"hand-transfer", "input typed across from another sheet", "a number copied from another sheet of the package goes stale when that sheet changes; take the live result instead: take name = result from sheet"},
-	{"thin-margin", "check within 5 % of its limit", "a pass with a utilisation above 95 % leaves little margin for the uncertainty of the inputs; confirm the margin is enough"},
+	{"thin-margin", "check within 5 % of its limit", "a pass with a utilisation above 95 % leaves little margin for the uncertainty of the inputs; confirm the margin is enough. A side of a tolerance band is judged by the band: within 5 % of the band's width from the edge it guards"},
+	{"fixed-check", "check that cannot fail", "a check whose outcome did not move when every input it rests on was varied (an identity, a fixed ratio such as 4.44 against √2·π) proves nothing about the design; it is shown apart and not counted as a pass. Show it as a result, or check against an independent quantity"},
+	{"recalled-default", "check resting on a template default recalled from memory", "a check turns on a template default whose source says it is recalled from memory; confirm the value for this job against the source and set it in the use statement, with its source"},
 	{"no-checker", "sheet without a checker or revision", "the title block should name the revision and who checked the sheet"},
 	{"unknown-acceptance", "acceptance of a finding that is not there", "an `accept` names a code that does not occur at that place; remove it or fix the code"},
 	{"acceptance-without-reason", "acceptance without a reason", "an accepted finding must say why it is acceptable"},
@@ -159,9 +161,17 @@ func sheetFindings(s *project.Sheet) []Finding {
 	}
 	for _, st := range s.Calc.Statements {
 		for _, f := range statementFindings(st, s.Calc.Result(st)) {
+			if f.Code == "thin-margin" {
+				if _, inBand := s.Band(st); inBand {
+					continue // bandMargins judges a side of a band by the band
+				}
+			}
 			out = append(out, f.in(s, st))
 		}
 	}
+	out = append(out, fixedChecks(s)...)
+	out = append(out, bandMargins(s)...)
+	out = append(out, recalledDefaults(s)...)
 	return out
 }
 

@@ -16,8 +16,10 @@ import (
 	"strings"
 	"sync"
 
+	"github.com/sheaf-calc/sheaf/band"
 	"github.com/sheaf-calc/sheaf/diag"
 	"github.com/sheaf-calc/sheaf/engine"
+	"github.com/sheaf-calc/sheaf/fixity"
 	"github.com/sheaf-calc/sheaf/sheets"
 )
 
@@ -49,6 +51,27 @@ type Sheet struct {
 	// Package.Sheets; it is set before the sheet is compiled, so that a
 	// page rendered while other sheets still compile can say "Sheet n of N".
 	Number int
+
+	fixed map[*engine.Statement]fixity.Outcome
+
+	bandOnce sync.Once
+	bands    map[*engine.Statement]band.Band
+}
+
+// Band returns the tolerance band a check is one side of: the sheet checks
+// the same quantity against a lower and an upper limit.
+func (s *Sheet) Band(st *engine.Statement) (band.Band, bool) {
+	s.bandOnce.Do(func() { s.bands = band.Find(s.Calc.Statements, s.Calc.Result) })
+	b, ok := s.bands[st]
+	return b, ok
+}
+
+// Fixed reports whether a check of the sheet cannot fail (or cannot pass):
+// its outcome does not depend on its inputs, so it is not counted as a
+// pass. holds is the outcome it always has.
+func (s *Sheet) Fixed(st *engine.Statement) (fixed, holds bool) {
+	o := s.fixed[st]
+	return o.Fixed, o.Holds
 }
 
 // Path is the sheet's path inside the package, with forward slashes.
@@ -213,8 +236,9 @@ func build(root string, files map[string][]byte, page func(string) bool, more *f
 			doc := pages[i]
 			calc := engine.CompileWith(sourceOf(doc), engine.Options{Resolve: r.resolve, Take: t.find})
 			calc.Evaluate()
+			fixed := fixity.Find(calc) // while the program can still run
 			calc.Release()
-			s := &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path), Number: i + 1}
+			s := &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path), Number: i + 1, fixed: fixed}
 			pkg.Sheets[i] = s
 			t.done(i, calc)
 			if evaluated != nil {
@@ -366,19 +390,30 @@ func (r *resolver) resolve(ref, from string) (engine.SheetSource, string, error)
 // Counts tallies a sheet's or a package's outcomes.
 type Counts struct {
 	Results, Inputs, Pass, Fail, Errors, Blocked int
+	// Fixed counts the checks whose outcome cannot depend on their inputs;
+	// they are neither passes nor failures.
+	Fixed int
 }
 
 // Add sums two tallies.
 func (c Counts) Add(o Counts) Counts {
-	return Counts{c.Results + o.Results, c.Inputs + o.Inputs, c.Pass + o.Pass, c.Fail + o.Fail, c.Errors + o.Errors, c.Blocked + o.Blocked}
+	return Counts{c.Results + o.Results, c.Inputs + o.Inputs, c.Pass + o.Pass, c.Fail + o.Fail, c.Errors + o.Errors, c.Blocked + o.Blocked, c.Fixed + o.Fixed}
 }
+
+// Checks counts the checks that were evaluated: passes, failures and fixed.
+func (c Counts) Checks() int { return c.Pass + c.Fail + c.Fixed }
 
 // Counts tallies the sheet. Errors counts every error diagnostic of the
 // sheet, including those outside statements (front matter, empty blocks).
 func (s *Sheet) Counts() Counts {
 	var c Counts
 	for _, st := range s.Calc.Statements {
-		switch s.Calc.Result(st).Status {
+		status := s.Calc.Result(st).Status
+		if fixed, _ := s.Fixed(st); fixed && (status == engine.Pass || status == engine.Fail) {
+			c.Fixed++
+			continue
+		}
+		switch status {
 		case engine.OK:
 			if st.Kind == engine.Use {
 				continue // an instance's results are its own statements

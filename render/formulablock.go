@@ -39,7 +39,7 @@ func (r *blockRenderer) block(w sink, b *sheets.FormulaText, bi int) {
 	}
 	for _, l := range b.Lines {
 		if st, ok := byLine[l.Pos.Line]; ok {
-			writeStatement(w, r.sheet.Calc, st, r.digits)
+			writeStatement(w, r.sheet, st, r.digits)
 			continue
 		}
 		if t := strings.TrimSpace(l.Text); strings.HasPrefix(t, "#") {

@@ -39,8 +39,8 @@ func FuzzPipeline(f *testing.F) {
 		if err != nil {
 			t.Fatalf("HTML: %v", err)
 		}
-		// The index, the inputs and assumptions registers, and one page per sheet.
-		if len(files) != 3+len(pkg.Sheets) {
+		// The index, the inputs, assumptions and standards registers, and one page per sheet.
+		if len(files) != 4+len(pkg.Sheets) {
 			t.Fatalf("%d HTML files for %d sheets", len(files), len(pkg.Sheets))
 		}
 		for _, fl := range files {
@@ -62,7 +62,7 @@ func FuzzPipeline(f *testing.F) {
 		}
 		c := pkg.Counts()
 		want := render.JSONSummary{Sheets: len(pkg.Sheets), Results: c.Results, Inputs: c.Inputs, Pass: c.Pass,
-			Fail: c.Fail, Errors: c.Errors, Blocked: c.Blocked}
+			Fail: c.Fail, Fixed: c.Fixed, Errors: c.Errors, Blocked: c.Blocked}
 		if doc.Summary != want {
 			t.Fatalf("JSON summary %+v, package counts %+v", doc.Summary, want)
 		}

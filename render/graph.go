@@ -75,8 +75,13 @@ func newDepGraph(s *project.Sheet, digits int) *depGraph {
 		}
 		r := s.Calc.Result(st)
 		label := graphLabel(st, r, digits)
-		w := textWidth(label) + 2*graphPadX
 		sty := styleOf(st, r)
+		if fixed, _ := s.Fixed(st); fixed {
+			// Neither a pass nor a failure: the colours of a hold point.
+			label = "FIXED  " + st.Formula
+			sty = nodeStyle{fill: "#fdf3dc", stroke: "#8a5a00", hexagon: true, dashed: true}
+		}
+		w := textWidth(label) + 2*graphPadX
 		if sty.hexagon {
 			w += 2 * graphHexInset
 		}

@@ -269,7 +269,7 @@ func packageFrame(pkg *project.Package, opt Options) frame {
 		stamp = project.StampOf(pkg.Files, opt.Version)
 	}
 	fr := frame{stamp: stamp, date: opt.BuildDate}
-	fr.pages = []navItem{{"index.html", "Package index"}, {"inputs.html", "Inputs register"}, {"assumptions.html", "Assumptions register"}}
+	fr.pages = []navItem{{"index.html", "Package index"}, {"inputs.html", "Inputs register"}, {"assumptions.html", "Assumptions register"}, {"standards.html", "Standards register"}}
 	if opt.Audit != nil {
 		fr.pages = append(fr.pages, navItem{"audit.html", "Audit"})
 	}

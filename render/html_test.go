@@ -146,8 +146,8 @@ func TestRenderIsDeterministic(t *testing.T) {
 	files := map[string]string{"coil.md": coil, "sub/other.md": "# Other\n\n```sheaf\nx = 1 m\ny = 2 * x\n```\n"}
 	_, first := build(t, files)
 	_, second := build(t, files)
-	if len(first) != 5 {
-		t.Fatalf("expected the index, two registers and two sheet pages, got %d pages", len(first))
+	if len(first) != 6 {
+		t.Fatalf("expected the index, three registers and two sheet pages, got %d pages", len(first))
 	}
 	for name, page := range first {
 		if page != second[name] {

@@ -96,6 +96,8 @@ type JSONSummary struct {
 	Inputs  int `json:"inputs"`
 	Pass    int `json:"pass"`
 	Fail    int `json:"fail"`
+	// Fixed counts the checks that cannot fail, apart from Pass and Fail.
+	Fixed   int `json:"fixed"`
 	Errors  int `json:"errors"`
 	Blocked int `json:"blocked"`
 }
@@ -162,14 +164,17 @@ type JSONStatement struct {
 	List         *JSONList  `json:"list,omitempty"`
 	Check        *JSONCheck `json:"check,omitempty"`
 	Description  string     `json:"description,omitempty"`
-	Source       string     `json:"source,omitempty"`
-	Assumption   string     `json:"assumption,omitempty"`
-	Assumes      []string   `json:"assumes,omitempty"`
-	Uses         []string   `json:"uses"`
-	UsedBy       []string   `json:"used_by"`
-	TakenFrom    *JSONTaken `json:"taken_from,omitempty"`
-	RestsOn      *JSONTrace `json:"rests_on,omitempty"`
-	Error        *JSONDiag  `json:"error,omitempty"`
+	// Clauses are the standards' clauses the statement applies, as written
+	// after `; clause:`.
+	Clauses    []string   `json:"clauses,omitempty"`
+	Source     string     `json:"source,omitempty"`
+	Assumption string     `json:"assumption,omitempty"`
+	Assumes    []string   `json:"assumes,omitempty"`
+	Uses       []string   `json:"uses"`
+	UsedBy     []string   `json:"used_by"`
+	TakenFrom  *JSONTaken `json:"taken_from,omitempty"`
+	RestsOn    *JSONTrace `json:"rests_on,omitempty"`
+	Error      *JSONDiag  `json:"error,omitempty"`
 	// Template reuse: on a use statement, the template and the inputs it
 	// sets; on a statement from a template, its instance, and whether the
 	// using sheet set its value (Default is then the template's own).
@@ -212,6 +217,20 @@ type JSONCheck struct {
 	Left        JSONValue `json:"left"`
 	Right       JSONValue `json:"right"`
 	Utilisation *float64  `json:"utilisation,omitempty"`
+	// Fixed is set for a check whose outcome cannot depend on its inputs:
+	// not counted as a pass or a failure.
+	Fixed bool `json:"fixed,omitempty"`
+	// Band is set for one side of a tolerance band.
+	Band *JSONBand `json:"band,omitempty"`
+}
+
+// JSONBand is where a quantity sits in the tolerance band two checks state.
+type JSONBand struct {
+	LowSI    float64 `json:"low_si"`
+	HighSI   float64 `json:"high_si"`
+	ValueSI  float64 `json:"value_si"`
+	Position float64 `json:"position"`
+	Text     string  `json:"text"`
 }
 
 // JSONDiag is a diagnostic.
@@ -310,7 +329,7 @@ func documentHead(pkg *project.Package, opt Options) JSONDoc {
 		Stamp:     project.StampOf(pkg.Files, opt.Version),
 		BuildDate: opt.BuildDate,
 		Sources:   pkg.Files,
-		Summary:   JSONSummary{Sheets: len(pkg.Sheets), Results: c.Results, Inputs: c.Inputs, Pass: c.Pass, Fail: c.Fail, Errors: c.Errors, Blocked: c.Blocked},
+		Summary:   JSONSummary{Sheets: len(pkg.Sheets), Results: c.Results, Inputs: c.Inputs, Pass: c.Pass, Fail: c.Fail, Fixed: c.Fixed, Errors: c.Errors, Blocked: c.Blocked},
 		Registers: registers(pkg),
 		Sheets:    []JSONSheet{},
 		Diags:     []JSONDiag{},
@@ -382,7 +401,7 @@ func jsonSheet(s *project.Sheet, opt Options) JSONSheet {
 			js.Functions = append(js.Functions, jsonFunction(st))
 			continue
 		}
-		js.Statements = append(js.Statements, jsonStatement(s.Calc, st, digits))
+		js.Statements = append(js.Statements, jsonStatement(s, st, digits))
 	}
 	return js
 }
@@ -427,11 +446,12 @@ type JSONTaken struct {
 	Name  string `json:"name"`
 }
 
-func jsonStatement(calc *engine.Calc, st *engine.Statement, digits int) JSONStatement {
+func jsonStatement(s *project.Sheet, st *engine.Statement, digits int) JSONStatement {
+	calc := s.Calc
 	res := calc.Result(st)
 	j := JSONStatement{
 		Kind: "definition", Name: st.Name, Pos: st.Pos, Text: st.Text, Status: res.Status.String(),
-		Input: st.IsInput(), Description: st.Description, Source: st.Source,
+		Input: st.IsInput(), Description: describe(st), Source: st.Source, Clauses: clauseTexts(st),
 		Assumption: st.Assumption, Assumes: st.Assumes,
 		Uses: names(st.Deps), UsedBy: names(st.Users),
 	}
@@ -499,6 +519,10 @@ func jsonStatement(calc *engine.Calc, st *engine.Statement, digits int) JSONStat
 		if !math.IsNaN(res.Utilisation) && !math.IsInf(res.Utilisation, 0) {
 			u := res.Utilisation
 			c.Utilisation = &u
+		}
+		c.Fixed, _ = s.Fixed(st)
+		if b, ok := s.Band(st); ok {
+			c.Band = &JSONBand{LowSI: b.Lo, HighSI: b.Hi, ValueSI: b.Value, Position: b.Position(), Text: BandText(s, st, digits)}
 		}
 		j.Check = c
 	}

@@ -11,13 +11,14 @@ import (
 )
 
 // packagePages renders the pages of the package as a whole: the index,
-// the inputs register, the assumptions register and, when an audit was
+// the inputs, assumptions and standards registers and, when an audit was
 // run, the audit.
 func packagePages(pkg *project.Package, opt Options) []File {
 	files := []File{
 		{Path: "index.html", Data: indexPage(pkg, opt)},
 		{Path: "inputs.html", Data: inputsPage(pkg, opt)},
 		{Path: "assumptions.html", Data: assumptionsPage(pkg, opt)},
+		{Path: "standards.html", Data: standardsPage(pkg, opt)},
 	}
 	if opt.Audit != nil {
 		files = append(files, File{Path: "audit.html", Data: auditPage(pkg, opt, *opt.Audit)})
@@ -68,32 +69,34 @@ func indexPage(pkg *project.Package, opt Options) []byte {
 	} else if c.Fail > 0 {
 		class += " has-fail"
 	}
-	p.f("<section class=\"%s\"><p><strong>%s</strong> · <strong>%s</strong>: %d pass, %d fail · <strong>%s</strong>",
-		class, Count(c.Results, "result"), Count(c.Pass+c.Fail, "check"), c.Pass, c.Fail, Count(c.Errors, "error"))
+	p.f("<section class=\"%s\"><p><strong>%s</strong> · <strong>%s</strong>: %s · <strong>%s</strong>",
+		class, Count(c.Results, "result"), Count(c.Checks(), "check"), checkCounts(c), Count(c.Errors, "error"))
 	if opt.Audit != nil {
 		p.f(" · <a href=\"audit.html\"><strong>%s</strong></a> open", Count(opt.Audit.Open(), "audit finding"))
 	}
 	p.f("</p></section>\n")
 
-	p.f("<h2>Sheets</h2>\n<table>\n<thead><tr><th>Sheet</th><th>Subject</th><th>Rev.</th><th>Results</th><th>Pass</th><th>Fail</th><th>Errors</th></tr></thead>\n<tbody>\n")
+	p.f("<h2>Sheets</h2>\n<table>\n<thead><tr><th>Sheet</th><th>Subject</th><th>Rev.</th><th>Results</th><th>Pass</th><th>Fail</th><th>Fixed</th><th>Errors</th></tr></thead>\n<tbody>\n")
 	for _, s := range pkg.Sheets {
 		sc := s.Counts()
-		p.f("<tr><td><a href=\"%s\">%s</a><br><span class=\"loc\">%s</span></td><td>%s</td><td>%s</td><td class=\"num\">%d</td><td class=\"num\">%d</td><td class=\"num\">%d</td><td class=\"num\">%d</td></tr>\n",
-			pageHref(s.Page), esc(s.Title()), esc(s.Path()), esc(s.Doc.Meta.Subject), esc(s.Doc.Meta.Revision), sc.Results, sc.Pass, sc.Fail, sc.Errors)
+		p.f("<tr><td><a href=\"%s\">%s</a><br><span class=\"loc\">%s</span></td><td>%s</td><td>%s</td><td class=\"num\">%d</td><td class=\"num\">%d</td><td class=\"num\">%d</td><td class=\"num\">%d</td><td class=\"num\">%d</td></tr>\n",
+			pageHref(s.Page), esc(s.Title()), esc(s.Path()), esc(s.Doc.Meta.Subject), esc(s.Doc.Meta.Revision), sc.Results, sc.Pass, sc.Fail, sc.Fixed, sc.Errors)
 	}
 	p.f("</tbody>\n</table>\n")
 	revisionHistory(p, pkg)
 
 	// Every check of the package, the closest to its limit first.
-	var all []checkRow
+	var all, fixed []checkRow
 	for _, s := range pkg.Sheets {
 		all = append(all, sheetChecks(s, s.Page, s.Path(), s.Digits(opt.Digits))...)
+		fixed = append(fixed, fixedChecks(s, s.Page, s.Path(), s.Digits(opt.Digits))...)
 	}
 	if len(all) > 0 {
 		sort.SliceStable(all, func(i, j int) bool { return worse(all[i].r, all[j].r) })
 		p.f("<h2>Checks, closest to their limits first</h2>\n")
 		checksTable(p, all, true)
 	}
+	fixedSection(p, fixed, true)
 
 	if len(pkg.Diags) > 0 {
 		p.f("<h2>Errors</h2>\n<ul>\n")

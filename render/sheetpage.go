@@ -111,8 +111,8 @@ func statusSection(p *page, s *project.Sheet, digits int) {
 	case c.Fail > 0:
 		class += " has-fail"
 	}
-	p.f("<section class=\"%s\">\n<p><strong>%s</strong> (%s) · <strong>%s</strong>: %d pass, %d fail · <strong>%s</strong>",
-		class, Count(c.Results, "result"), Count(c.Inputs, "input"), Count(c.Pass+c.Fail, "check"), c.Pass, c.Fail, Count(c.Errors, "error"))
+	p.f("<section class=\"%s\">\n<p><strong>%s</strong> (%s) · <strong>%s</strong>: %s · <strong>%s</strong>",
+		class, Count(c.Results, "result"), Count(c.Inputs, "input"), Count(c.Checks(), "check"), checkCounts(c), Count(c.Errors, "error"))
 	if c.Blocked > 0 {
 		p.f(" · %d not evaluated", c.Blocked)
 	}
@@ -120,6 +120,7 @@ func statusSection(p *page, s *project.Sheet, digits int) {
 	if checks := sheetChecks(s, "", "", digits); len(checks) > 0 {
 		checksTable(p, checks, false)
 	}
+	fixedSection(p, fixedChecks(s, "", "", digits), false)
 	diags := append(append(diag.List{}, s.Doc.Diags...), s.Calc.Diags...)
 	diags.Sort()
 	if len(diags) > 0 {
@@ -138,15 +139,21 @@ type checkRow struct {
 	st          *engine.Statement
 	r           engine.Result
 	page, sheet string
-	digits      int // the sheet's significant figures
+	digits      int    // the sheet's significant figures
+	band        string // where the quantity sits in its band, if the check is one side of one
+	fixed       bool   // the check cannot fail: shown apart, not counted
 }
 
-// sheetChecks lists a sheet's checks that came to a verdict.
+// sheetChecks lists a sheet's checks that came to a verdict, with the
+// place in its band of a check that is one side of a tolerance band;
+// fixed checks are listed apart (fixedChecks).
 func sheetChecks(s *project.Sheet, page, sheet string, digits int) []checkRow {
 	var out []checkRow
 	for _, st := range s.Calc.Statements {
 		if r := s.Calc.Result(st); r.Status == engine.Pass || r.Status == engine.Fail {
-			out = append(out, checkRow{st, r, page, sheet, digits})
+			if fixed, _ := s.Fixed(st); !fixed {
+				out = append(out, checkRow{st, r, page, sheet, digits, BandText(s, st, digits), false})
+			}
 		}
 	}
 	return out
@@ -163,17 +170,20 @@ func checksTable(p *page, checks []checkRow, sheetCol bool) {
 	p.f("<th>Check</th><th>Left</th><th></th><th>Right</th><th>Demand / capacity</th><th>Description</th></tr></thead>\n<tbody>\n")
 	for _, c := range checks {
 		st, r, digits := c.st, c.r, c.digits
-		cls := "pass"
-		if r.Status == engine.Fail {
+		verdict, cls := Verdict(r.Status), "pass"
+		switch {
+		case c.fixed:
+			verdict, cls = "fixed", "fixed"
+		case r.Status == engine.Fail:
 			cls = "fail"
 		}
-		p.f("<tr class=\"%s\"><td><span class=\"stamp\">%s</span></td>", cls, Verdict(r.Status))
+		p.f("<tr class=\"%s\"><td><span class=\"stamp\">%s</span></td>", cls, verdict)
 		if sheetCol {
 			p.f("<td>%s</td>", esc(c.sheet))
 		}
 		p.f("<td><a href=\"%s#%s\"><code>%s</code></a></td><td class=\"num\">%s</td><td>%s</td><td class=\"num\">%s</td><td class=\"num\">%s</td><td>%s</td></tr>\n",
 			pageHref(c.page), anchor(st), esc(instancePrefix(st)+st.Formula), esc(ValueText(r.Left, r.Shown, digits)), esc(relations[st.Compare().Op]),
-			esc(ValueText(r.Right, r.Shown, digits)), esc(UtilisationText(r.Utilisation)), esc(st.Description))
+			esc(ValueText(r.Right, r.Shown, digits)), esc(utilisationCell(c)), esc(describe(st)))
 	}
 	p.f("</tbody>\n</table>\n")
 }

@@ -12,10 +12,11 @@ import (
 
 // writeStatement draws one statement as the checker reads it: the formula
 // with symbols, the same with values, and the result.
-func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
+func writeStatement(w sink, s *project.Sheet, st *engine.Statement, digits int) {
+	calc := s.Calc
 	res := calc.Result(st)
 	if st.Kind == engine.Use && res.Status == engine.OK {
-		writeUse(w, calc, st, digits)
+		writeUse(w, s, st, digits)
 		return
 	}
 	if st.Kind == engine.FunctionDef {
@@ -27,7 +28,7 @@ func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int)
 		writeProblem(w, st, res)
 		return
 	case engine.Pass, engine.Fail:
-		writeCheck(w, calc, st, digits)
+		writeCheck(w, s, st, digits)
 		return
 	}
 	if st.Kind == engine.Take {
@@ -134,7 +135,8 @@ func takenLink(from string, st *engine.Statement) string {
 
 // writeUse draws a use statement and, under it, the statements of its
 // instance, each with its value.
-func writeUse(w sink, calc *engine.Calc, use *engine.Statement, digits int) {
+func writeUse(w sink, s *project.Sheet, use *engine.Statement, digits int) {
+	calc := s.Calc
 	w.WriteString(`<div class="row use" id="` + anchor(use) + `">` + "\n" + `<p class="usehead"><span class="kw">use</span> `)
 	w.WriteString(`<strong>` + esc(use.Name) + `</strong> = template <code>` + esc(use.Template) + `</code>`)
 	if len(use.Overrides) > 0 {
@@ -157,7 +159,7 @@ func writeUse(w sink, calc *engine.Calc, use *engine.Statement, digits int) {
 	w.WriteString("<div class=\"instance\">\n")
 	for _, st := range calc.Statements {
 		if st.Use == use {
-			writeStatement(w, calc, st, digits)
+			writeStatement(w, s, st, digits)
 		}
 	}
 	w.WriteString("</div>\n</div>\n")
@@ -176,8 +178,8 @@ func exprText(e engine.Expr) string {
 // uses it, and what it ultimately rests on.
 func writeNote(w sink, calc *engine.Calc, st *engine.Statement) {
 	w.WriteString("<div class=\"note\">")
-	if st.Description != "" {
-		w.WriteString("<span class=\"desc\">" + esc(st.Description) + "</span>")
+	if d := describe(st); d != "" {
+		w.WriteString("<span class=\"desc\">" + esc(d) + "</span>")
 	}
 	if st.Source != "" {
 		w.WriteString("<span class=\"srcref\">Source: " + esc(st.Source) + "</span>")
@@ -284,12 +286,10 @@ func assumptionAnchor(a *engine.Assumption) string {
 // the relation as written, the same relation in numbers with both sides in
 // the check's unit, and a reach bar: how much of its capacity the demand
 // takes, with the limit marked.
-func writeCheck(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
+func writeCheck(w sink, s *project.Sheet, st *engine.Statement, digits int) {
+	calc := s.Calc
 	res := calc.Result(st)
-	cls, verdict := "pass", Verdict(res.Status)
-	if res.Status == engine.Fail {
-		cls = "fail"
-	}
+	verdict, cls := verdictOf(s, st, res)
 	cmp := st.Compare()
 	w.WriteString(`<div class="row check ` + cls + `" id="` + anchor(st) + "\">\n<span class=\"stamp\">" + verdict + "</span>\n<div>\n")
 	writeSteps(w, []string{formulaML(calc, cmp, symbolic, digits)})
@@ -298,7 +298,12 @@ func writeCheck(w sink, calc *engine.Calc, st *engine.Statement, digits int) {
 	w.WriteString("<mo>" + esc(relations[cmp.Op]) + "</mo>")
 	w.WriteString(valueMathML(res.Right, res.Shown, digits))
 	w.WriteString("</mrow></math></p>\n")
-	writeReach(w, res.Utilisation)
+	if note := fixedNote(s, st); note != "" {
+		w.WriteString("<div class=\"note\"><span class=\"fixednote\">" + esc(note) + "</span></div>\n")
+	} else if !inBand(s, st) {
+		writeReach(w, res.Utilisation)
+	}
+	writeCheckExtras(w, s, st, digits)
 	writeNote(w, calc, st)
 	w.WriteString("</div>\n</div>\n")
 }

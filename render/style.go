@@ -78,6 +78,7 @@ body:has(#checker-view:checked) .iv{display:none!important}
 .stamp{display:block;font-weight:700;font-size:.74rem;padding:.2rem .3rem;text-align:center;border:2px solid currentColor;border-radius:50% / 40%;transform:rotate(-4deg);margin-top:.15rem}
 .pass .stamp{color:var(--holds);background:var(--holds-bg)}
 .fail .stamp{color:var(--short);background:var(--short-bg)}
+.fixed .stamp{color:var(--warn);background:var(--warn-bg);border-style:dashed}
 .inval{font-size:.82rem;color:var(--muted);margin:.05rem 0}
 .inval math{color:var(--ink);font-size:1.1em}
 .reach{display:flex;align-items:center;gap:.6rem;font-size:.8rem;margin:.2rem 0;font-family:system-ui,sans-serif}

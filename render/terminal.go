@@ -18,7 +18,7 @@ func Terminal(pkg *project.Package, opt Options, out, errs io.Writer) {
 		digits := s.Digits(opt.Digits)
 		fmt.Fprintf(out, "%s — %s\n", s.Path(), s.Title())
 		for _, st := range s.Calc.Statements {
-			line := TerminalLine(st, s.Calc.Result(st), digits)
+			line := sheetLine(s, st, digits)
 			if line == "" {
 				continue
 			}
@@ -55,8 +55,8 @@ func WriteDiagnostics(pkg *project.Package, errs io.Writer) {
 // 12 checks: 12 pass, 0 fail; 0 errors".
 func Summary(pkg *project.Package) string {
 	c := pkg.Counts()
-	s := fmt.Sprintf("%s, %s, %s: %d pass, %d fail; %s", Count(len(pkg.Sheets), "sheet"), Count(c.Results, "result"),
-		Count(c.Pass+c.Fail, "check"), c.Pass, c.Fail, Count(c.Errors, "error"))
+	s := fmt.Sprintf("%s, %s, %s: %s; %s", Count(len(pkg.Sheets), "sheet"), Count(c.Results, "result"),
+		Count(c.Checks(), "check"), checkCounts(c), Count(c.Errors, "error"))
 	if c.Blocked > 0 {
 		s += fmt.Sprintf("; %d not evaluated", c.Blocked)
 	}
