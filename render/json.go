@@ -149,27 +149,28 @@ type JSONSet struct {
 
 // JSONStatement is one definition or check with its value.
 type JSONStatement struct {
-	Kind         string     `json:"kind"` // "definition" or "check"
-	Name         string     `json:"name,omitempty"`
-	Pos          diag.Pos   `json:"pos"`
-	Text         string     `json:"text"`
-	Status       string     `json:"status"` // ok, pass, fail, error, blocked
-	Input        bool       `json:"input"`
-	Dimension    string     `json:"dimension,omitempty"`
-	QuantityKind string     `json:"quantity_kind,omitempty"`
-	SI           *JSONValue `json:"si,omitempty"`
-	Display      *JSONValue `json:"display,omitempty"`
-	List         *JSONList  `json:"list,omitempty"`
-	Check        *JSONCheck `json:"check,omitempty"`
-	Description  string     `json:"description,omitempty"`
-	Source       string     `json:"source,omitempty"`
-	Assumption   string     `json:"assumption,omitempty"`
-	Assumes      []string   `json:"assumes,omitempty"`
-	Uses         []string   `json:"uses"`
-	UsedBy       []string   `json:"used_by"`
-	TakenFrom    *JSONTaken `json:"taken_from,omitempty"`
-	RestsOn      *JSONTrace `json:"rests_on,omitempty"`
-	Error        *JSONDiag  `json:"error,omitempty"`
+	Kind         string      `json:"kind"` // "definition" or "check"
+	Name         string      `json:"name,omitempty"`
+	Pos          diag.Pos    `json:"pos"`
+	Text         string      `json:"text"`
+	Status       string      `json:"status"` // ok, pass, fail, error, blocked
+	Input        bool        `json:"input"`
+	Dimension    string      `json:"dimension,omitempty"`
+	QuantityKind string      `json:"quantity_kind,omitempty"`
+	SI           *JSONValue  `json:"si,omitempty"`
+	Display      *JSONValue  `json:"display,omitempty"`
+	List         *JSONList   `json:"list,omitempty"`
+	Phasor       *JSONPhasor `json:"phasor,omitempty"`
+	Check        *JSONCheck  `json:"check,omitempty"`
+	Description  string      `json:"description,omitempty"`
+	Source       string      `json:"source,omitempty"`
+	Assumption   string      `json:"assumption,omitempty"`
+	Assumes      []string    `json:"assumes,omitempty"`
+	Uses         []string    `json:"uses"`
+	UsedBy       []string    `json:"used_by"`
+	TakenFrom    *JSONTaken  `json:"taken_from,omitempty"`
+	RestsOn      *JSONTrace  `json:"rests_on,omitempty"`
+	Error        *JSONDiag   `json:"error,omitempty"`
 	// Template reuse: on a use statement, the template and the inputs it
 	// sets; on a statement from a template, its instance, and whether the
 	// using sheet set its value (Default is then the template's own).
@@ -193,6 +194,16 @@ type JSONList struct {
 	SI      []float64 `json:"si"`
 	Display []float64 `json:"display"`
 	Text    []string  `json:"text"`
+}
+
+// JSONPhasor is a complex value's parts in coherent SI and its angle; the
+// statement's si and display hold its magnitude.
+type JSONPhasor struct {
+	ReSI     float64 `json:"re_si"`
+	ImSI     float64 `json:"im_si"`
+	AngleRad float64 `json:"angle_rad"`
+	AngleDeg float64 `json:"angle_deg"`
+	Text     string  `json:"text"`
 }
 
 // JSONValue is a number in a unit.
@@ -488,6 +499,9 @@ func jsonStatement(calc *engine.Calc, st *engine.Statement, digits int) JSONStat
 		j.Display = &JSONValue{Value: shown, Unit: res.Shown.Symbol, Text: units.FormatNumber(shown, res.Digits(digits))}
 		if res.List != nil {
 			j.List = jsonList(res, digits)
+		}
+		if p := res.Phasor; p != nil {
+			j.Phasor = &JSONPhasor{ReSI: p.Re, ImSI: p.Im, AngleRad: p.Angle(), AngleDeg: phasorDegrees(*p), Text: PhasorText(res, digits)}
 		}
 	case engine.Pass, engine.Fail:
 		l, r := res.Shown.FromSI(res.Left), res.Shown.FromSI(res.Right)

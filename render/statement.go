@@ -45,7 +45,7 @@ func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int)
 	steps := []string{symbolMathML(st.Name) + "<mo>=</mo>" + formulaML(calc, st.Expr, symbolic, digits)}
 	if shownConverted(st) {
 		// B [T] = 12 kG: the value as written, then in the unit asked for.
-		steps = append(steps, "<mo>=</mo>"+valueMathML(res.Value, res.Shown, res.Digits(digits)))
+		steps = append(steps, "<mo>=</mo>"+valueOrPhasorMathML(res, digits))
 	}
 	if !st.IsInput() {
 		if substitutes(st.Expr) {
@@ -53,7 +53,7 @@ func writeStatement(w sink, calc *engine.Calc, st *engine.Statement, digits int)
 		}
 		// A name that only repeats an input already shows its value.
 		if r, ok := st.Expr.(*engine.Ref); !ok || r.Target == nil || !r.Target.IsInput() {
-			steps = append(steps, "<mo>=</mo>"+resultMathML(res, digits))
+			steps = append(steps, "<mo>=</mo>"+valueOrPhasorMathML(res, digits))
 		}
 	}
 	writeSteps(w, steps)
