@@ -118,7 +118,7 @@ func inferPolar(n *Binary) *diag.Diagnostic {
 	for _, side := range []Expr{n.X, n.Y} {
 		st := side.Type()
 		if st.IsComplex() {
-			return errAt(side.Pos(), "write magnitude ∠ angle with two real values, such as 230 V ∠ -30 deg",
+			return errAt(side.Pos(), polarHint(n, "write magnitude ∠ angle with two real values, such as 230 V ∠ -30 deg"),
 				"both sides of ∠ are real values; this is a phasor already")
 		}
 		if st.IsList() {
@@ -129,7 +129,7 @@ func inferPolar(n *Binary) *diag.Diagnostic {
 		return errAt(n.X.Pos(), "write a temperature difference in K", "an absolute temperature cannot be a phasor's magnitude")
 	}
 	if !y.Dim.IsDimensionless() {
-		return errAt(n.Y.Pos(), "the angle after ∠ is in rad or deg, such as 230 V ∠ -30 deg",
+		return errAt(n.Y.Pos(), polarHint(n, "the angle after ∠ is in rad or deg, such as 230 V ∠ -30 deg"),
 			"the angle of a phasor is %s, not an angle", units.Describe(y.Dim))
 	}
 	if y.Kind.Cyc != 0 {
@@ -145,6 +145,15 @@ func inferPolar(n *Binary) *diag.Diagnostic {
 		t.Val, t.Im = real(z), imag(z)
 	}
 	return nil
+}
+
+// polarHint adds, for an angle that is a product or a quotient, that ∠
+// binds more loosely than * and /: I ∠ -phi * Z is I ∠ (-phi·Z).
+func polarHint(n *Binary, hint string) string {
+	if b, ok := n.Y.(*Binary); ok && (b.Op == "*" || b.Op == "/") {
+		return "∠ takes the whole product after it as the angle: write (magnitude ∠ angle) " + b.Op + " ..., in parentheses"
+	}
+	return hint
 }
 
 // inferComplexCall checks abs, arg, Re, Im and conj: of a phasor, or of a

@@ -93,7 +93,7 @@ func TestPhasorErrors(t *testing.T) {
 				"b = arg(2 V)", "c = sqrt(E)", "d = E^2", "e = 5 V ∠ 3 m", "f = 5 V ∠ (50 Hz * 1 s)", "g = E ∠ 10 deg", "h = [E, V]",
 				"i = E when abs(E) > 1 V otherwise V", "j = 4j °C", "k = min(E, V)", "l = Re(3 V)", "m = 2 V ∠ 1 deg ∠ 2 deg",
 				"n = 0 V + 0j V", "o = E / n", "check abs(E) <= 7 kV", "check Re(E) >= Re(V)", "p = E[1]", "q = 1j .. 3j",
-				"check abs(E) == 6.9 kV"},
+				"check abs(E) == 6.9 kV", "r = 2 ∠ 10 deg * E"},
 			map[string]string{
 				"E":                      "ok 6.900 kV",
 				"check E <= V":           "error 5:9 phasors have no order, and == between them is refused: compare abs(E - E_ref) <= a tolerance instead",
@@ -117,6 +117,7 @@ func TestPhasorErrors(t *testing.T) {
 				"p":                      "error 24:5 only a list has elements; this is a single value",
 				"q":                      "error 25:5 a range of phasors is not supported",
 				"check abs(E) == 6.9 kV": "pass…",
+				"r":                      "error 27:16 both sides of ∠ are real values; this is a phasor already",
 			}},
 	} {
 		c.run(t, engine.Options{})
@@ -179,4 +180,37 @@ func TestPhasorInSheetFunction(t *testing.T) {
 	checkerCase{"a phasor given to a function of the sheet",
 		[]string{"k(x) = x * 2", "m = k(1j)", "n = k(abs(3 V + 4j V))"},
 		map[string]string{"m": "error 3:7 functions of the sheet's own take and give real values; phasors are not supported in them", "n": "ok 10.00 V"}}.run(t, engine.Options{})
+}
+
+// A run that changes a real input moves the phasors built from it, each
+// frame keeps its own, and a re-run allocates nothing. Phasors are never
+// inputs a run sets: their places are written by their statements.
+func TestPhasorFramesAndRuns(t *testing.T) {
+	calc := engine.Compile(sheetOf("s.md", "V = 6.35 kV", "phi = 30 deg", "I = 525 A ∠ -phi", "Z = 0.04 Ω + 11.5j Ω",
+		"E = V + I * Z", "Z_b = 4j Ω"))
+	p := calc.Program()
+	if _, ok := p.Input("Z_b"); ok {
+		t.Error("a phasor literal is an input a run may set")
+	}
+	slot, ok := p.Input("phi")
+	if !ok {
+		t.Fatal("phi is no input")
+	}
+	f1, f2 := p.NewFrame(), p.NewFrame()
+	p.Run(f1, nil)
+	p.Run(f2, []engine.Set{{Slot: slot, SI: 0}})
+	e := func(f *engine.Frame) complex128 {
+		r := p.Results(f)[calc.Lookup("E").Index]
+		return complex(r.Phasor.Re, r.Phasor.Im)
+	}
+	z := complex(0.04, 11.5)
+	if w := 6350 + cmplx.Rect(525, -math.Pi/6)*z; !cnear(e(f1), w, 1e-12) {
+		t.Errorf("E at 30° = %v, want %v", e(f1), w)
+	}
+	if w := 6350 + 525*z; !cnear(e(f2), w, 1e-12) {
+		t.Errorf("E at 0° = %v, want %v", e(f2), w)
+	}
+	if n := testing.AllocsPerRun(20, func() { p.Run(f1, []engine.Set{{Slot: slot, SI: 0.3}}) }); n != 0 {
+		t.Errorf("a run of a phasor sheet allocates %v times", n)
+	}
 }
