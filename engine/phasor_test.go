@@ -214,3 +214,33 @@ func TestPhasorFramesAndRuns(t *testing.T) {
 		t.Errorf("a run of a phasor sheet allocates %v times", n)
 	}
 }
+
+// A take reads real values, so a phasor is refused there; a template's
+// input may be set to a phasor, and its formulas are checked with it;
+// solve finds a real unknown in a relation between magnitudes.
+func TestPhasorTakesTemplatesSolve(t *testing.T) {
+	gen := engine.Compile(sheetOf("gen.md", "E = 10.8 kV ∠ 28 deg", "E_f = abs(E)"))
+	gen.Evaluate()
+	tpl := sheetOf("t/drop.md", "param I [A] ; current", "Z = 0.04 Ω + 11.5j Ω", "U = I * Z", "U_m = abs(U)")
+	opt := engine.Options{
+		Take: func(ref, from string) (*engine.Calc, string, error) { return gen, "gen.md", nil },
+		Resolve: func(ref, from string) (engine.SheetSource, string, error) {
+			return tpl, "t/drop.md", nil
+		},
+	}
+	checkerCase{"take, use and solve with phasors",
+		[]string{"take E from gen", "take E_f from gen", "use d = t/drop with I = 525 A ∠ -30 deg", "U_1 = d.U_m",
+			"V = 6.35 kV", "I = 525 A ∠ -31.79 deg", "X = solve(abs(V + I * (0.04 Ω + 1j * X)) == 10.8 kV, 1 Ω, 50 Ω)"},
+		// |I·Z| = 525 × |0.04 + j11.5| = 525 × 11.50007 = 6037.5 V. X: |E| is
+		// 10.83 kV at 11.5 Ω, so 10.8 kV needs a little less; bisection by
+		// hand (a calculator) gives 11.4232 Ω, and substituting the solved X
+		// below gives back 10.8 kV.
+		map[string]string{"E": "error 2:1 E in gen.md is a phasor; take reads real values", "E_f": "ok 10.80 kV",
+			"U_1": "ok 6.038 kV", "X": "ok 11.42 Ω"}}.run(t, opt)
+	calc := engine.CompileWith(sheetOf("s.md", "V = 6.35 kV", "I = 525 A ∠ -31.79 deg",
+		"X = solve(abs(V + I * (0.04 Ω + 1j * X)) == 10.8 kV, 1 Ω, 50 Ω)", "E = abs(V + I * (0.04 Ω + 1j * X))"), engine.Options{})
+	calc.Evaluate()
+	if e := calc.Result(calc.Lookup("E")).Value; math.Abs(e-10800) > 1e-6*10800 {
+		t.Errorf("|E| at the solved X is %g V, want 10800 V", e)
+	}
+}
