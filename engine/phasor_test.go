@@ -230,13 +230,15 @@ func TestPhasorTakesTemplatesSolve(t *testing.T) {
 	}
 	checkerCase{"take, use and solve with phasors",
 		[]string{"take E from gen", "take E_f from gen", "use d = t/drop with I = 525 A ∠ -30 deg", "U_1 = d.U_m",
-			"V = 6.35 kV", "I = 525 A ∠ -31.79 deg", "X = solve(abs(V + I * (0.04 Ω + 1j * X)) == 10.8 kV, 1 Ω, 50 Ω)"},
+			"V = 6.35 kV", "I = 525 A ∠ -31.79 deg", "X = solve(abs(V + I * (0.04 Ω + 1j * X)) == 10.8 kV, 1 Ω, 50 Ω)",
+			"Y = solve(Y * 1 A == 2 V, 0 Ω + 1j Ω, 5 Ω)"},
 		// |I·Z| = 525 × |0.04 + j11.5| = 525 × 11.50007 = 6037.5 V. X: |E| is
 		// 10.83 kV at 11.5 Ω, so 10.8 kV needs a little less; bisection by
 		// hand (a calculator) gives 11.4232 Ω, and substituting the solved X
 		// below gives back 10.8 kV.
 		map[string]string{"E": "error 2:1 E in gen.md is a phasor; take reads real values", "E_f": "ok 10.80 kV",
-			"U_1": "ok 6.038 kV", "X": "ok 11.42 Ω"}}.run(t, opt)
+			"U_1": "ok 6.038 kV", "X": "ok 11.42 Ω",
+			"Y": "error 9:31 a bound of solve is a real value; this is a phasor"}}.run(t, opt)
 	calc := engine.CompileWith(sheetOf("s.md", "V = 6.35 kV", "I = 525 A ∠ -31.79 deg",
 		"X = solve(abs(V + I * (0.04 Ω + 1j * X)) == 10.8 kV, 1 Ω, 50 Ω)", "E = abs(V + I * (0.04 Ω + 1j * X))"), engine.Options{})
 	calc.Evaluate()
