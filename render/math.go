@@ -199,6 +199,12 @@ func (w *mathWriter) call(n *engine.Call) {
 		w.expr(n.Args[0], 0)
 		w.b.WriteString("</msqrt>")
 		return
+	case "conj":
+		// z*, as ISO 80000-2 writes the conjugate.
+		w.b.WriteString("<msup><mrow>")
+		w.paren(n.Args[0], w.prec(n.Args[0]) < 5)
+		w.b.WriteString("</mrow><mo>*</mo></msup>")
+		return
 	case "abs":
 		w.b.WriteString(`<mrow><mo fence="true">|</mo>`)
 		w.expr(n.Args[0], 0)

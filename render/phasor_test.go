@@ -10,7 +10,7 @@ import (
 // imaginary literal's j as written. Values invented (Tarnwick Weir).
 func TestPhasorsShowAsMagnitudeAngle(t *testing.T) {
 	sheet := "# Excitation\n\n```sheaf\nV = 6.35 kV ∠ 0 deg ; phase voltage\nI = 525 A /_ -31.79 deg ; armature current\n" +
-		"Z_s = 0.04 Ω + 11.5j Ω ; synchronous impedance\nE [kV] = V + I * Z_s ; excitation EMF\nI_b = 3 A + 4j A\nS = (2 A + 1 A) ∠ 10 deg\n```\n"
+		"Z_s = 0.04 Ω + 11.5j Ω ; synchronous impedance\nE [kV] = V + I * Z_s ; excitation EMF\nI_b = 3 A + 4j A\nS = (2 A + 1 A) ∠ 10 deg\nP = E * conj(I)\n```\n"
 	pkg, pages := build(t, map[string]string{"exc.md": sheet})
 	page := pages["sheets/exc.html"]
 	for _, want := range []string{
@@ -20,7 +20,9 @@ func TestPhasorsShowAsMagnitudeAngle(t *testing.T) {
 		// 11.5j Ω as written: the number, then j.
 		"<mrow><mn>11.5</mn><mi>j</mi></mrow>",
 		// (2 A + 1 A) ∠ 10°: the sum in parentheses.
-		"<mo>(</mo>",
+		"<mrow><mrow><mo>(</mo><mrow><mn>2</mn>",
+		// conj(I) as I*.
+		"<msup><mrow><mi>I</mi></mrow><mo>*</mo></msup>",
 	} {
 		if !strings.Contains(page, want) {
 			t.Errorf("sheet page lacks %q", want)
