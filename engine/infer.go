@@ -32,19 +32,8 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 	}
 	t := e.Type()
 	switch n := e.(type) {
-	case *Number:
-		*t = Type{Const: true, Val: n.Value, Count: isWholeText(n.Text)}
-		if n.Imag {
-			*t = Type{Domain: Complex, Const: true, Im: n.Value}
-		}
-	case *Quantity:
-		*t = Type{Dim: n.Unit.Dim, Kind: n.Unit.Kind, Const: true, Val: n.SI}
-		if n.Imag {
-			if n.Unit.IsAffine() {
-				return errAt(n.Pos(), "write a temperature difference in K", "an absolute temperature cannot be imaginary")
-			}
-			t.Domain, t.Val, t.Im = Complex, 0, n.SI
-		}
+	case *Number, *Quantity:
+		return inferLiteral(e)
 	case *Ref:
 		switch {
 		case n.Column != nil:
@@ -98,6 +87,27 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 		return n.Func.check(n)
 	case *Keyword:
 		return errAt(n.Pos(), "write it as the last argument of interp or spline", "%s has a meaning only inside interp( ) and spline( )", n.Word)
+	}
+	return nil
+}
+
+// inferLiteral types a number or a quantity, real or imaginary (4j A).
+func inferLiteral(e Expr) *diag.Diagnostic {
+	t := e.Type()
+	switch n := e.(type) {
+	case *Number:
+		*t = Type{Const: true, Val: n.Value, Count: isWholeText(n.Text)}
+		if n.Imag {
+			*t = Type{Domain: Complex, Const: true, Im: n.Value}
+		}
+	case *Quantity:
+		*t = Type{Dim: n.Unit.Dim, Kind: n.Unit.Kind, Const: true, Val: n.SI}
+		if n.Imag {
+			if n.Unit.IsAffine() {
+				return errAt(n.Pos(), "write a temperature difference in K", "an absolute temperature cannot be imaginary")
+			}
+			t.Domain, t.Val, t.Im = Complex, 0, n.SI
+		}
 	}
 	return nil
 }
