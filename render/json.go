@@ -51,9 +51,12 @@ type JSONInput struct {
 	SI    JSONValue `json:"si"`
 	// ListSI holds the SI values of an input that is a list; SI is then
 	// its element of largest magnitude.
-	ListSI      []float64 `json:"list_si,omitempty"`
-	Description string    `json:"description,omitempty"`
-	Source      string    `json:"source,omitempty"`
+	ListSI []float64 `json:"list_si,omitempty"`
+	// PhasorSI holds the parts of an input that is imaginary (210j A);
+	// SI is then its magnitude.
+	PhasorSI    *JSONPhasorSI `json:"phasor_si,omitempty"`
+	Description string        `json:"description,omitempty"`
+	Source      string        `json:"source,omitempty"`
 	// Instance names the template instance the input belongs to;
 	// Overridden is set when the using sheet gave its value.
 	Instance   string `json:"instance,omitempty"`
@@ -206,6 +209,12 @@ type JSONPhasor struct {
 	Text     string  `json:"text"`
 }
 
+// JSONPhasorSI is a phasor's parts in coherent SI.
+type JSONPhasorSI struct {
+	Re float64 `json:"re"`
+	Im float64 `json:"im"`
+}
+
 // JSONValue is a number in a unit.
 type JSONValue struct {
 	Value float64 `json:"value"`
@@ -347,9 +356,14 @@ func registers(pkg *project.Package) JSONRegisters {
 				continue
 			}
 			v, u := InputText(st)
-			r.Inputs = append(r.Inputs, JSONInput{Sheet: s.Path(), Name: st.Name, Pos: st.Pos, Value: v, Unit: u,
-				SI: JSONValue{Value: s.Calc.Result(st).Value, Unit: st.Type.Dim.SIUnits()}, ListSI: s.Calc.Result(st).List,
-				Description: st.Description, Source: st.Source, Instance: st.Instance, Overridden: st.Overridden})
+			res := s.Calc.Result(st)
+			in := JSONInput{Sheet: s.Path(), Name: st.Name, Pos: st.Pos, Value: v, Unit: u,
+				SI: JSONValue{Value: res.Value, Unit: st.Type.Dim.SIUnits()}, ListSI: res.List,
+				Description: st.Description, Source: st.Source, Instance: st.Instance, Overridden: st.Overridden}
+			if p := res.Phasor; p != nil {
+				in.PhasorSI = &JSONPhasorSI{Re: p.Re, Im: p.Im}
+			}
+			r.Inputs = append(r.Inputs, in)
 		}
 		for _, a := range s.Calc.Assumptions {
 			ja := JSONAssumption{Sheet: s.Path(), ID: a.ID, Text: a.Text, Pos: a.Pos, Dependents: []JSONRef{}}

@@ -87,7 +87,7 @@ var listSheets = map[string][]byte{
 // load (invented values, Tarnwick Weir).
 var phasorSheets = map[string][]byte{
 	"excitation.md": []byte("# Excitation at rated load\n\n```sheaf\nV = 6.35 kV ∠ 0 deg ; phase voltage\nI = 525 A /_ -31.79 deg ; armature current\n" +
-		"Z_s = 0.04 Ω + 11.5j Ω ; synchronous impedance\nE [kV] = V + I * Z_s ; excitation EMF\ndelta [deg] = arg(E) ; load angle\ncheck abs(E) <= 12 kV\n```\n"),
+		"Z_s = 0.04 Ω + 11.5j Ω ; synchronous impedance\nE [kV] = V + I * Z_s ; excitation EMF\ndelta [deg] = arg(E) ; load angle\ncheck abs(E) <= 12 kV\nI_q = 210j A ; reactive current ; source: invented\n```\n"),
 }
 
 var brokenSheets = map[string][]byte{
@@ -385,7 +385,15 @@ func TestRealOutputValidates(t *testing.T) {
 					if _, ok := m["display"].(map[string]any); !ok {
 						return "E should carry its magnitude as its display value"
 					}
-					return ""
+					for _, in := range doc["registers"].(map[string]any)["inputs"].([]any) {
+						if m := in.(map[string]any); m["name"] == "I_q" {
+							if p, _ := m["phasor_si"].(map[string]any); p == nil || p["im"] != json.Number("210") || p["re"] != json.Number("0") {
+								return fmt.Sprintf("the inputs register should carry I_q's parts, not %v", m["phasor_si"])
+							}
+							return ""
+						}
+					}
+					return "the inputs register lacks I_q"
 				}
 			}
 			return "no statement E"
