@@ -62,7 +62,7 @@ func complexProblem(n *Binary) *diag.Diagnostic {
 	switch {
 	case isComparison(n.Op):
 		return errAt(n.Pos(), "a check compares magnitudes or parts: check abs(E) <= ..., or Re(E) >= ...",
-			"phasors have no order, and == between them is refused: compare abs(E - E_ref) <= a tolerance instead")
+			"phasors have no order, and == on a phasor is refused: compare abs(E - E_ref) <= a tolerance instead")
 	case n.Op == "^":
 		return errAt(n.Pos(), "multiply the phasor by itself, or raise its magnitude: abs(E)^2",
 			"sheaf does not raise phasors to powers")

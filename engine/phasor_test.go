@@ -96,7 +96,7 @@ func TestPhasorErrors(t *testing.T) {
 				"check abs(E) == 6.9 kV", "r = 2 ∠ 10 deg * E"},
 			map[string]string{
 				"E":                      "ok 6.900 kV",
-				"check E <= V":           "error 5:9 phasors have no order, and == between them is refused: compare abs(E - E_ref) <= a tolerance instead",
+				"check E <= V":           "error 5:9 phasors have no order, and == on a phasor is refused: compare abs(E - E_ref) <= a tolerance instead",
 				"check E == V":           "error 6:9 phasors have no order…",
 				"a":                      "error 7:7 cannot add voltage (V) and current (A)",
 				"b":                      "error 8:9 arg takes a phasor, but its argument is a real value",
