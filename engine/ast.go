@@ -33,13 +33,14 @@ const (
 	List
 )
 
-// Domain says what numbers a node holds: real today; complex phasors are
-// the domain to come.
+// Domain says what numbers a node holds: real, or complex (a phasor,
+// complex.go).
 type Domain uint8
 
 // The domains.
 const (
 	Real Domain = iota
+	Complex
 )
 
 // Type is what the checker inferred for a node before evaluation: its
@@ -55,6 +56,8 @@ type Type struct {
 	// built-in constants and arithmetic over them); Val holds it in SI.
 	Const bool
 	Val   float64
+	// Im is the imaginary part of a fixed phasor, whose real part is Val.
+	Im float64
 	// Count is set for a whole-number count (turns, conductors, slots):
 	// whole numbers, sums and products of counts, and round, floor and
 	// ceil. A count whose value is whole shows without decimals.
@@ -92,8 +95,9 @@ func (n *node) base() *node { return n }
 // Number is a plain number with no unit: 2, 0.5, 1e-3.
 type Number struct {
 	node
-	Text  string
+	Text  string // as written, with the j of an imaginary number: 4j
 	Value float64
+	Imag  bool // the number times j
 }
 
 // Quantity is a number with a unit, written as "0.92 T" or "180 mm".
@@ -104,6 +108,7 @@ type Quantity struct {
 	Value    float64
 	Unit     units.Unit
 	SI       float64
+	Imag     bool // the quantity times j: 4j A
 }
 
 // Ref names a statement of the sheet, a built-in constant, or a column of
@@ -196,6 +201,8 @@ func Precedence(e Expr) int {
 			return 1
 		case "*", "/":
 			return 2
+		case "∠":
+			return 1 // between sums and products: written with parentheses around either side at 1 or below
 		case "^":
 			return 4
 		default:

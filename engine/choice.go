@@ -33,6 +33,14 @@ func inferChoice(n *Choice) *diag.Diagnostic {
 		return errAt(n.Other.Pos(), "give both values of the condition one dimension",
 			"the value when the condition holds is %s, but the value otherwise is %s", units.Describe(a.Dim), units.Describe(b.Dim))
 	}
+	if a.IsComplex() || b.IsComplex() || n.Cond.Type().IsComplex() {
+		at := n.Value
+		if !a.IsComplex() {
+			at = n.Other
+		}
+		return errAt(at.Pos(), "choose between real values, and build the phasor from the chosen one",
+			"a conditional value of phasors is not supported")
+	}
 	if a.IsList() != b.IsList() || a.Len != b.Len {
 		return errAt(n.Other.Pos(), "give both values the same shape: two single values, or two lists of one length",
 			"the value when the condition holds has %s, but the value otherwise has %s", shapeText(a), shapeText(b))

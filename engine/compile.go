@@ -50,6 +50,9 @@ func compileNode(e Expr) evalFn {
 	if a, ok := e.(*Apply); ok {
 		return compileApply(a)
 	}
+	if t.IsComplex() {
+		return compileComplex(e)
+	}
 	if t.IsList() {
 		return compileList(e)
 	}
@@ -243,7 +246,7 @@ func compilePow(x evalFn, exp Expr) evalFn {
 }
 
 func slotOf(e Expr) (int, bool) {
-	if r, ok := e.(*Ref); ok && r.Target != nil && !r.T.Const && !r.T.IsList() {
+	if r, ok := e.(*Ref); ok && r.Target != nil && !r.T.Const && !r.T.IsList() && !r.T.IsComplex() {
 		return r.Target.slot, true
 	}
 	return 0, false
@@ -251,7 +254,7 @@ func slotOf(e Expr) (int, bool) {
 
 func constOf(e Expr) (float64, bool) {
 	t := e.Type()
-	if t.Const && !math.IsNaN(t.Val) && !math.IsInf(t.Val, 0) {
+	if t.Const && !t.IsComplex() && !math.IsNaN(t.Val) && !math.IsInf(t.Val, 0) {
 		return t.Val, true
 	}
 	return 0, false
@@ -281,6 +284,9 @@ func compileCall(n *Call) evalFn {
 		return func(v []float64) float64 { return read(x(v)) }
 	}
 	f := n.Func
+	if f.cx != nil || f.Name == "abs" && n.Args[0].Type().IsComplex() {
+		return compilePhasorPart(n)
+	}
 	if f.reduce != nil && n.Args[0].Type().IsList() {
 		return compileReduce(n)
 	}

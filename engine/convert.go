@@ -43,18 +43,18 @@ func (c *converter) convert(n syntax.Node) Expr {
 	pos := c.t.pos(n.At())
 	switch n := n.(type) {
 	case *syntax.Number:
-		e := &Number{Text: n.Text, Value: n.Value}
+		e := &Number{Text: n.Text, Value: n.Value, Imag: n.Imag}
 		e.setPos(pos)
 		return e
 	case *syntax.Quantity:
-		e := &Quantity{Text: n.Text, UnitText: n.UnitText, Value: n.Value, Unit: n.Unit, SI: n.SI}
+		e := &Quantity{Text: n.Text, UnitText: n.UnitText, Value: n.Value, Unit: n.Unit, SI: n.SI, Imag: n.Imag}
 		e.setPos(pos)
 		return e
 	case *syntax.Name:
 		return c.name(n, pos)
 	case *syntax.Unary:
 		x := c.convert(n.X)
-		if q, ok := x.(*Quantity); ok && n.Op == "-" && q.Unit.IsAffine() {
+		if q, ok := x.(*Quantity); ok && n.Op == "-" && q.Unit.IsAffine() && !q.Imag {
 			// -25 °C is a temperature below the scale's zero, not the
 			// negation of one: fold the sign into the literal.
 			q.Text, q.Value, q.SI = "-"+q.Text, -q.Value, q.Unit.ToSI(-q.Value)

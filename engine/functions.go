@@ -3,6 +3,7 @@ package engine
 import (
 	"fmt"
 	"math"
+	"math/cmplx"
 	"slices"
 	"strings"
 
@@ -56,6 +57,10 @@ type Function struct {
 	// reduce is the arithmetic of a reduction of a list (sum, mean, ...);
 	// min and max have it beside f2, for one list or several values.
 	reduce func([]float64) float64
+	// phasor marks arg, Re, Im and conj, functions of a phasor; cx is
+	// the arithmetic of those that give a real value (complex.go).
+	phasor bool
+	cx     func(complex128) float64
 }
 
 func (f *Function) arity() string {
@@ -95,13 +100,23 @@ func reduction(name, doc string, result resultRule, f func([]float64) float64) *
 	return &Function{Name: name, MinArgs: 1, MaxArgs: 1, Usage: name + "(list)", Doc: doc, check: inferReduce, result: result, reduce: f}
 }
 
+// ofPhasor is a function of one phasor: cx gives its real result, or nil
+// for conj, whose result is a phasor.
+func ofPhasor(name, doc string, cx func(complex128) float64) *Function {
+	return &Function{Name: name, MinArgs: 1, MaxArgs: 1, Usage: name + "(z)", Doc: doc, check: inferComplexCall, phasor: true, cx: cx}
+}
+
 // functions is the function table.
 var functions = map[string]*Function{}
 
 func init() {
 	for _, f := range []*Function{
 		one("sqrt", "square root; halves the exponents of the dimension", anyDim, halfArg, "square root of a negative number", math.Sqrt),
-		one("abs", "absolute value", anyDim, likeArg, "", math.Abs),
+		one("abs", "absolute value; of a phasor, its magnitude", anyDim, likeArg, "", math.Abs),
+		ofPhasor("arg", "angle of a phasor, in (-180°, 180°]; an angle", cmplx.Phase),
+		ofPhasor("Re", "real part of a phasor, in its unit", func(z complex128) float64 { return real(z) }),
+		ofPhasor("Im", "imaginary part of a phasor, in its unit", func(z complex128) float64 { return imag(z) }),
+		ofPhasor("conj", "complex conjugate of a phasor: the angle negated", nil),
 		many("min", "smallest element of a list, or smallest argument; all of one dimension", math.Min, minOf),
 		many("max", "largest element of a list, or largest argument; all of one dimension", math.Max, maxOf),
 		reduction("sum", "sum of the elements of a list", likeArg, sumOf),

@@ -39,6 +39,9 @@ func FuzzStatement(f *testing.F) {
 		"a = [1, 2] + [1, 2, 3]\nm = max(a)\nr = rms(1 / (k - 3))\nk = 1 .. 5\ncheck a <= 3",
 		"B = 1.62 T\nk = 1 when B <= 1.5 T otherwise 1.5 T / B\ny = 1 / B when B > 2 T otherwise 0 / T\nz = (1 when k < 1 otherwise 2 s) * 2",
 		"k_p(nu) = sin(nu * y * pi / 2)\ny = 7 / 9\nw = k_p([1, 5, 7])\nf(x) = f(x)\ng(a, a) = a\nh = k_p(1 m) + k_p(1, 2) + nope(3)\nm(x) = n(x)\nn(x) = m(x) * x",
+		"V = 6.35 kV ∠ 0 deg\nI = 525 A /_ -31.8 deg\nE = V + I * (0.04 Ω + 11.5j Ω)\nd [deg] = arg(E)\ncheck abs(E) <= 12 kV",
+		"z = 3 A + 4j A\nw = conj(z) / z\ncheck z <= 1 A\nq = z + 1 V\nr = Re(2)\ns = sqrt(z)\nu = z / (0 A + 0j A)\nl = [z, 1j]",
+		"p = 5 V ∠ 3 m\nc = 1j ∠ 2\nk(x) = x * 2\nm = k(1j)\ny = 1j when 1 < 2 otherwise 2j\nt = 4jx + 4 j",
 	} {
 		f.Add(seed)
 	}

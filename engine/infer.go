@@ -32,10 +32,8 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 	}
 	t := e.Type()
 	switch n := e.(type) {
-	case *Number:
-		*t = Type{Const: true, Val: n.Value, Count: isWholeText(n.Text)}
-	case *Quantity:
-		*t = Type{Dim: n.Unit.Dim, Kind: n.Unit.Kind, Const: true, Val: n.SI}
+	case *Number, *Quantity:
+		return inferLiteral(e)
 	case *Ref:
 		switch {
 		case n.Column != nil:
@@ -45,7 +43,7 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 			*t = Type{Dim: n.Constant.Dim, Const: true, Val: n.Constant.Value}
 		default:
 			tt := n.Target.Type
-			*t = Type{Shape: tt.Shape, Len: tt.Len, Dim: tt.Dim, Kind: tt.Kind, Count: tt.Count}
+			*t = Type{Shape: tt.Shape, Domain: tt.Domain, Len: tt.Len, Dim: tt.Dim, Kind: tt.Kind, Count: tt.Count}
 		}
 	case *ListLit:
 		return inferList(n)
@@ -58,13 +56,19 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 	case *Unary:
 		*t = *n.X.Type()
 		if n.Op == "-" {
-			t.Val = -t.Val
+			t.Val, t.Im = -t.Val, -t.Im
 			if t.Kind.IsAbsTemp() {
 				return errAt(n.Pos(), "negate a temperature difference in K instead", "cannot negate an absolute temperature")
 			}
 		}
 	case *Binary:
+		if n.Op == "∠" {
+			return inferPolar(n)
+		}
 		if err := inferBinary(n); err != nil {
+			return err
+		}
+		if err := inferComplexBinary(n); err != nil {
 			return err
 		}
 		if err := inferListOperands(n); err != nil {
@@ -74,9 +78,36 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 			return chainKind(n)
 		}
 	case *Call:
+		if err := complexArgProblem(n); err != nil {
+			return err
+		}
+		if n.Func.phasor || n.Func.Name == "abs" && n.Args[0].Type().IsComplex() {
+			return inferComplexCall(n)
+		}
 		return n.Func.check(n)
 	case *Keyword:
 		return errAt(n.Pos(), "write it as the last argument of interp or spline", "%s has a meaning only inside interp( ) and spline( )", n.Word)
+	}
+	return nil
+}
+
+// inferLiteral types a number or a quantity, real or imaginary (4j A).
+func inferLiteral(e Expr) *diag.Diagnostic {
+	t := e.Type()
+	switch n := e.(type) {
+	case *Number:
+		*t = Type{Const: true, Val: n.Value, Count: isWholeText(n.Text)}
+		if n.Imag {
+			*t = Type{Domain: Complex, Const: true, Im: n.Value}
+		}
+	case *Quantity:
+		*t = Type{Dim: n.Unit.Dim, Kind: n.Unit.Kind, Const: true, Val: n.SI}
+		if n.Imag {
+			if n.Unit.IsAffine() {
+				return errAt(n.Pos(), "write a temperature difference in K", "an absolute temperature cannot be imaginary")
+			}
+			t.Domain, t.Val, t.Im = Complex, 0, n.SI
+		}
 	}
 	return nil
 }
@@ -119,6 +150,9 @@ func inferTableCall(n *Call) *diag.Diagnostic {
 		return errAt(n.Args[1].Pos(), "read two columns of the same table", "%s and %s are columns of different tables", y.Name, x.Name)
 	}
 	if err := infer(n.Args[2]); err != nil {
+		return err
+	}
+	if err := complexArgProblem(n); err != nil {
 		return err
 	}
 	at := n.Args[2].Type()

@@ -78,19 +78,19 @@ func (a *arena) layout(e Expr) *diag.Diagnostic {
 	var err *diag.Diagnostic
 	walkAll(e, func(e Expr) {
 		t := e.Type()
-		if err != nil || !t.IsList() {
+		if err != nil || t.places() == 0 {
 			return
 		}
 		if r, ok := e.(*Ref); ok && r.Target != nil {
 			r.at = r.Target.Expr.base().at
 			return
 		}
-		if a.used+t.Len > MaxListValues {
+		if a.used+t.places() > MaxListValues {
 			err = errAt(e.Pos(), "split the sheet, or use shorter lists", "the lists of this sheet hold more than %d values, the limit for one sheet", MaxListValues)
 			return
 		}
 		e.base().at = int32(a.base + a.used)
-		a.used += t.Len
+		a.used += t.places()
 	})
 	return err
 }
@@ -105,6 +105,9 @@ func inferList(n *ListLit) *diag.Diagnostic {
 	*t = Type{Shape: List, Len: len(n.Elems), Dim: first.Dim, Kind: first.Kind, Count: true}
 	for i, e := range n.Elems {
 		et := e.Type()
+		if et.IsComplex() {
+			return errAt(e.Pos(), "name each phasor as its own statement", "a list of phasors is not supported")
+		}
 		if et.IsList() {
 			return errAt(e.Pos(), "write the elements of the inner list into this one, or name it and use its elements",
 				"element %d is a list; a list's elements are single values", i+1)
@@ -131,6 +134,9 @@ func inferRange(n *Range) *diag.Diagnostic {
 	from, to := n.From.Type(), n.To.Type()
 	for _, e := range n.children() {
 		et := e.Type()
+		if et.IsComplex() {
+			return errAt(e.Pos(), "give the ends and the step as real values", "a range of phasors is not supported")
+		}
 		if et.IsList() || !et.Const {
 			return errAt(e.Pos(), "write a number or a quantity, as 1 .. 12 or 0 deg .. 90 deg by 15 deg: a list's length is fixed when the sheet is checked",
 				"the ends and the step of a range must be fixed values, not results")
@@ -184,7 +190,7 @@ func inferIndex(n *Index) *diag.Diagnostic {
 	if !x.IsList() {
 		return errAt(n.X.Pos(), "index a list, such as phi[2] for phi = [...]", "only a list has elements; this is a single value")
 	}
-	if i.IsList() || !i.Dim.IsDimensionless() {
+	if i.IsList() || i.IsComplex() || !i.Dim.IsDimensionless() {
 		return errAt(n.I.Pos(), "write the element's number, as phi[2]", "an index is one pure number")
 	}
 	if i.Const && (i.Val != math.Trunc(i.Val) || i.Val < 1 || i.Val > float64(x.Len)) {
@@ -260,6 +266,9 @@ func commonUnit(l *ListLit) (units.Unit, bool) {
 // valueOK evaluates e and reports whether its value, or every element of
 // its list, is a finite number.
 func valueOK(e Expr, v []float64) bool {
+	if e.Type().IsComplex() {
+		return complexOK(e, v)
+	}
 	r := fnOf(e)(v)
 	if !e.Type().IsList() {
 		return finite(r)

@@ -68,7 +68,7 @@ func (s *Calc) buildProgram() *Program {
 		p.initial[i] = st.Verdict
 		p.stepOf[i] = -1
 		// A list input keeps its length: a run sets single values only.
-		if st.Kind == Definition && st.Name != "" && st.IsInput() && st.compiled && !st.Type.IsList() {
+		if st.Kind == Definition && st.Name != "" && st.IsInput() && st.compiled && !st.Type.IsList() && !st.Type.IsComplex() {
 			p.inputs[st.Name] = i
 		}
 	}

@@ -417,6 +417,9 @@ func (s *Calc) check(st *Statement) {
 			at, n := listAt(st.Expr)
 			st.fn = listStep(st.fn, at, n)
 		}
+		if st.Type.IsComplex() {
+			st.fn = complexStep(st.fn, int(st.Expr.base().at))
+		}
 	}
 	st.compiled = true
 }
@@ -424,6 +427,11 @@ func (s *Calc) check(st *Statement) {
 // checkTake readies a result taken from another sheet: its value is that
 // sheet's, fixed for this sheet's runs.
 func (s *Calc) checkTake(st *Statement) {
+	if st.Type.IsComplex() {
+		s.fail(st, errAt(st.Pos, "take a real value, such as abs(...) or Re(...) of the phasor, named in the other sheet",
+			"%s in %s is a phasor; take reads real values", st.Remote, st.TakenPath))
+		return
+	}
 	if st.Type.IsList() {
 		s.fail(st, errAt(st.Pos, "take a single value, such as sum(...) or max(...) of the list, named in the other sheet",
 			"%s in %s is a list; take reads single values", st.Remote, st.TakenPath))
@@ -516,6 +524,10 @@ func (p *Program) Results(f *Frame) []Result {
 			if st.Type.IsList() {
 				r.List = slices.Clone(st.listIn(f.Values))
 				r.Value = largest(r.List)
+			}
+			if st.Type.IsComplex() {
+				ph := st.phasorIn(f.Values)
+				r.Phasor = &ph
 			}
 			r.Shown = shownUnit(st, r.Value, out)
 			if sv := st.solve; sv != nil {
@@ -702,6 +714,9 @@ func diagnose(e Expr, v []float64) *diag.Diagnostic {
 	}
 	if e.Type().IsList() {
 		return diagnoseList(e, v)
+	}
+	if e.Type().IsComplex() {
+		return diagnoseComplex(e, v)
 	}
 	if x, ok := e.(*Index); ok {
 		return indexProblem(x, v)

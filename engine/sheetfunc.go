@@ -310,6 +310,16 @@ func inferApply(a *Apply) *diag.Diagnostic {
 	if err := infer(a.Body); err != nil {
 		return a.relocate(err)
 	}
+	for _, x := range append(slices.Clone(a.Args), a.Body) {
+		if x.Type().IsComplex() {
+			at := x.Pos()
+			if x == a.Body {
+				at = a.Pos() // the body lies in the definition; say it at the call
+			}
+			return errAt(at, "call the function with real values, such as abs(E) or Re(E)",
+				"functions of the sheet's own take and give real values; phasors are not supported in them")
+		}
+	}
 	t := *a.Body.Type()
 	t.Const = false // the call is shown as a call, never folded away
 	*a.Type() = t

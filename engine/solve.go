@@ -237,6 +237,9 @@ func (s *Calc) checkSolveBounds(st *Statement) *diag.Diagnostic {
 		if b.Type().IsList() {
 			return errAt(b.Pos(), "give one value, such as min(...) or max(...) of the list", "a bound of solve is one value; this is a list")
 		}
+		if b.Type().IsComplex() {
+			return errAt(b.Pos(), "give a real value, such as abs(...) of the phasor", "a bound of solve is a real value; this is a phasor")
+		}
 		if err := s.lists.layout(b); err != nil {
 			return err
 		}

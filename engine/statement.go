@@ -232,6 +232,9 @@ type Result struct {
 	// value; Value is then the element of largest magnitude, which picks
 	// the unit they are shown in.
 	List []float64
+	// Phasor holds a complex result's parts in SI, nil for a real one;
+	// Value is then its magnitude.
+	Phasor *Phasor
 
 	count bool // a definition whose value is a whole-number count
 }

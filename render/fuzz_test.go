@@ -15,6 +15,7 @@ import (
 func FuzzPipeline(f *testing.F) {
 	for _, seed := range []string{
 		"---\ntitle: Field coil\nproject: Tarnwick Weir\ndigits: 5\n---\n# Coil\n\n```sheaf\nN = 120\nI = 12 A\nl_g = 2.5 mm\nA_g = 0.01 m^2\nR_g [kA/Wb] = l_g / (mu_0 * A_g)\nPhi = N*I/R_g\ncheck Phi <= 50 mWb\n```\n",
+		"# Excitation\n\n```sheaf\nV = 6.35 kV ∠ 0 deg\nI = 525 A /_ -31.79 deg\nZ = 0.04 Ω + 11.5j Ω\nE [kV] = V + I * Z\nd [deg] = arg(E)\ncheck abs(E) <= 12 kV\nw = E / (0 V + 0j V)\nI_b = 4j A\nc = I_b * I_b\n```\n",
 		"# Speed\n\n```sheaf\nn = 1500 rpm\nomega [rad/s] = 2*pi*n\nf [Hz] = omega\n```\n",
 		"# Heat\n\n```sheaf\nT_a = 40 degC\nT_h = T_a + 80 K\ndT = T_h - T_a\ncheck T_h <= 155 degC\ncheck dT > 100 K\n```\n",
 		"# Errors\n\n```sheaf\na = 1 V + 2 A\nb = a * 2\nc = 1 / 0\nd = c + 1\n```\n\n```sheaf\n```\n",

@@ -51,9 +51,12 @@ type JSONInput struct {
 	SI    JSONValue `json:"si"`
 	// ListSI holds the SI values of an input that is a list; SI is then
 	// its element of largest magnitude.
-	ListSI      []float64 `json:"list_si,omitempty"`
-	Description string    `json:"description,omitempty"`
-	Source      string    `json:"source,omitempty"`
+	ListSI []float64 `json:"list_si,omitempty"`
+	// PhasorSI holds the parts of an input that is imaginary (210j A);
+	// SI is then its magnitude.
+	PhasorSI    *JSONPhasorSI `json:"phasor_si,omitempty"`
+	Description string        `json:"description,omitempty"`
+	Source      string        `json:"source,omitempty"`
 	// Instance names the template instance the input belongs to;
 	// Overridden is set when the using sheet gave its value.
 	Instance   string `json:"instance,omitempty"`
@@ -151,19 +154,20 @@ type JSONSet struct {
 
 // JSONStatement is one definition or check with its value.
 type JSONStatement struct {
-	Kind         string     `json:"kind"` // "definition" or "check"
-	Name         string     `json:"name,omitempty"`
-	Pos          diag.Pos   `json:"pos"`
-	Text         string     `json:"text"`
-	Status       string     `json:"status"` // ok, pass, fail, error, blocked
-	Input        bool       `json:"input"`
-	Dimension    string     `json:"dimension,omitempty"`
-	QuantityKind string     `json:"quantity_kind,omitempty"`
-	SI           *JSONValue `json:"si,omitempty"`
-	Display      *JSONValue `json:"display,omitempty"`
-	List         *JSONList  `json:"list,omitempty"`
-	Check        *JSONCheck `json:"check,omitempty"`
-	Description  string     `json:"description,omitempty"`
+	Kind         string      `json:"kind"` // "definition" or "check"
+	Name         string      `json:"name,omitempty"`
+	Pos          diag.Pos    `json:"pos"`
+	Text         string      `json:"text"`
+	Status       string      `json:"status"` // ok, pass, fail, error, blocked
+	Input        bool        `json:"input"`
+	Dimension    string      `json:"dimension,omitempty"`
+	QuantityKind string      `json:"quantity_kind,omitempty"`
+	SI           *JSONValue  `json:"si,omitempty"`
+	Display      *JSONValue  `json:"display,omitempty"`
+	List         *JSONList   `json:"list,omitempty"`
+	Phasor       *JSONPhasor `json:"phasor,omitempty"`
+	Check        *JSONCheck  `json:"check,omitempty"`
+	Description  string      `json:"description,omitempty"`
 	// Clauses are the standards' clauses the statement applies, as written
 	// after `; clause:`.
 	Clauses    []string   `json:"clauses,omitempty"`
@@ -198,6 +202,22 @@ type JSONList struct {
 	SI      []float64 `json:"si"`
 	Display []float64 `json:"display"`
 	Text    []string  `json:"text"`
+}
+
+// JSONPhasor is a complex value's parts in coherent SI and its angle; the
+// statement's si and display hold its magnitude.
+type JSONPhasor struct {
+	ReSI     float64 `json:"re_si"`
+	ImSI     float64 `json:"im_si"`
+	AngleRad float64 `json:"angle_rad"`
+	AngleDeg float64 `json:"angle_deg"`
+	Text     string  `json:"text"`
+}
+
+// JSONPhasorSI is a phasor's parts in coherent SI.
+type JSONPhasorSI struct {
+	Re float64 `json:"re"`
+	Im float64 `json:"im"`
 }
 
 // JSONValue is a number in a unit.
@@ -355,9 +375,14 @@ func registers(pkg *project.Package) JSONRegisters {
 				continue
 			}
 			v, u := InputText(st)
-			r.Inputs = append(r.Inputs, JSONInput{Sheet: s.Path(), Name: st.Name, Pos: st.Pos, Value: v, Unit: u,
-				SI: JSONValue{Value: s.Calc.Result(st).Value, Unit: st.Type.Dim.SIUnits()}, ListSI: s.Calc.Result(st).List,
-				Description: st.Description, Source: st.Source, Instance: st.Instance, Overridden: st.Overridden})
+			res := s.Calc.Result(st)
+			in := JSONInput{Sheet: s.Path(), Name: st.Name, Pos: st.Pos, Value: v, Unit: u,
+				SI: JSONValue{Value: res.Value, Unit: st.Type.Dim.SIUnits()}, ListSI: res.List,
+				Description: st.Description, Source: st.Source, Instance: st.Instance, Overridden: st.Overridden}
+			if p := res.Phasor; p != nil {
+				in.PhasorSI = &JSONPhasorSI{Re: p.Re, Im: p.Im}
+			}
+			r.Inputs = append(r.Inputs, in)
 		}
 		for _, a := range s.Calc.Assumptions {
 			ja := JSONAssumption{Sheet: s.Path(), ID: a.ID, Text: a.Text, Pos: a.Pos, Dependents: []JSONRef{}}
@@ -508,6 +533,9 @@ func jsonStatement(s *project.Sheet, st *engine.Statement, digits int) JSONState
 		j.Display = &JSONValue{Value: shown, Unit: res.Shown.Symbol, Text: units.FormatNumber(shown, res.Digits(digits))}
 		if res.List != nil {
 			j.List = jsonList(res, digits)
+		}
+		if p := res.Phasor; p != nil {
+			j.Phasor = &JSONPhasor{ReSI: p.Re, ImSI: p.Im, AngleRad: p.Angle(), AngleDeg: phasorDegrees(*p), Text: PhasorText(res, digits)}
 		}
 	case engine.Pass, engine.Fail:
 		l, r := res.Shown.FromSI(res.Left), res.Shown.FromSI(res.Right)

@@ -3,6 +3,7 @@ package render
 import (
 	"html"
 	"io"
+	"math"
 	"strings"
 
 	"github.com/sheaf-calc/sheaf/engine"
@@ -62,6 +63,9 @@ func (w *mathWriter) prec(e engine.Expr) int {
 				return textPrec(v, u)
 			}
 			res := w.calc.Result(r.Target)
+			if res.Phasor != nil {
+				return engine.Precedence(&engine.Binary{Op: "∠"}) // magnitude ∠ angle
+			}
 			return valuePrec(res.Value, res.Shown)
 		}
 	}
@@ -116,12 +120,12 @@ func (w *mathWriter) expr(e engine.Expr, _ int) {
 		switch {
 		case n.Constant != nil:
 			w.b.WriteString(mi(n.Constant.Symbol))
-		case w.mode == substituted && n.Target != nil && n.Target.IsInput() && !n.Target.Type.IsList():
+		case w.mode == substituted && n.Target != nil && n.Target.IsInput() && !n.Target.Type.IsList() && !n.Target.Type.IsComplex():
 			// An input reads as the author wrote it, so the checker can match it.
 			v, u := InputText(n.Target)
 			w.b.WriteString(numberMathML(v) + unitMathML(u))
 		case w.mode == substituted && n.Target != nil:
-			w.b.WriteString(resultMathML(w.calc.Result(n.Target), w.digits))
+			w.b.WriteString(valueOrPhasorMathML(w.calc.Result(n.Target), w.digits))
 		default:
 			w.b.WriteString(symbolMathML(n.Name))
 		}
@@ -155,6 +159,14 @@ func (w *mathWriter) binary(n *engine.Binary) {
 		w.expr(n.Y, 0)
 		w.b.WriteString("</mrow></mfrac>")
 		return
+	case "∠":
+		// Neither side of ∠ binds as loosely as it: (a + b) ∠ φ.
+		w.b.WriteString("<mrow>")
+		w.paren(n.X, w.prec(n.X) <= p)
+		w.op("∠")
+		w.paren(n.Y, w.prec(n.Y) <= p)
+		w.b.WriteString("</mrow>")
+		return
 	case "^":
 		w.b.WriteString("<msup><mrow>")
 		w.paren(n.X, w.prec(n.X) <= p)
@@ -187,6 +199,12 @@ func (w *mathWriter) call(n *engine.Call) {
 		w.expr(n.Args[0], 0)
 		w.b.WriteString("</msqrt>")
 		return
+	case "conj":
+		// z*, as ISO 80000-2 writes the conjugate.
+		w.b.WriteString("<msup><mrow>")
+		w.paren(n.Args[0], w.prec(n.Args[0]) < 5)
+		w.b.WriteString("</mrow><mo>*</mo></msup>")
+		return
 	case "abs":
 		w.b.WriteString(`<mrow><mo fence="true">|</mo>`)
 		w.expr(n.Args[0], 0)
@@ -213,6 +231,10 @@ func (w *mathWriter) applied(fn string, args []engine.Expr) {
 // numberMathML writes a number as text gives it, with a true minus sign and
 // an exponent as a power of ten.
 func numberMathML(s string) string {
+	if j, ok := strings.CutSuffix(s, "j"); ok {
+		// 4j: the number, then the imaginary unit as a symbol.
+		return "<mrow>" + numberMathML(j) + "<mi>j</mi></mrow>"
+	}
 	neg := strings.HasPrefix(s, "-")
 	s = strings.TrimPrefix(s, "-")
 	mant, exp := splitE(s)
@@ -261,4 +283,33 @@ func unitMathML(sym string) string {
 // valueMathML writes an SI value in a unit to the given significant figures.
 func valueMathML(si float64, u units.Unit, digits int) string {
 	return numberMathML(units.FormatNumber(u.FromSI(si), digits)) + unitMathML(u.Symbol)
+}
+
+// valueOrPhasorMathML writes a result: a phasor as its magnitude ∠ its
+// angle, any other as resultMathML does.
+func valueOrPhasorMathML(res engine.Result, digits int) string {
+	if res.Phasor == nil {
+		return resultMathML(res, digits)
+	}
+	d := res.Digits(digits)
+	return "<mrow>" + valueMathML(res.Value, res.Shown, d) + "<mo>∠</mo>" +
+		numberMathML(units.FormatNumber(phasorDegrees(*res.Phasor), d)) + "<mo>°</mo></mrow>"
+}
+
+// PhasorText writes a phasor as its magnitude in the result's unit ∠ its
+// angle in degrees: "10.83 kV ∠ 28.20°".
+func PhasorText(res engine.Result, digits int) string {
+	d := res.Digits(digits)
+	return ValueText(res.Value, res.Shown, d) + " ∠ " + units.FormatNumber(phasorDegrees(*res.Phasor), d) + "°"
+}
+
+// phasorDegrees is a phasor's angle in degrees, in (-180°, 180°]; an
+// angle within rounding of zero (a part that is zero but for the last
+// bit) shows as 0.
+func phasorDegrees(p engine.Phasor) float64 {
+	a := p.Angle() * 180 / math.Pi
+	if math.Abs(a) < 1e-9 {
+		return 0
+	}
+	return a
 }

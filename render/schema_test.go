@@ -83,6 +83,13 @@ var listSheets = map[string][]byte{
 		"k_p(nu) = sin(nu * 7 / 9 * pi / 2) ; pitch factor\nk_p5 = k_p(5) ; fifth harmonic\nbad(x, x) = x\n```\n"),
 }
 
+// phasorSheets is a sheet of phasors: a generator's excitation at rated
+// load (invented values, Tarnwick Weir).
+var phasorSheets = map[string][]byte{
+	"excitation.md": []byte("# Excitation at rated load\n\n```sheaf\nV = 6.35 kV ∠ 0 deg ; phase voltage\nI = 525 A /_ -31.79 deg ; armature current\n" +
+		"Z_s = 0.04 Ω + 11.5j Ω ; synchronous impedance\nE [kV] = V + I * Z_s ; excitation EMF\ndelta [deg] = arg(E) ; load angle\ncheck abs(E) <= 12 kV\nI_q = 210j A ; reactive current ; source: invented\n```\n"),
+}
+
 var brokenSheets = map[string][]byte{
 	"a-names.md": []byte(`---
 title: Broken on purpose
@@ -364,6 +371,32 @@ func TestRealOutputValidates(t *testing.T) {
 				}
 			}
 			return "no statement phi_k"
+		}},
+		{"package with phasors", func(t *testing.T) []byte {
+			return withAudit(t, project.FromFiles("phasors", phasorSheets))
+		}, func(doc map[string]any) string {
+			for _, st := range doc["sheets"].([]any)[0].(map[string]any)["statements"].([]any) {
+				m := st.(map[string]any)
+				if m["name"] == "E" {
+					p, ok := m["phasor"].(map[string]any)
+					if !ok || p["text"] != "10.83 kV ∠ 28.20°" {
+						return fmt.Sprintf("E should carry its phasor as 10.83 kV ∠ 28.20°, not %v", m["phasor"])
+					}
+					if _, ok := m["display"].(map[string]any); !ok {
+						return "E should carry its magnitude as its display value"
+					}
+					for _, in := range doc["registers"].(map[string]any)["inputs"].([]any) {
+						if m := in.(map[string]any); m["name"] == "I_q" {
+							if p, _ := m["phasor_si"].(map[string]any); p == nil || p["im"] != json.Number("210") || p["re"] != json.Number("0") {
+								return fmt.Sprintf("the inputs register should carry I_q's parts, not %v", m["phasor_si"])
+							}
+							return ""
+						}
+					}
+					return "the inputs register lacks I_q"
+				}
+			}
+			return "no statement E"
 		}},
 		{"package with no files", func(t *testing.T) []byte {
 			data, err := render.JSON(project.FromFiles("empty", map[string][]byte{}), render.Options{})

@@ -46,7 +46,7 @@ func writeStatement(w sink, s *project.Sheet, st *engine.Statement, digits int) 
 	steps := []string{symbolMathML(st.Name) + "<mo>=</mo>" + formulaML(calc, st.Expr, symbolic, digits)}
 	if shownConverted(st) {
 		// B [T] = 12 kG: the value as written, then in the unit asked for.
-		steps = append(steps, "<mo>=</mo>"+valueMathML(res.Value, res.Shown, res.Digits(digits)))
+		steps = append(steps, "<mo>=</mo>"+valueOrPhasorMathML(res, digits))
 	}
 	if !st.IsInput() {
 		if substitutes(st.Expr) {
@@ -54,7 +54,7 @@ func writeStatement(w sink, s *project.Sheet, st *engine.Statement, digits int) 
 		}
 		// A name that only repeats an input already shows its value.
 		if r, ok := st.Expr.(*engine.Ref); !ok || r.Target == nil || !r.Target.IsInput() {
-			steps = append(steps, "<mo>=</mo>"+resultMathML(res, digits))
+			steps = append(steps, "<mo>=</mo>"+valueOrPhasorMathML(res, digits))
 		}
 	}
 	writeSteps(w, steps)

@@ -100,6 +100,9 @@ func TerminalLine(st *engine.Statement, r engine.Result, digits int) string {
 			}
 			return fmt.Sprintf("%s = %s%s", SymbolText(st.Name), v, u)
 		}
+		if r.Phasor != nil {
+			return fmt.Sprintf("%s = %s", SymbolText(st.Name), PhasorText(r, digits))
+		}
 		return fmt.Sprintf("%s = %s", SymbolText(st.Name), resultText(r, digits))
 	case engine.Pass, engine.Fail:
 		cmp := st.Compare()

@@ -159,6 +159,8 @@ func operator(r []rune) (string, int) {
 		return two, 2
 	case "**":
 		return "^", 2
+	case "/_":
+		return PolarOp, 2
 	}
 	switch r[0] {
 	case '+', '-', '*', '/', '^', '<', '>', '=':
@@ -171,6 +173,8 @@ func operator(r []rune) (string, int) {
 		return "*", 1
 	case '−':
 		return "-", 1
+	case '∠':
+		return PolarOp, 1
 	}
 	return "", 0
 }
@@ -182,8 +186,6 @@ func (l *lexer) refuse(i int) *Error {
 	switch {
 	case c == '±':
 		return one("write the value without its tolerance", "± is reserved for tolerances, which sheaf does not support yet")
-	case c == '∠':
-		return one("write the magnitude and the angle as separate values", "∠ is reserved for phasors in polar form, which sheaf does not support yet")
 	case c == '%':
 		return one("write percent after a number, as 5 %", "%% must follow a number")
 	case c == '"' || c == '\'' || c == '`':

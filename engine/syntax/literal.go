@@ -29,6 +29,12 @@ func scanLiteral(r []rune, i, to int) (*Number, *Quantity, int, *Error) {
 	if i < to && r[i] == 'π' {
 		return &Number{Pos: Span{start, i}, Text: numText, Value: val}, nil, i, nil // 2π
 	}
+	// 4j, 4j A: an imaginary part, j the imaginary unit of IEC 60027-1.
+	imag := i < to && r[i] == ImagUnit && (i+1 == to || !IsNamePart(r[i+1]))
+	if imag {
+		i++
+		numText += string(ImagUnit)
+	}
 	j := skipBlanks(r, i, to)
 	rest := string(r[j:to])
 	n := units.ScanCompact(rest)
@@ -41,7 +47,7 @@ func scanLiteral(r []rune, i, to int) (*Number, *Quantity, int, *Error) {
 			return nil, nil, i, errAt(start, j+1, "write a number as 12, 0.5 or 1.5e-3; _ groups digits, as 3_000",
 				"malformed number %q", numText+string(r[j]))
 		}
-		return &Number{Pos: Span{start, i}, Text: numText, Value: val}, nil, i, nil
+		return &Number{Pos: Span{start, i}, Text: numText, Value: val, Imag: imag}, nil, i, nil
 	}
 	unitText := rest[:n]
 	end := j + len([]rune(unitText))
@@ -59,7 +65,7 @@ func scanLiteral(r []rune, i, to int) (*Number, *Quantity, int, *Error) {
 		return nil, nil, i, errAt(start, end, "check the number and its unit: a value below about 1e-308 in SI cannot be held; write 0 if zero is meant",
 			"%s %s is too small to hold in SI: it would be 0", numText, unitText)
 	}
-	return nil, &Quantity{Pos: Span{start, end}, Text: numText, UnitText: unitText, Value: val, UnitAt: j, Unit: u, SI: u.ToSI(val)}, end, nil
+	return nil, &Quantity{Pos: Span{start, end}, Text: numText, UnitText: unitText, Value: val, UnitAt: j, Unit: u, SI: u.ToSI(val), Imag: imag}, end, nil
 }
 
 // isWord reports whether r[j:to] starts with the word w, standing alone.

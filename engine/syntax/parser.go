@@ -13,6 +13,7 @@ const (
 	bpRelation = 10
 	bpRange    = 15
 	bpSum      = 20
+	bpPolar    = 25
 	bpProduct  = 30
 	bpSign     = 40
 	bpPower    = 50
@@ -28,6 +29,8 @@ func infixPower(op string) int {
 		return bpPower
 	case "..":
 		return bpRange
+	case PolarOp:
+		return bpPolar
 	}
 	if IsRelation(op) {
 		return bpRelation
@@ -117,6 +120,9 @@ func (p *parser) expr(minBP int) Node {
 		if t.text == ".." {
 			left = p.rangeAfter(left, t)
 			continue
+		}
+		if b, ok := left.(*Binary); ok && t.text == PolarOp && b.Op == PolarOp {
+			return p.fail(t, "write one magnitude and one angle: magnitude ∠ angle", "a phasor has one ∠")
 		}
 		rbp := bp
 		if t.text == "^" {

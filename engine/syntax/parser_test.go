@@ -57,6 +57,13 @@ func TestParseShapes(t *testing.T) {
 		{"1 + 2*3", "(+ 1 (* 2 3))"},
 		{"1 - 2 - 3", "(- (- 1 2) 3)"},
 		{"a / b / c", "(/ (/ a b) c)"},
+		{"3 A + 4j A", "(+ [3 A] [4j A])"},
+		{"0.5 + 2.5e-1j", "(+ 0.5 2.5e-1j)"},
+		{"230 V ∠ -30 deg", "(∠ [230 V] (- [30 deg]))"},
+		{"230 V /_ -30 deg", "(∠ [230 V] (- [30 deg]))"},
+		{"a*b ∠ c*d + e", "(+ (∠ (* a b) (* c d)) e)"},
+		{"x - a ∠ phi", "(- x (∠ a phi))"},
+		{"-a ∠ b", "(∠ (- a) b)"},
 		{"2^3^2", "(^ 2 (^ 3 2))"},
 		{"-x^2", "(- (^ x 2))"},
 		{"-x*y", "(* (- x) y)"},
@@ -171,7 +178,10 @@ func TestParseErrors(t *testing.T) {
 		{"a otherwise b", "otherwise belongs to a conditional value", "", 2, 11},
 		{"1 .. ", "formula ends too early", "", 2, 4},
 		{"5 V ± 1 V", "reserved for tolerances", "", 4, 5},
-		{"10 V ∠ 30 deg", "reserved for phasors", "", 5, 6},
+		{"10 V ∠ 30 deg ∠ 5 deg", "a phasor has one ∠", "magnitude ∠ angle", 14, 15},
+		{"10 V ∠", "formula ends too early", "after ∠", 5, 6},
+		{"4jx", `malformed number "4jx"`, "", 0, 3},
+		{"4 j", `unknown unit "j"`, "", 2, 3},
 		{"1.2.3", `malformed number "1.2.3"`, "", 0, 5},
 		{"2x", `malformed number "2x"`, "2*x", 0, 2},
 		{"1e", `malformed number "1e"`, "an exponent needs digits", 0, 2},
@@ -220,7 +230,8 @@ func FuzzParse(f *testing.F) {
 	for _, s := range []string{"1 + 2*3", "-x^2", "sqrt(a, b)", "2π*n", "60 cm^2", "a < b < c", "(", ")", "1,5 V",
 		"3 m s", "f(", "interp(T.y, T.x, 3 A, extrapolate)", "1..2", "±", "∠", "[", "\xff", "2(a)", "x ** -2",
 		"[1.2 mWb, 1.5 mWb]", "phi[2]", "0 deg .. 90 deg by 15 deg", "[1, 2)", "a [1]", "sum(T.x[1 .. 3])", "[[1]][1][1]",
-		"1 when B <= 1.5 T otherwise 1.5 T / B", "a when b otherwise", "(a when b < c otherwise d)[1]"} {
+		"1 when B <= 1.5 T otherwise 1.5 T / B", "a when b otherwise", "(a when b < c otherwise d)[1]",
+		"3 A + 4j A", "4j", "230 V ∠ -30 deg", "230 V /_ -30 deg", "a*b ∠ c + d", "1 ∠ 2 ∠ 3", "2j π", "1e3j kV", "4jx", "/_"} {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
@@ -271,5 +282,35 @@ func checkSpans(t *testing.T, s string, n Node, outer Span) {
 		checkSpans(t, s, n.Value, sp)
 		checkSpans(t, s, n.Cond, sp)
 		checkSpans(t, s, n.Other, sp)
+	}
+}
+
+// A j right after the digits makes a number or a quantity imaginary; the
+// value is the coefficient of j.
+func TestImaginaryLiterals(t *testing.T) {
+	for _, c := range []struct {
+		in   string
+		val  float64
+		unit string
+	}{{"4j", 4, ""}, {"4j A", 4, "A"}, {"1.5e3j V", 1500, "V"}, {"0.25j kV", 0.25, "kV"}} {
+		n, err := parse(c.in)
+		if err != nil {
+			t.Fatalf("%q: %v", c.in, err)
+		}
+		switch n := n.(type) {
+		case *Number:
+			if !n.Imag || n.Value != c.val || c.unit != "" {
+				t.Errorf("%q: number %+v", c.in, n)
+			}
+		case *Quantity:
+			if !n.Imag || n.Value != c.val || n.UnitText != c.unit {
+				t.Errorf("%q: quantity %+v", c.in, n)
+			}
+		default:
+			t.Errorf("%q: %T", c.in, n)
+		}
+	}
+	if n, _ := parse("4 A"); n.(*Quantity).Imag {
+		t.Error("4 A read as imaginary")
 	}
 }

@@ -10,21 +10,26 @@
 //	comparison = span [ relation span ] .
 //	relation   = "<" | "<=" | ">" | ">=" | "==" | "≤" | "≥" .
 //	span       = sum [ ".." sum [ "by" sum ] ] .
-//	sum        = product { ( "+" | "-" ) product } .
+//	sum        = phasor { ( "+" | "-" ) phasor } .
 //	product    = unary { ( "*" | "/" ) unary } .
 //	unary      = [ "-" | "+" ] power .
 //	power      = postfix [ ( "^" | "**" ) unary ] .
 //	postfix    = primary { "[" choice "]" } .
+//	phasor     = product [ ( "∠" | "/_" ) product ] .
 //	primary    = quantity | number | name | call | list | "(" choice ")" .
 //	list       = "[" choice { "," choice } "]" .
 //	call       = name "(" [ choice { "," choice } ] ")" .
-//	quantity   = number unit .
+//	quantity   = number [ "j" ] unit .
+//	number     = digits [ "." digits ] [ exponent ] [ "j" ] .
 //	name       = letter { letter | digit | "_" } { "." letter { letter | digit | "_" } } .
 //
 // "·", "×" and "⋅" are written for "*", "−" for "-". A number directly
 // followed by π multiplies it (2π). An index's "[" follows its list with
-// no space between. Reserved for later versions, and refused with a
-// message today: "±" (tolerances) and "∠" (phasors in polar form).
+// no space between. A "j" directly after a number's digits makes
+// it imaginary (4j A, IEC 60027-1's imaginary unit); "∠", or "/_" in
+// ASCII, writes a phasor as its magnitude and its angle (230 V ∠ -30 deg).
+// Reserved for a later version, and refused with a message today: "±"
+// (tolerances).
 package syntax
 
 import "github.com/sheaf-calc/sheaf/units"
@@ -41,11 +46,19 @@ type Node interface {
 	At() int
 }
 
-// Number is a plain number: 2, 0.5, 1e-3.
+// ImagUnit follows the digits of an imaginary number: 4j.
+const ImagUnit = 'j'
+
+// PolarOp is the operator of a phasor in polar form, as the parser
+// normalises it (ASCII "/_" too).
+const PolarOp = "∠"
+
+// Number is a plain number: 2, 0.5, 1e-3, or imaginary, 4j.
 type Number struct {
 	Pos   Span
-	Text  string
+	Text  string // as written, with its j
 	Value float64
+	Imag  bool // the number times j
 }
 
 // Quantity is a number with a unit: 0.92 T, 180 mm.
@@ -57,6 +70,7 @@ type Quantity struct {
 	UnitAt   int // where the unit starts
 	Unit     units.Unit
 	SI       float64 // the value in coherent SI
+	Imag     bool    // the quantity times j: 4j A
 }
 
 // Name is a name, possibly qualified with dots: B_g, coil_a.lambda, BH.B.
@@ -72,7 +86,7 @@ type Unary struct {
 	X   Node
 }
 
-// Binary is x op y for + - * / ^ and the relations.
+// Binary is x op y for + - * / ^, ∠ and the relations.
 type Binary struct {
 	Pos  Span
 	OpAt int
