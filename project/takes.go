@@ -21,6 +21,9 @@ type takes struct {
 	// cyclic holds the sheets that take from each other in a cycle, with
 	// the cycle as a message.
 	cyclic map[int]string
+	// named lists, per sheet, the sheets its take statements name, sorted,
+	// whether or not the package has them.
+	named [][]string
 
 	mu   sync.Mutex
 	calc map[int]*engine.Calc
@@ -48,13 +51,20 @@ func newTakes(pages []*sheets.Document) *takes {
 		t.index[d.Path] = i
 	}
 	uses := make([][]int, len(pages)) // sheet -> sheets it takes from
+	t.named = make([][]string, len(pages))
 	for i, d := range pages {
+		seen := map[string]bool{}
 		for _, ref := range engine.TakenSheets(sourceOf(d)) {
 			p, err := takeTarget(ref.Sheet, d.Path)
+			if err == nil && p != d.Path && !seen[p] {
+				seen[p] = true
+				t.named[i] = append(t.named[i], p)
+			}
 			if j, ok := t.index[p]; err == nil && ok && j != i {
 				uses[i] = append(uses[i], j)
 			}
 		}
+		sort.Strings(t.named[i])
 	}
 	t.findCycles(pages, uses)
 	t.order(uses)
