@@ -52,6 +52,7 @@ type Sheet struct {
 
 	uses  []string // package files its use statements reach, directly or not, sorted
 	takes []string // sheets its take statements name, sorted
+	rests []string // the files its page rests on, sorted (see RestsOn)
 }
 
 // Path is the sheet's path inside the package, with forward slashes.
@@ -228,7 +229,7 @@ func assemble(root string, files map[string][]byte, docs []*sheets.Document, pag
 			doc := pages[i]
 			if s, ok := keep[doc.Path]; ok {
 				pkg.Sheets[i] = s
-				t.done(i, s.Calc)
+				t.done(i, s)
 				return
 			}
 			var used usedFiles
@@ -236,8 +237,9 @@ func assemble(root string, files map[string][]byte, docs []*sheets.Document, pag
 			calc.Evaluate()
 			calc.Release()
 			s := &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path), uses: used.sorted(), takes: t.named[i]}
+			s.rests = t.restsOn(i, s)
 			pkg.Sheets[i] = s
-			t.done(i, calc)
+			t.done(i, s)
 			if evaluated != nil {
 				evaluated(pkg, s)
 			}

@@ -185,43 +185,20 @@ func (p *Package) touched(changed map[string]bool) map[string]bool {
 
 // RestsOn lists the source files the page of s rests on, sorted by path:
 // the sheet itself, the templates its use statements reach, and what each
-// sheet it takes a result from rests on. A file that a use or take names
-// and that the package lacks is listed with an empty SHA256, so that its
-// arrival changes the stamp.
+// sheet it takes a result from rests on (a sheet on a cycle of takes
+// takes nothing, and rests on the names of the sheets it would take
+// from). A file that a use or take names and that the package lacks is
+// listed with an empty SHA256, so that its arrival changes the stamp.
+// The package's Files must be final.
 func (p *Package) RestsOn(s *Sheet) []SourceFile {
-	seen := map[string]bool{}
-	var out []SourceFile
-	add := func(path string) {
-		if seen[path] {
-			return
-		}
-		seen[path] = true
-		f := SourceFile{Path: path}
+	out := make([]SourceFile, len(s.rests))
+	for k, path := range s.rests {
+		out[k] = SourceFile{Path: path}
 		i := sort.Search(len(p.Files), func(i int) bool { return p.Files[i].Path >= path })
 		if i < len(p.Files) && p.Files[i].Path == path {
-			f = p.Files[i]
-		}
-		out = append(out, f)
-	}
-	queue := []*Sheet{s}
-	taken := map[*Sheet]bool{s: true}
-	for len(queue) > 0 {
-		t := queue[0]
-		queue = queue[1:]
-		add(t.Path())
-		for _, u := range t.uses {
-			add(u)
-		}
-		for _, name := range t.takes {
-			if u := p.sheet(name); u != nil && !taken[u] {
-				taken[u] = true
-				queue = append(queue, u)
-			} else if u == nil {
-				add(name)
-			}
+			out[k] = p.Files[i]
 		}
 	}
-	sort.Slice(out, func(i, j int) bool { return out[i].Path < out[j].Path })
 	return out
 }
 
@@ -229,13 +206,4 @@ func (p *Package) RestsOn(s *Sheet) []SourceFile {
 // with the tool version, worked out as the package stamp is.
 func (p *Package) SheetStamp(s *Sheet, toolVersion string) string {
 	return StampOf(p.RestsOn(s), toolVersion)
-}
-
-// sheet finds a page of the package by its path, or nil.
-func (p *Package) sheet(path string) *Sheet {
-	i := sort.Search(len(p.Sheets), func(i int) bool { return p.Sheets[i].Path() >= path })
-	if i < len(p.Sheets) && p.Sheets[i].Path() == path {
-		return p.Sheets[i]
-	}
-	return nil
 }

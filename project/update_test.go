@@ -6,6 +6,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
 	"github.com/sheaf-calc/sheaf/render"
 )
@@ -180,5 +181,31 @@ func TestSheetRestsOn(t *testing.T) {
 	}
 	if !strings.HasPrefix(before["c.md"], "sha256:") {
 		t.Errorf("a sheet stamp %q is not a SHA-256", before["c.md"])
+	}
+}
+
+// A sheet that takes from a sheet on a cycle, and is not on it, compiles
+// after it: it reads the value every time, never "not ready", and rests
+// on what that sheet rests on. (Before, it could compile beside that sheet;
+// the race did not show in the runs here, so this guards the outcome.)
+func TestTakeFromASheetOnACycle(t *testing.T) {
+	files := map[string][]byte{
+		"c.md": []byte("# C\n```sheaf\ntake x from d\ny = 2 ; a ; source: s\n```\n"),
+		"d.md": []byte("# D\n```sheaf\ntake y from c\nx = 3 ; b ; source: s\n```\n"),
+		"e.md": []byte("# E\n```sheaf\ntake x from d\nz = 2 * x ; twice\n```\n"),
+	}
+	for range 20 {
+		pkg := project.FromFiles("p", files)
+		e := sheet(t, pkg, "e.md")
+		if r := e.Calc.Result(e.Calc.Lookup("z")); r.Status != engine.OK || r.Value != 6 {
+			t.Fatalf("z = %+v, want 6; diagnostics %v", r, pkg.Diags)
+		}
+		var rests []string
+		for _, f := range pkg.RestsOn(e) {
+			rests = append(rests, f.Path)
+		}
+		if !slices.Equal(rests, []string{"c.md", "d.md", "e.md"}) {
+			t.Fatalf("e.md rests on %v", rests)
+		}
 	}
 }
