@@ -174,3 +174,30 @@ func (r *Result) Pages(emit func(render.File) error) error {
 func (r *Result) WriteJSON(w io.Writer) error {
 	return render.WriteJSON(r.Package, r.Render, w)
 }
+
+// Reload brings r up to date with its sources, read again: only the
+// sheets an edit touches are evaluated again (project.Package.Reload),
+// and the package is audited again. It returns the new result and the
+// sheets whose pages must be rendered again beside the package pages:
+// every sheet when the change reaches every page (a file added, deleted
+// or renamed, another build date, other options), none when nothing
+// changed, in which case the result is r. r must come from Load.
+func (r *Result) Reload(opt Options) (*Result, []*project.Sheet, error) {
+	if opt.Digits == 0 {
+		opt.Digits = project.DefaultDigits
+	}
+	pkg, redone, err := r.Package.Reload()
+	if err != nil {
+		return nil, nil, err
+	}
+	if pkg == r.Package && opt.Digits == r.Render.Digits && opt.Version == r.Render.Version && opt.NoGraphs == r.Render.NoGraphs {
+		return r, nil, nil
+	}
+	report := audit.Run(pkg)
+	res := &Result{Package: pkg, Sources: r.Sources, Render: renderOptions(pkg, opt, &report)}
+	was, now := r.Render, res.Render
+	if now.BuildDate != was.BuildDate || now.Digits != was.Digits || now.Version != was.Version || now.NoGraphs != was.NoGraphs {
+		redone = pkg.Sheets
+	}
+	return res, redone, nil
+}

@@ -1,6 +1,7 @@
 // Package preview serves a package on localhost while its sheets are
-// edited: it rebuilds the pages in memory when a source changes (fsnotify)
-// and tells the open pages to reload through server-sent events. The
+// edited: it rebuilds the pages in memory when a source changes (fsnotify),
+// only those of the sheets the change touches and the package pages, and
+// tells the open pages to reload through server-sent events. The
 // reload script is added only to the pages it serves; built pages stay
 // free of scripts. An edit that does not load (a deleted file, a renamed
 // folder) keeps the last good pages and shows the error on each of them;
@@ -18,6 +19,7 @@ import (
 	"os"
 	"path"
 	"path/filepath"
+	"runtime"
 	"strconv"
 	"strings"
 	"sync"
@@ -26,6 +28,7 @@ import (
 	"github.com/fsnotify/fsnotify"
 
 	"github.com/sheaf-calc/sheaf/build"
+	"github.com/sheaf-calc/sheaf/project"
 	"github.com/sheaf-calc/sheaf/render"
 )
 
@@ -48,6 +51,10 @@ type Server struct {
 	src string
 	opt build.Options
 
+	// res is the last good build; only the rebuilding goroutine (New,
+	// then Watch) touches it.
+	res *build.Result
+
 	mu      sync.Mutex
 	pages   map[string][]byte // the last good pages, by path
 	problem string            // why the last rebuild failed, or ""
@@ -64,16 +71,27 @@ func New(src string, opt build.Options) (*Server, error) {
 	return s, nil
 }
 
-// rebuild loads and renders the package again; on failure it keeps the
-// pages it has and records the problem.
+// rebuild brings the pages up to date with the sources: it evaluates
+// and renders again only the sheets an edit touches, with the package
+// pages (see build.Result.Reload), and keeps every other page as it is.
+// On failure it keeps the pages it has and records the problem.
 func (s *Server) rebuild() error {
-	pages := map[string][]byte{}
-	res, err := build.Load(s.src, s.opt)
-	if err == nil {
-		err = res.Pages(func(f render.File) error {
-			pages[f.Path] = f.Data
-			return nil
-		})
+	var (
+		res    *build.Result
+		redone []*project.Sheet
+		err    error
+	)
+	if s.res == nil {
+		res, err = build.Load(s.src, s.opt)
+		if err == nil {
+			redone = res.Package.Sheets
+		}
+	} else {
+		res, redone, err = s.res.Reload(s.opt)
+	}
+	var pages map[string][]byte
+	if err == nil && res != s.res {
+		pages, err = s.render(res, redone)
 	}
 	s.mu.Lock()
 	defer s.mu.Unlock()
@@ -82,8 +100,59 @@ func (s *Server) rebuild() error {
 		s.problem = err.Error()
 		return err
 	}
-	s.pages, s.problem = pages, ""
+	if pages != nil {
+		s.res, s.pages = res, pages
+	}
+	s.problem = ""
 	return nil
+}
+
+// render gives the pages of res: every page when every sheet was
+// evaluated again, else the last pages with the package pages and the
+// pages of the sheets redone rendered again.
+func (s *Server) render(res *build.Result, redone []*project.Sheet) (map[string][]byte, error) {
+	pages := map[string][]byte{}
+	if len(redone) == len(res.Package.Sheets) {
+		err := res.Pages(func(f render.File) error {
+			pages[f.Path] = f.Data
+			return nil
+		})
+		return pages, err
+	}
+	s.mu.Lock()
+	for p, data := range s.pages {
+		pages[p] = data
+	}
+	s.mu.Unlock()
+	opt := res.Render.ForPackage(res.Package)
+	for _, f := range render.PackageFiles(res.Package, opt) {
+		pages[f.Path] = f.Data
+	}
+	files := make([]render.File, len(redone))
+	errs := make([]error, len(redone))
+	var wg sync.WaitGroup
+	work := make(chan int)
+	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range work {
+				files[i], errs[i] = render.SheetFile(res.Package, redone[i], opt)
+			}
+		}()
+	}
+	for i := range redone {
+		work <- i
+	}
+	close(work)
+	wg.Wait()
+	for i, f := range files {
+		if errs[i] != nil {
+			return nil, errs[i]
+		}
+		pages[f.Path] = f.Data
+	}
+	return pages, nil
 }
 
 // Builds is the number of rebuilds done so far, the first included.
