@@ -55,9 +55,13 @@ type Server struct {
 	// then Watch) touches it.
 	res *build.Result
 
-	mu      sync.Mutex
-	pages   map[string][]byte // the last good pages, by path
-	problem string            // why the last rebuild failed, or ""
+	mu    sync.Mutex
+	pages map[string][]byte // the last good pages, by path
+	// later, when set, renders the package pages of the last good build
+	// when one is first asked for; pages holds them until then only as
+	// they were before the last edit, and is not read for them.
+	later   *packagePages
+	problem string // why the last rebuild failed, or ""
 	clients map[chan struct{}]bool
 	builds  int // rebuilds done, for tests
 }
@@ -90,8 +94,9 @@ func (s *Server) rebuild() error {
 		res, redone, err = s.res.Reload(s.opt)
 	}
 	var pages map[string][]byte
+	var later *packagePages
 	if err == nil && res != s.res {
-		pages, err = s.render(res, redone)
+		pages, later, err = s.render(res, redone)
 	}
 	s.mu.Lock()
 	defer s.mu.Unlock()
@@ -101,23 +106,44 @@ func (s *Server) rebuild() error {
 		return err
 	}
 	if pages != nil {
-		s.res, s.pages = res, pages
+		s.res, s.pages, s.later = res, pages, later
 	}
 	s.problem = ""
 	return nil
 }
 
+// packagePages renders the index, the registers and the audit of one
+// build once, when the first of them is asked for: they read every sheet
+// and the audit, and the page an edit is seen on is the sheet's.
+type packagePages struct {
+	once  sync.Once
+	res   *build.Result
+	pages map[string][]byte
+}
+
+// get is a package page, and whether it is one.
+func (pp *packagePages) get(p string) ([]byte, bool) {
+	pp.once.Do(func() {
+		pp.pages = map[string][]byte{}
+		for _, f := range pp.res.PackagePages() {
+			pp.pages[f.Path] = f.Data
+		}
+	})
+	data, ok := pp.pages[p]
+	return data, ok
+}
+
 // render gives the pages of res: every page when every sheet was
-// evaluated again, else the last pages with the package pages and the
-// pages of the sheets redone rendered again.
-func (s *Server) render(res *build.Result, redone []*project.Sheet) (map[string][]byte, error) {
+// evaluated again, else the last pages with the pages of the sheets
+// redone rendered again, and the package pages to render when asked.
+func (s *Server) render(res *build.Result, redone []*project.Sheet) (map[string][]byte, *packagePages, error) {
 	pages := map[string][]byte{}
 	if len(redone) == len(res.Package.Sheets) {
 		err := res.Pages(func(f render.File) error {
 			pages[f.Path] = f.Data
 			return nil
 		})
-		return pages, err
+		return pages, nil, err
 	}
 	s.mu.Lock()
 	for p, data := range s.pages {
@@ -125,9 +151,6 @@ func (s *Server) render(res *build.Result, redone []*project.Sheet) (map[string]
 	}
 	s.mu.Unlock()
 	opt := res.Render.ForPackage(res.Package)
-	for _, f := range render.PackageFiles(res.Package, opt) {
-		pages[f.Path] = f.Data
-	}
 	files := make([]render.File, len(redone))
 	errs := make([]error, len(redone))
 	var wg sync.WaitGroup
@@ -148,11 +171,11 @@ func (s *Server) render(res *build.Result, redone []*project.Sheet) (map[string]
 	wg.Wait()
 	for i, f := range files {
 		if errs[i] != nil {
-			return nil, errs[i]
+			return nil, nil, errs[i]
 		}
 		pages[f.Path] = f.Data
 	}
-	return pages, nil
+	return pages, &packagePages{res: res}, nil
 }
 
 // Builds is the number of rebuilds done so far, the first included.
@@ -174,8 +197,15 @@ func (s *Server) ServeHTTP(w http.ResponseWriter, r *http.Request) {
 	}
 	s.mu.Lock()
 	data, ok := s.pages[p]
-	problem, build := s.problem, s.builds
+	problem, build, later := s.problem, s.builds, s.later
 	s.mu.Unlock()
+	// Sheets' pages lie under sheets/ (project.PagePath), package pages
+	// beside it.
+	if later != nil && !strings.HasPrefix(p, "sheets/") {
+		if pp, isPackagePage := later.get(p); isPackagePage {
+			data, ok = pp, true
+		}
+	}
 	if !ok {
 		http.Error(w, "no page "+p+" in the package; the index is at /", http.StatusNotFound)
 		return
