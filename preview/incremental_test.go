@@ -73,6 +73,9 @@ func TestIncrementalEqualsFullBuild(t *testing.T) {
 		{"a template", "_templates/tw-g1-ratings.md", "U_n = 690 V", "U_n = 660 V", []string{"01-field-coil.md", "02-coil-emf.md", "03-speed-voltage.md", "05-stator-insulation.md"}},
 		{"a half-typed formula", "04-pump-motor-back-emf.md", "R_a = 0.28 ohm", "R_a = 0.28 ohm *", []string{"04-pump-motor-back-emf.md"}},
 		{"the formula fixed", "04-pump-motor-back-emf.md", "R_a = 0.28 ohm *", "R_a = 0.28 ohm", []string{"04-pump-motor-back-emf.md"}},
+		// A later date in one sheet moves the build date every page
+		// states: one sheet evaluated again, every page rendered again.
+		{"a later date", "04-pump-motor-back-emf.md", "date: 2026-11-30", "date: 2026-12-01", []string{"04-pump-motor-back-emf.md"}},
 		{"a new sheet", "", "", "", append(all, "06-spare.md")},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
@@ -121,6 +124,12 @@ func TestIncrementalEqualsFullBuild(t *testing.T) {
 			// The page of a sheet the edit does not touch stays as it was;
 			// the package pages name the new package stamp.
 			for _, s := range srv.res.Package.Sheets {
+				if tc.name == "a later date" {
+					if bytes.Equal(pagesBefore[s.Page], got[s.Page]) {
+						t.Errorf("%s still states the build date before the edit", s.Page)
+					}
+					continue
+				}
 				if old, ok := pagesBefore[s.Page]; ok && !slices.Contains(tc.redo, s.Path()) && !bytes.Equal(old, got[s.Page]) {
 					t.Errorf("%s changed, and the edit does not touch its sheet", s.Page)
 				}
@@ -129,5 +138,35 @@ func TestIncrementalEqualsFullBuild(t *testing.T) {
 				t.Error("the index still states the stamp of the sources before the edit")
 			}
 		})
+	}
+}
+
+// A preview of one sheet loads it afresh on each save, and serves what a
+// build of that sheet gives.
+func TestIncrementalOfOneSheet(t *testing.T) {
+	src := filepath.Join(t.TempDir(), "tarnwick-weir")
+	if err := os.CopyFS(src, os.DirFS(filepath.Join("..", "examples", "tarnwick-weir"))); err != nil {
+		t.Fatal(err)
+	}
+	file := filepath.Join(src, "01-field-coil.md")
+	srv, err := New(file, build.Options{Version: "test"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	edit(t, file, "k_C = 1.08", "k_C = 1.10")
+	if err := srv.rebuild(); err != nil {
+		t.Fatal(err)
+	}
+	got, want := served(t, srv), fullBuild(t, file)
+	if len(got) != len(want) {
+		t.Fatalf("serves %d pages, a build of the sheet makes %d", len(got), len(want))
+	}
+	for p, data := range want {
+		if !bytes.Equal(got[p], data) {
+			t.Errorf("served %s differs from a build of the edited sheet", p)
+		}
+	}
+	if !bytes.Contains(got["sheets/01-field-coil.html"], []byte("1.10")) {
+		t.Error("the page does not show the edited value 1.10")
 	}
 }
