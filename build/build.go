@@ -52,6 +52,40 @@ type Result struct {
 	// Sources is the package's source folder (the folder given, or the
 	// folder of the one sheet given), absolute and with symlinks resolved.
 	Sources string
+
+	// audit, when set, audits the package on first use: a Reload leaves
+	// the audit to the package pages, which alone show its findings, and
+	// Render.Audit holds an empty report until then.
+	audit *lazyAudit
+}
+
+// lazyAudit runs the audit of a package once, when it is first needed.
+type lazyAudit struct {
+	once   sync.Once
+	pkg    *project.Package
+	report audit.Report
+}
+
+func (a *lazyAudit) get() *audit.Report {
+	a.once.Do(func() { a.report = audit.Run(a.pkg) })
+	return &a.report
+}
+
+// packageOptions are the render options of the package pages and the
+// JSON: Render, with the audit run when a Reload left it for later.
+func (r *Result) packageOptions() render.Options {
+	opt := r.Render
+	if r.audit != nil {
+		opt.Audit = r.audit.get()
+	}
+	return opt
+}
+
+// PackagePages renders the index, the registers and the audit page (see
+// render.PackageFiles), auditing the package first when a Reload left the
+// audit for later. Many goroutines may call it at once.
+func (r *Result) PackagePages() []render.File {
+	return render.PackageFiles(r.Package, r.packageOptions())
 }
 
 // Load reads, evaluates and audits the package at src (a folder or one
@@ -167,10 +201,39 @@ func (r *Result) Pages(emit func(render.File) error) error {
 			return fmt.Errorf("the pages of %s were written by the build and cannot be rendered again from this result; load the package again", s.Path())
 		}
 	}
-	return render.WriteHTML(r.Package, r.Render, emit)
+	return render.WriteHTML(r.Package, r.packageOptions(), emit)
 }
 
 // WriteJSON writes the package's JSON document.
 func (r *Result) WriteJSON(w io.Writer) error {
-	return render.WriteJSON(r.Package, r.Render, w)
+	return render.WriteJSON(r.Package, r.packageOptions(), w)
+}
+
+// Reload brings r up to date with its sources, read again: only the
+// sheets an edit touches are evaluated again (project.Package.Reload).
+// The package is audited again when the package pages or the JSON are
+// first rendered (PackagePages, Pages, WriteJSON): a sheet's page shows
+// that the package has an audit page, not its findings, so an edited
+// sheet's page is ready before the audit is done. It returns the new result and the
+// sheets whose pages must be rendered again beside the package pages:
+// every sheet when the change reaches every page (a file added, deleted
+// or renamed, another build date, other options), none when nothing
+// changed, in which case the result is r. r must come from Load.
+func (r *Result) Reload(opt Options) (*Result, []*project.Sheet, error) {
+	if opt.Digits == 0 {
+		opt.Digits = project.DefaultDigits
+	}
+	pkg, redone, err := r.Package.Reload()
+	if err != nil {
+		return nil, nil, err
+	}
+	if pkg == r.Package && opt.Digits == r.Render.Digits && opt.Version == r.Render.Version && opt.NoGraphs == r.Render.NoGraphs {
+		return r, nil, nil
+	}
+	res := &Result{Package: pkg, Sources: r.Sources, Render: renderOptions(pkg, opt, &audit.Report{}), audit: &lazyAudit{pkg: pkg}}
+	was, now := r.Render, res.Render
+	if now.BuildDate != was.BuildDate || now.Digits != was.Digits || now.Version != was.Version || now.NoGraphs != was.NoGraphs {
+		redone = pkg.Sheets
+	}
+	return res, redone, nil
 }

@@ -1,6 +1,7 @@
 // Package preview serves a package on localhost while its sheets are
-// edited: it rebuilds the pages in memory when a source changes (fsnotify)
-// and tells the open pages to reload through server-sent events. The
+// edited: it rebuilds the pages in memory when a source changes (fsnotify),
+// only those of the sheets the change touches and the package pages, and
+// tells the open pages to reload through server-sent events. The
 // reload script is added only to the pages it serves; built pages stay
 // free of scripts. An edit that does not load (a deleted file, a renamed
 // folder) keeps the last good pages and shows the error on each of them;
@@ -18,6 +19,7 @@ import (
 	"os"
 	"path"
 	"path/filepath"
+	"runtime"
 	"strconv"
 	"strings"
 	"sync"
@@ -26,6 +28,7 @@ import (
 	"github.com/fsnotify/fsnotify"
 
 	"github.com/sheaf-calc/sheaf/build"
+	"github.com/sheaf-calc/sheaf/project"
 	"github.com/sheaf-calc/sheaf/render"
 )
 
@@ -48,9 +51,17 @@ type Server struct {
 	src string
 	opt build.Options
 
-	mu      sync.Mutex
-	pages   map[string][]byte // the last good pages, by path
-	problem string            // why the last rebuild failed, or ""
+	// res is the last good build; only the rebuilding goroutine (New,
+	// then Watch) touches it.
+	res *build.Result
+
+	mu    sync.Mutex
+	pages map[string][]byte // the last good pages, by path
+	// later, when set, renders the package pages of the last good build
+	// when one is first asked for; pages holds them until then only as
+	// they were before the last edit, and is not read for them.
+	later   *packagePages
+	problem string // why the last rebuild failed, or ""
 	clients map[chan struct{}]bool
 	builds  int // rebuilds done, for tests
 }
@@ -64,16 +75,28 @@ func New(src string, opt build.Options) (*Server, error) {
 	return s, nil
 }
 
-// rebuild loads and renders the package again; on failure it keeps the
-// pages it has and records the problem.
+// rebuild brings the pages up to date with the sources: it evaluates
+// and renders again only the sheets an edit touches, with the package
+// pages (see build.Result.Reload), and keeps every other page as it is.
+// On failure it keeps the pages it has and records the problem.
 func (s *Server) rebuild() error {
-	pages := map[string][]byte{}
-	res, err := build.Load(s.src, s.opt)
-	if err == nil {
-		err = res.Pages(func(f render.File) error {
-			pages[f.Path] = f.Data
-			return nil
-		})
+	var (
+		res    *build.Result
+		redone []*project.Sheet
+		err    error
+	)
+	if s.res == nil {
+		res, err = build.Load(s.src, s.opt)
+		if err == nil {
+			redone = res.Package.Sheets
+		}
+	} else {
+		res, redone, err = s.res.Reload(s.opt)
+	}
+	var pages map[string][]byte
+	var later *packagePages
+	if err == nil && res != s.res {
+		pages, later, err = s.render(res, redone)
 	}
 	s.mu.Lock()
 	defer s.mu.Unlock()
@@ -82,8 +105,77 @@ func (s *Server) rebuild() error {
 		s.problem = err.Error()
 		return err
 	}
-	s.pages, s.problem = pages, ""
+	if pages != nil {
+		s.res, s.pages, s.later = res, pages, later
+	}
+	s.problem = ""
 	return nil
+}
+
+// packagePages renders the index, the registers and the audit of one
+// build once, when the first of them is asked for: they read every sheet
+// and the audit, and the page an edit is seen on is the sheet's.
+type packagePages struct {
+	once  sync.Once
+	res   *build.Result
+	pages map[string][]byte
+}
+
+// get is a package page, and whether it is one.
+func (pp *packagePages) get(p string) ([]byte, bool) {
+	pp.once.Do(func() {
+		pp.pages = map[string][]byte{}
+		for _, f := range pp.res.PackagePages() {
+			pp.pages[f.Path] = f.Data
+		}
+	})
+	data, ok := pp.pages[p]
+	return data, ok
+}
+
+// render gives the pages of res: every page when every sheet was
+// evaluated again, else the last pages with the pages of the sheets
+// redone rendered again, and the package pages to render when asked.
+func (s *Server) render(res *build.Result, redone []*project.Sheet) (map[string][]byte, *packagePages, error) {
+	pages := map[string][]byte{}
+	if len(redone) == len(res.Package.Sheets) {
+		err := res.Pages(func(f render.File) error {
+			pages[f.Path] = f.Data
+			return nil
+		})
+		return pages, nil, err
+	}
+	s.mu.Lock()
+	for p, data := range s.pages {
+		pages[p] = data
+	}
+	s.mu.Unlock()
+	opt := res.Render.ForPackage(res.Package)
+	files := make([]render.File, len(redone))
+	errs := make([]error, len(redone))
+	var wg sync.WaitGroup
+	work := make(chan int)
+	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range work {
+				files[i], errs[i] = render.SheetFile(res.Package, redone[i], opt)
+			}
+		}()
+	}
+	for i := range redone {
+		work <- i
+	}
+	close(work)
+	wg.Wait()
+	for i, f := range files {
+		if errs[i] != nil {
+			return nil, nil, errs[i]
+		}
+		pages[f.Path] = f.Data
+	}
+	return pages, &packagePages{res: res}, nil
 }
 
 // Builds is the number of rebuilds done so far, the first included.
@@ -105,8 +197,15 @@ func (s *Server) ServeHTTP(w http.ResponseWriter, r *http.Request) {
 	}
 	s.mu.Lock()
 	data, ok := s.pages[p]
-	problem, build := s.problem, s.builds
+	problem, build, later := s.problem, s.builds, s.later
 	s.mu.Unlock()
+	// Sheets' pages lie under sheets/ (project.PagePath), package pages
+	// beside it.
+	if later != nil && !strings.HasPrefix(p, "sheets/") {
+		if pp, isPackagePage := later.get(p); isPackagePage {
+			data, ok = pp, true
+		}
+	}
 	if !ok {
 		http.Error(w, "no page "+p+" in the package; the index is at /", http.StatusNotFound)
 		return

@@ -38,6 +38,10 @@ type Package struct {
 	Diags     diag.List
 
 	latestDate string // the latest date in the pages' front matter
+	// whole is set when every file of the folder was read before
+	// compiling, so that Update can tell what an edit touches.
+	whole      bool
+	loadedFrom string // the folder or sheet Load was given
 }
 
 // Sheet pairs a parsed Markdown sheet with its compiled calculation.
@@ -51,6 +55,10 @@ type Sheet struct {
 	// Package.Sheets; it is set before the sheet is compiled, so that a
 	// page rendered while other sheets still compile can say "Sheet n of N".
 	Number int
+
+	uses  []string // package files its use statements reach, directly or not, sorted
+	takes []string // sheets its take statements name, sorted
+	rests []string // the files its page rests on, sorted (see RestsOn)
 
 	fixed map[*engine.Statement]fixity.Outcome
 
@@ -133,7 +141,11 @@ func LoadWith(root string, opt LoadOptions) (*Package, error) {
 		return nil, fmt.Errorf("cannot read %s: %w", root, err)
 	}
 	if !info.IsDir() {
-		return loadOne(root)
+		pkg, err := loadOne(root)
+		if pkg != nil {
+			pkg.loadedFrom = root
+		}
+		return pkg, err
 	}
 	f, err := openFolder(root)
 	if err != nil {
@@ -149,7 +161,9 @@ func LoadWith(root string, opt LoadOptions) (*Package, error) {
 	if err := distinctNames(mapKeys(files)); err != nil {
 		return nil, err
 	}
-	return build(root, files, nil, nil, opt.Evaluated), nil
+	pkg := build(root, files, nil, nil, opt.Evaluated)
+	pkg.loadedFrom = root
+	return pkg, nil
 }
 
 // loadOne reads one sheet, and the templates it uses when it uses them.
@@ -201,10 +215,16 @@ func FromFiles(root string, files map[string][]byte) *Package {
 // Each page is handed to evaluated, when it is set, once it is evaluated.
 func build(root string, files map[string][]byte, page func(string) bool, more *folder, evaluated func(*Package, *Sheet)) *Package {
 	paths := mapKeys(files)
-	pkg := &Package{Root: root}
-
 	docs := make([]*sheets.Document, len(paths))
 	parallel(len(paths), func(i int) { docs[i] = sheets.Parse(paths[i], files[paths[i]]) })
+	return assemble(root, files, docs, page, more, evaluated, nil)
+}
+
+// assemble compiles and evaluates the parsed docs (one per file, in path
+// order) as build does, except that a page found in keep is taken as it is
+// instead of being compiled again (see Update).
+func assemble(root string, files map[string][]byte, docs []*sheets.Document, page func(string) bool, more *folder, evaluated func(*Package, *Sheet), keep map[string]*Sheet) *Package {
+	pkg := &Package{Root: root, whole: page == nil && more == nil}
 	r := &resolver{docs: map[string]*sheets.Document{}, more: more, files: files}
 	var pages []*sheets.Document
 	for _, d := range docs {
@@ -213,7 +233,7 @@ func build(root string, files map[string][]byte, page func(string) bool, more *f
 		case page != nil && page(d.Path):
 			pages = append(pages, d)
 		case page != nil:
-		case d.Meta.Template || isTemplatePath(d.Path):
+		case isTemplate(d):
 			pkg.Templates = append(pkg.Templates, d)
 		default:
 			pages = append(pages, d)
@@ -234,13 +254,20 @@ func build(root string, files map[string][]byte, page func(string) bool, more *f
 		parallel(len(wave), func(k int) {
 			i := wave[k]
 			doc := pages[i]
-			calc := engine.CompileWith(sourceOf(doc), engine.Options{Resolve: r.resolve, Take: t.find})
+			if s, ok := keep[doc.Path]; ok {
+				pkg.Sheets[i] = s
+				t.done(i, s)
+				return
+			}
+			var used usedFiles
+			calc := engine.CompileWith(sourceOf(doc), engine.Options{Resolve: used.recording(r.resolve), Take: t.find})
 			calc.Evaluate()
 			fixed := fixity.Find(calc) // while the program can still run
 			calc.Release()
-			s := &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path), Number: i + 1, fixed: fixed}
+			s := &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path), Number: i + 1, fixed: fixed, uses: used.sorted(), takes: t.named[i]}
+			s.rests = t.restsOn(i, s)
 			pkg.Sheets[i] = s
-			t.done(i, calc)
+			t.done(i, s)
 			if evaluated != nil {
 				evaluated(pkg, s)
 			}
@@ -260,6 +287,10 @@ func build(root string, files map[string][]byte, page func(string) bool, more *f
 	pkg.Diags.Sort()
 	return pkg
 }
+
+// isTemplate reports whether a file of a package folder is a template
+// rather than a page: it says so, or it lies in a folder named "_...".
+func isTemplate(d *sheets.Document) bool { return d.Meta.Template || isTemplatePath(d.Path) }
 
 // PagePath is the path of a sheet's page inside a built package, with
 // forward slashes: "sheets/field-coil.html" for "field-coil.md".
@@ -366,15 +397,9 @@ func (r *resolver) resolve(ref, from string) (engine.SheetSource, string, error)
 	if strings.HasPrefix(from, sheets.LibraryPrefix) {
 		return engine.SheetSource{}, "", fmt.Errorf("a built-in template can use only other built-in templates, not %s", ref)
 	}
-	if path.IsAbs(ref) || strings.ContainsAny(ref, "\\:") {
-		return engine.SheetSource{}, "", fmt.Errorf("template %s must be a path inside the package folder, written with /", ref)
-	}
-	p := path.Clean(path.Join(path.Dir(from), ref))
-	if !strings.EqualFold(path.Ext(p), ".md") {
-		p += ".md"
-	}
-	if p == ".." || strings.HasPrefix(p, "../") {
-		return engine.SheetSource{}, "", fmt.Errorf("template %s leaves the package folder; templates must lie inside it", ref)
+	p, err := templatePath(ref, from)
+	if err != nil {
+		return engine.SheetSource{}, "", err
 	}
 	doc, err := r.doc(p)
 	if err != nil {
@@ -385,6 +410,22 @@ func (r *resolver) resolve(ref, from string) (engine.SheetSource, string, error)
 		return engine.SheetSource{}, "", fmt.Errorf("template %s has an error at %s: %s", p, d.Pos, d.Message)
 	}
 	return sourceOf(doc), p, nil
+}
+
+// templatePath is the package file a use statement in the file at from
+// names: a path relative to from, with or without .md, inside the folder.
+func templatePath(ref, from string) (string, error) {
+	if path.IsAbs(ref) || strings.ContainsAny(ref, "\\:") {
+		return "", fmt.Errorf("template %s must be a path inside the package folder, written with /", ref)
+	}
+	p := path.Clean(path.Join(path.Dir(from), ref))
+	if !strings.EqualFold(path.Ext(p), ".md") {
+		p += ".md"
+	}
+	if p == ".." || strings.HasPrefix(p, "../") {
+		return "", fmt.Errorf("template %s leaves the package folder; templates must lie inside it", ref)
+	}
+	return p, nil
 }
 
 // Counts tallies a sheet's or a package's outcomes.

@@ -21,9 +21,13 @@ type takes struct {
 	// cyclic holds the sheets that take from each other in a cycle, with
 	// the cycle as a message.
 	cyclic map[int]string
+	// named lists, per sheet, the sheets its take statements name, sorted,
+	// whether or not the package has them.
+	named [][]string
 
-	mu   sync.Mutex
-	calc map[int]*engine.Calc
+	mu    sync.Mutex
+	calc  map[int]*engine.Calc
+	sheet map[int]*Sheet
 }
 
 // takeTarget resolves a sheet named by a take statement in the sheet at
@@ -43,18 +47,25 @@ func takeTarget(ref, from string) (string, error) {
 }
 
 func newTakes(pages []*sheets.Document) *takes {
-	t := &takes{index: map[string]int{}, cyclic: map[int]string{}, calc: map[int]*engine.Calc{}}
+	t := &takes{index: map[string]int{}, cyclic: map[int]string{}, calc: map[int]*engine.Calc{}, sheet: map[int]*Sheet{}}
 	for i, d := range pages {
 		t.index[d.Path] = i
 	}
 	uses := make([][]int, len(pages)) // sheet -> sheets it takes from
+	t.named = make([][]string, len(pages))
 	for i, d := range pages {
+		seen := map[string]bool{}
 		for _, ref := range engine.TakenSheets(sourceOf(d)) {
 			p, err := takeTarget(ref.Sheet, d.Path)
+			if err == nil && p != d.Path && !seen[p] {
+				seen[p] = true
+				t.named[i] = append(t.named[i], p)
+			}
 			if j, ok := t.index[p]; err == nil && ok && j != i {
 				uses[i] = append(uses[i], j)
 			}
 		}
+		sort.Strings(t.named[i])
 	}
 	t.findCycles(pages, uses)
 	t.order(uses)
@@ -103,7 +114,9 @@ func (t *takes) findCycles(pages []*sheets.Document, uses [][]int) {
 }
 
 // order puts every sheet in the wave after the sheets it takes from;
-// sheets on a cycle go in the first wave, where their takes fail.
+// sheets on a cycle go in the first wave, where their takes fail, and a
+// sheet that takes from one of them in a later wave, so that what it
+// reads does not depend on which goroutine finished first.
 func (t *takes) order(uses [][]int) {
 	wave := make([]int, len(uses))
 	for i := range wave {
@@ -120,9 +133,9 @@ func (t *takes) order(uses [][]int) {
 		}
 		d := 0
 		for _, j := range uses[i] {
-			if _, ok := t.cyclic[j]; !ok {
-				d = max(d, depth(j)+1)
-			}
+			// A sheet on a cycle is in the first wave: one that takes
+			// from it, and is not on the cycle, comes after it.
+			d = max(d, depth(j)+1)
 		}
 		wave[i] = d
 		return d
@@ -139,10 +152,48 @@ func (t *takes) order(uses [][]int) {
 	}
 }
 
-func (t *takes) done(i int, calc *engine.Calc) {
+func (t *takes) done(i int, s *Sheet) {
 	t.mu.Lock()
-	t.calc[i] = calc
+	t.calc[i], t.sheet[i] = s.Calc, s
 	t.mu.Unlock()
+}
+
+// restsOn lists the files the page of s, the compiled sheet i, rests on:
+// its own, those its uses reach, and what each sheet it takes from rests
+// on. A sheet on a cycle takes nothing, so it rests on the names of the
+// sheets it would take from and not on what they rest on; a take of a
+// sheet the package lacks rests on the name. Sheets taken from are done
+// before: the waves order them.
+func (t *takes) restsOn(i int, s *Sheet) []string {
+	set := map[string]bool{s.Path(): true}
+	for _, u := range s.uses {
+		set[u] = true
+	}
+	for _, p := range s.takes {
+		set[p] = true
+		j, ok := t.index[p]
+		if !ok || t.cyclic[i] != "" {
+			continue
+		}
+		t.mu.Lock()
+		from := t.sheet[j]
+		t.mu.Unlock()
+		if from != nil {
+			for _, r := range from.rests {
+				set[r] = true
+			}
+		}
+	}
+	return sortedKeys(set)
+}
+
+func sortedKeys(set map[string]bool) []string {
+	out := make([]string, 0, len(set))
+	for k := range set {
+		out = append(out, k)
+	}
+	sort.Strings(out)
+	return out
 }
 
 // find returns the compiled sheet a take statement names.

@@ -189,9 +189,13 @@ type frame struct {
 	title string // the browser's title
 	block titleBlock
 	root  string // path from the page to the package folder: "", "../"
-	stamp string
-	date  string
-	pages []navItem // the package pages that exist
+	// stamp is the package stamp on a package page, and on a sheet's page
+	// the stamp of the sources that page rests on (project.RestsOn), so
+	// that an edit changes only the pages it touches.
+	stamp     string
+	stampName string // what the footer calls the stamp
+	date      string
+	pages     []navItem // the package pages that exist
 }
 
 type navItem struct{ path, label string }
@@ -208,7 +212,7 @@ func (p *page) open(fr frame, version string) {
 	p.f("<table class=\"frame\">\n<thead><tr><td>\n")
 	fr.block.write(p)
 	p.f("</td></tr></thead>\n")
-	p.f("<tfoot><tr><td><p class=\"stampline\">Package stamp <code>%s</code>", esc(fr.stamp))
+	p.f("<tfoot><tr><td><p class=\"stampline\">%s <code>%s</code>", fr.stampName, esc(fr.stamp))
 	if fr.date != "" {
 		p.f(" · built %s", esc(fr.date))
 	}
@@ -268,11 +272,19 @@ func packageFrame(pkg *project.Package, opt Options) frame {
 	if stamp == "" {
 		stamp = project.StampOf(pkg.Files, opt.Version)
 	}
-	fr := frame{stamp: stamp, date: opt.BuildDate}
+	fr := frame{stamp: stamp, stampName: "Package stamp", date: opt.BuildDate}
 	fr.pages = []navItem{{"index.html", "Package index"}, {"inputs.html", "Inputs register"}, {"assumptions.html", "Assumptions register"}, {"standards.html", "Standards register"}}
 	if opt.Audit != nil {
 		fr.pages = append(fr.pages, navItem{"audit.html", "Audit"})
 	}
+	return fr
+}
+
+// sheetFrame is the frame of a sheet's page: the package's, with the stamp
+// of the sources the page rests on in place of the package stamp.
+func sheetFrame(pkg *project.Package, s *project.Sheet, opt Options) frame {
+	fr := packageFrame(pkg, opt)
+	fr.stamp, fr.stampName = pkg.SheetStamp(s, opt.Version), "Stamp of this sheet's sources"
 	return fr
 }
 

@@ -46,7 +46,7 @@ func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, pr *prose) (
 	// once; reserving 24 times the source, as once done, held half a
 	// gigabyte for a large table (issue 8).
 	p.Grow(16<<10 + 2*len(s.Doc.Source) + 1<<10*len(s.Calc.Statements))
-	fr := packageFrame(pkg, opt)
+	fr := sheetFrame(pkg, s, opt)
 	fr.title = s.Title()
 	fr.root = rel(s.Page)
 	m := s.Doc.Meta

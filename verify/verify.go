@@ -1,9 +1,12 @@
 // Package verify proves that a delivered calculation package was built from
 // the sources it names. A build writes a manifest beside its pages: the tool
 // version, the package stamp, the hash of every source file and of every
-// page. Verify reads the sources again, recomputes the stamp, rebuilds the
-// pages in memory, and names every file that differs and every file of the
-// package that the manifest does not list.
+// page. The package pages state the package stamp; each sheet's page states
+// the stamp of the sources it rests on (its sheet, the templates it uses,
+// the sheets it takes from), so that an edit changes only the pages it
+// touches. Verify reads the sources again, recomputes every stamp, rebuilds
+// the pages in memory, and names every file that differs and every file of
+// the package that the manifest does not list.
 package verify
 
 import (
@@ -76,12 +79,12 @@ func Verify(built, sources, toolVersion string) (Result, error) {
 	pkg := res.Package
 	checkSources(m, pkg, problem)
 
-	// The stamp, as every page states it.
+	// The package stamp, as the manifest and the package pages state it.
 	r.Stamp = project.StampOf(pkg.Files, m.Version)
 	if r.Stamp != m.Stamp {
 		problem("", "the sources give the stamp %s, the package states %s", r.Stamp, m.Stamp)
 	}
-	delivered := readListed(root, m, problem)
+	delivered := readListed(root, m, pageStamps(pkg, m), problem)
 	checkUnlisted(root, m, problem)
 
 	// A rebuild with the same tool must give the same pages.
@@ -142,9 +145,28 @@ func inside(p string) bool {
 	return fs.ValidPath(p) && p != "." && !strings.Contains(p, "\\")
 }
 
+// pageStamp is the stamp a page must state: on a sheet's page the stamp
+// of the sources that page rests on, on any other the manifest's.
+type pageStamp func(page string) (stamp, what string)
+
+// pageStamps works out, from the sources, the stamp each page must state.
+func pageStamps(pkg *project.Package, m build.Manifest) pageStamp {
+	bySheet := map[string]string{}
+	for _, s := range pkg.Sheets {
+		bySheet[s.Page] = pkg.SheetStamp(s, m.Version)
+	}
+	return func(page string) (string, string) {
+		if st, ok := bySheet[page]; ok {
+			return st, "the sources this sheet rests on give"
+		}
+		return m.Stamp, "the package's is"
+	}
+}
+
 // readListed reads and hashes every file the manifest lists, refusing any
-// path that would leave the package, and returns the contents by path.
-func readListed(root *os.Root, m build.Manifest, problem func(file, format string, args ...any)) map[string][]byte {
+// path that would leave the package, checks the stamp each page states,
+// and returns the contents by path.
+func readListed(root *os.Root, m build.Manifest, want pageStamp, problem func(file, format string, args ...any)) map[string][]byte {
 	delivered := map[string][]byte{}
 	for _, pg := range listed(m) {
 		if !inside(pg.Path) || pg.Path == build.ManifestName {
@@ -169,8 +191,12 @@ func readListed(root *os.Root, m build.Manifest, problem func(file, format strin
 		if hex.EncodeToString(sum[:]) != pg.SHA256 {
 			problem(pg.Path, "page has been changed since it was built")
 		}
-		if sm := stampMeta.FindSubmatch(data); sm != nil && string(sm[1]) != m.Stamp {
-			problem(pg.Path, "page states the stamp %s, not the package's", sm[1])
+		if sm := stampMeta.FindSubmatch(data); sm != nil {
+			if stamp, what := want(pg.Path); string(sm[1]) != stamp {
+				problem(pg.Path, "page states the stamp %s; %s %s", sm[1], what, stamp)
+			}
+		} else if strings.HasSuffix(pg.Path, ".html") {
+			problem(pg.Path, "page states no stamp; every page a build makes states one")
 		}
 	}
 	return delivered

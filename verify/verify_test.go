@@ -237,3 +237,101 @@ func TestAManifestWithImpossibleDigitsIsAProblem(t *testing.T) {
 	editManifest(t, out, func(m *build.Manifest) { m.Digits = 99 })
 	mustFail(t, out, src, build.ManifestName, "states 99 significant figures")
 }
+
+// A package whose sheets take from each other: emf.md takes from
+// coil.md, and gap.md stands alone.
+var takingSheets = map[string]string{
+	"coil.md": "# Coil\n\n```sheaf\nN = 120 ; turns ; source: drawing C-1\nI = 4 A ; current ; source: test T-1\nF [A] = N * I ; ampere-turns\n```\n",
+	"emf.md":  "# EMF\n\n```sheaf\ntake F from coil\nR = 2.4 MA/Wb ; gap reluctance ; source: field study F-3\nPhi [mWb] = F / R ; flux per pole\n```\n",
+	"gap.md":  "# Gap\n\n```sheaf\ng = 2 mm ; air gap ; source: drawing C-2\n```\n",
+}
+
+// pageHashes reads the page hashes of a built package's manifest.
+func pageHashes(t *testing.T, out string) map[string]string {
+	t.Helper()
+	data, err := os.ReadFile(filepath.Join(out, build.ManifestName))
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := build.ParseManifest(data)
+	if err != nil {
+		t.Fatal(err)
+	}
+	hashes := map[string]string{}
+	for _, pg := range m.Pages {
+		hashes[pg.Path] = pg.SHA256
+	}
+	return hashes
+}
+
+// An edit of one sheet changes that sheet's page, the pages of the sheets
+// that take from it and the package pages, and no other page: each sheet's
+// page states the stamp of what it rests on, not the package stamp.
+func TestAnEditChangesOnlyThePagesItTouches(t *testing.T) {
+	for _, c := range []struct {
+		file, old, new string
+		changes        []string
+	}{
+		{"coil.md", "N = 120", "N = 140", []string{"sheets/coil.html", "sheets/emf.html"}},
+		{"emf.md", "2.4 MA/Wb", "2.6 MA/Wb", []string{"sheets/emf.html"}},
+		{"gap.md", "2 mm", "2.5 mm", []string{"sheets/gap.html"}},
+	} {
+		t.Run(c.file, func(t *testing.T) {
+			src := sources(t, takingSheets)
+			before := pageHashes(t, built(t, src, ""))
+			write(t, filepath.Join(src, c.file), strings.Replace(takingSheets[c.file], c.old, c.new, 1))
+			after := pageHashes(t, built(t, src, ""))
+			if len(before) != len(after) {
+				t.Fatalf("%d pages before the edit, %d after", len(before), len(after))
+			}
+			for p, h := range before {
+				sheet := strings.HasPrefix(p, "sheets/")
+				want := !sheet
+				for _, ch := range c.changes {
+					want = want || p == ch
+				}
+				if (after[p] != h) != want {
+					t.Errorf("%s changed: %v, want %v", p, after[p] != h, want)
+				}
+			}
+		})
+	}
+}
+
+// A page must state its own stamp: a sheet's page that states the package
+// stamp, or a package page that states a sheet's, does not verify, even
+// with the manifest's hash made to fit.
+func TestEachPageStatesItsOwnStamp(t *testing.T) {
+	src := sources(t, takingSheets)
+	for _, c := range []struct{ page, from, msg string }{
+		{"sheets/emf.html", "sheets/gap.html", "the sources this sheet rests on give"},
+		{"index.html", "sheets/coil.html", "the package's is"},
+	} {
+		t.Run(c.page, func(t *testing.T) {
+			out := built(t, src, "")
+			stampIn := func(p string) string {
+				data, err := os.ReadFile(filepath.Join(out, filepath.FromSlash(p)))
+				if err != nil {
+					t.Fatal(err)
+				}
+				return string(stampMeta.FindSubmatch(data)[1])
+			}
+			own, other := stampIn(c.page), stampIn(c.from)
+			if own == other {
+				t.Fatalf("%s and %s state the same stamp %s", c.page, c.from, own)
+			}
+			data, _ := os.ReadFile(filepath.Join(out, filepath.FromSlash(c.page)))
+			forged := strings.ReplaceAll(string(data), own, other)
+			write(t, filepath.Join(out, filepath.FromSlash(c.page)), forged)
+			sum := sha256.Sum256([]byte(forged))
+			editManifest(t, out, func(m *build.Manifest) {
+				for i := range m.Pages {
+					if m.Pages[i].Path == c.page {
+						m.Pages[i].SHA256 = hex.EncodeToString(sum[:])
+					}
+				}
+			})
+			mustFail(t, out, src, c.page, c.msg)
+		})
+	}
+}

@@ -7,6 +7,9 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/sheaf-calc/sheaf/internal/version"
+	"github.com/sheaf-calc/sheaf/project"
 )
 
 const demo = "../../examples/tarnwick-weir"
@@ -254,6 +257,8 @@ func TestVerify(t *testing.T) {
 	}
 }
 
+// The package pages carry the package stamp; each sheet's page carries the
+// stamp of the sources it rests on (see project.Package.RestsOn).
 func TestEveryPageCarriesTheStampAndTheSourceDate(t *testing.T) {
 	out := t.TempDir()
 	t.Setenv("SOURCE_DATE_EPOCH", "")
@@ -275,9 +280,28 @@ func TestEveryPageCarriesTheStampAndTheSourceDate(t *testing.T) {
 	if manifest.BuildDate != "2026-11-30" {
 		t.Errorf("build date %q, want the sources' latest date 2026-11-30", manifest.BuildDate)
 	}
+	pkg, err := project.Load(demo)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := map[string]string{}
+	for _, s := range pkg.Sheets {
+		want[s.Page] = pkg.SheetStamp(s, version.Version)
+	}
 	for name, page := range readTree(t, out) {
-		if strings.HasSuffix(name, ".html") && !bytes.Contains(page, []byte(manifest.Stamp)) {
-			t.Errorf("%s does not carry the stamp", name)
+		if !strings.HasSuffix(name, ".html") {
+			continue
+		}
+		stamp, sheet := want[name]
+		if !sheet {
+			stamp = manifest.Stamp
+		}
+		meta := `<meta name="sheaf-stamp" content="` + stamp + `">`
+		if !bytes.Contains(page, []byte(meta)) || !bytes.Contains(page, []byte("<code>"+stamp+"</code>")) {
+			t.Errorf("%s does not carry its stamp %s (sheet page: %v)", name, stamp, sheet)
+		}
+		if sheet && bytes.Contains(page, []byte(manifest.Stamp)) {
+			t.Errorf("%s carries the package stamp", name)
 		}
 	}
 	// SOURCE_DATE_EPOCH wins over the sources.
