@@ -69,7 +69,7 @@ func TestFixedCheckShownApart(t *testing.T) {
 			t.Errorf("the sheet page lacks %q", want)
 		}
 	}
-	if !strings.Contains(sheet, ">FIXED \u00a0r_f == r_g</text>") {
+	if !strings.Contains(sheet, ">fixed \u00a0r_f == r_g</text>") {
 		t.Errorf("the dependency graph does not mark the fixed check")
 	}
 	if !strings.Contains(index, "4 checks</strong>: 3 pass, 0 fail, 1 fixed (not counted)") {

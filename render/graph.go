@@ -31,18 +31,21 @@ type nodeStyle struct {
 	dashed       bool
 }
 
+// styleOf draws a node in the pages' own colours (render/style.go): a
+// check that holds in blue-black, one not met and an error in vermilion,
+// an input on the band colour.
 func styleOf(st *engine.Statement, r engine.Result) nodeStyle {
 	switch {
 	case r.Status == engine.Errored || r.Status == engine.Blocked:
-		return nodeStyle{fill: "#fbe9e7", stroke: "#9b1c1c", dashed: true}
+		return nodeStyle{fill: "#fdecea", stroke: "#b3261e", dashed: true}
 	case st.Kind == engine.Check && r.Status == engine.Pass:
-		return nodeStyle{fill: "#e6f2ea", stroke: "#1f6f43", hexagon: true}
+		return nodeStyle{fill: "#eceffa", stroke: "#23306e", hexagon: true}
 	case st.Kind == engine.Check:
-		return nodeStyle{fill: "#fbe9e7", stroke: "#9b1c1c", hexagon: true}
+		return nodeStyle{fill: "#fdecea", stroke: "#b3261e", hexagon: true}
 	case st.IsInput():
-		return nodeStyle{fill: "#eef3f5", stroke: "#24505f"}
+		return nodeStyle{fill: "#f4efe3", stroke: "#1b1d2a"}
 	}
-	return nodeStyle{fill: "#ffffff", stroke: "#5d6870"}
+	return nodeStyle{fill: "#fffdf8", stroke: "#5e5a52"}
 }
 
 // depGraph is a sheet's dependency graph ready to lay out: one node per
@@ -78,8 +81,8 @@ func newDepGraph(s *project.Sheet, digits int) *depGraph {
 		sty := styleOf(st, r)
 		if fixed, _ := s.Fixed(st); fixed {
 			// Neither a pass nor a failure: the colours of a hold point.
-			label = "FIXED  " + st.Formula
-			sty = nodeStyle{fill: "#fdf3dc", stroke: "#8a5a00", hexagon: true, dashed: true}
+			label = "fixed  " + st.Formula
+			sty = nodeStyle{fill: "#fbf3df", stroke: "#7a5200", hexagon: true, dashed: true}
 		}
 		w := textWidth(label) + 2*graphPadX
 		if sty.hexagon {
@@ -220,9 +223,9 @@ func graphLabel(st *engine.Statement, r engine.Result, digits int) string {
 		}
 		return SymbolText(st.Name) + " = " + ValueText(r.Value, r.Shown, digits)
 	case engine.Pass:
-		return "PASS  " + st.Formula
+		return "holds  " + st.Formula
 	case engine.Fail:
-		return "FAIL  " + st.Formula
+		return "not met  " + st.Formula
 	}
 	if st.Kind == engine.Check {
 		return "check (error)"

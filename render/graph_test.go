@@ -129,8 +129,8 @@ func TestGraphShowsStatusTemplatesAndLinks(t *testing.T) {
 	}
 	page := pages[s.Page]
 	svg := page[strings.Index(page, "<svg") : strings.Index(page, "</svg>")+len("</svg>")]
-	want := map[engine.Status]string{engine.OK: "", engine.Pass: `fill="#e6f2ea" stroke="#1f6f43"`,
-		engine.Fail: `fill="#fbe9e7" stroke="#9b1c1c" points=`, engine.Errored: `stroke-dasharray="4,2"`, engine.Blocked: `stroke-dasharray="4,2"`}
+	want := map[engine.Status]string{engine.OK: "", engine.Pass: `fill="#eceffa" stroke="#23306e"`,
+		engine.Fail: `fill="#fdecea" stroke="#b3261e" points=`, engine.Errored: `stroke-dasharray="4,2"`, engine.Blocked: `stroke-dasharray="4,2"`}
 	seen := map[engine.Status]bool{}
 	for _, st := range s.Calc.Statements {
 		if st.Kind == engine.Use {
@@ -146,7 +146,7 @@ func TestGraphShowsStatusTemplatesAndLinks(t *testing.T) {
 		if w := want[r.Status]; w != "" && !strings.Contains(line, w) {
 			t.Errorf("node of %s (%v) lacks %s: %s", st.Text, r.Status, w, line)
 		}
-		if st.IsInput() && r.Status == engine.OK && st.Instance == "" && !strings.Contains(line, `fill="#eef3f5"`) {
+		if st.IsInput() && r.Status == engine.OK && st.Instance == "" && !strings.Contains(line, `fill="#f4efe3"`) {
 			t.Errorf("input %s is not drawn as an input: %s", st.Text, line)
 		}
 	}
@@ -158,7 +158,7 @@ func TestGraphShowsStatusTemplatesAndLinks(t *testing.T) {
 	if !strings.Contains(svg, `<g class="cluster">`) || !strings.Contains(svg, ">c1 (template)</text>") {
 		t.Error("the template instance c1 is not boxed and named")
 	}
-	if !strings.Contains(svg, "FAIL \u00a0L &lt; 0.1 Wb") || strings.Contains(svg, "L < 0.1") {
+	if !strings.Contains(svg, "not met \u00a0L &lt; 0.1 Wb") || strings.Contains(svg, "L < 0.1") {
 		t.Error("the failing check's text is not escaped")
 	}
 }
