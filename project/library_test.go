@@ -32,6 +32,7 @@ const libraryRelTol = 5e-3
 var libraryTemplates = []string{
 	"coil-emf", "dc-machine", "flux-linkage", "insulation-margin",
 	"magnetic-circuit", "magnetic-circuit-saturating", "motor-back-emf", "speed-voltage",
+	"transformer-core",
 }
 
 // rpm is one revolution per minute in SI (revolutions per second).
@@ -210,6 +211,24 @@ var libraryExamples = []libraryExample{
 			{"p2.dT_hs", "hot-spot allowance of class 180", 15, "IEC 60034-1 rise limit by resistance 125 K at 40 °C for class 180 (from memory)"},
 			{"s1.dT_hs", "hot-spot allowance of class 120", 5, "IEC 60034-1 rise limit by resistance 75 K at 40 °C for class 120 (from memory)"},
 			{"p1.EF", "PD enhancement factor", 1.5625, "IEC TS 60034-18-41, ageing 1.25 times temperature 1.25 (from memory)"},
+		},
+	},
+	{
+		// Theraja, Vol. II, multicolour ed., transformer chapter, Example
+		// 32.4 (from memory; the number may differ): 100 kVA, 11 000/550 V,
+		// 50 Hz, core-type, core 20 cm × 20 cm, stacking factor 0.9,
+		// 1.3 T. The book uses 4.44, the template √2·π (0.065 % apart),
+		// and the book truncates 1058.7 turns to 1058 where the template
+		// rounds up to 1059 (0.09 %).
+		file:      "theraja2-transformer-core.md",
+		templates: []string{"transformer-core"},
+		source:    "B. L. & A. K. Theraja, A Textbook of Electrical Technology, Vol. II, multicolour ed., Example 32.4 (from memory; number may differ)",
+		cite:      []string{"Theraja", "Vol. II", "Example 32.4"},
+		want: []libraryWant{
+			{"hv.A_net", "net core area", 0.036, ""}, // book: 0.9 × 400 cm² = 360 cm²
+			{"hv.E_t", "EMF per turn", 10.39, ""},    // book: Et = 4.44 × 50 × 1.3 × 0.036 = 10.39 V
+			{"hv.N", "high-voltage turns", 1058, ""}, // book: N1 = 11 000/10.39 = 1058
+			{"lv.N", "low-voltage turns", 53, ""},    // book: N2 = 550/10.39 = 53
 		},
 	},
 }

@@ -1,0 +1,171 @@
+package project_test
+
+import (
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/sheaf-calc/sheaf/engine"
+	"github.com/sheaf-calc/sheaf/project"
+	"github.com/sheaf-calc/sheaf/sheets"
+)
+
+// Issue 13, item 4: the templates a consultant needs. Their published
+// examples are in libraryExamples; this file holds the parts with no
+// published example, worked again in Go, the checks made to fail, and the
+// starter of every template built.
+
+// TestLibraryStartersBuild copies every template as `sheaf templates copy`
+// does and builds the starter: every statement evaluates, every check
+// passes with the template's example values.
+func TestLibraryStartersBuild(t *testing.T) {
+	for _, name := range sheets.LibraryNames() {
+		t.Run(name, func(t *testing.T) {
+			dir := filepath.Join(t.TempDir(), "job")
+			if _, _, err := project.CopyTemplate(name, dir); err != nil {
+				t.Fatal(err)
+			}
+			_, byPath := loadTestPackage(t, dir)
+			s := byPath[name+".md"]
+			if s == nil {
+				t.Fatalf("no starter sheet %s.md", name)
+			}
+			allPass(t, s)
+			checks := 0
+			for _, st := range s.Calc.Statements {
+				if st.Kind == engine.Check {
+					checks++
+				}
+			}
+			t.Logf("starter of lib/%s: %d checks pass", name, checks)
+		})
+	}
+}
+
+// checkStatus builds a one-sheet package and returns the status of each
+// check of an instance, by its formula.
+func checkStatus(t *testing.T, src string) map[string]engine.Status {
+	t.Helper()
+	pkg := build(t, map[string]string{"job.md": src})
+	for _, d := range pkg.Diags {
+		t.Fatalf("diagnostic: %v", d)
+	}
+	got := map[string]engine.Status{}
+	s := sheet(t, pkg, "job.md")
+	for _, st := range s.Calc.Statements {
+		if st.Kind == engine.Check {
+			got[st.Formula] = s.Calc.Result(st).Status
+		}
+	}
+	return got
+}
+
+// starterWith returns the starter sheet of a template with some example
+// values replaced (name → formula).
+func starterWith(t *testing.T, name string, set map[string]string) string {
+	t.Helper()
+	dir := filepath.Join(t.TempDir(), "job")
+	_, sheetPath, err := project.CopyTemplate(name, dir)
+	if err != nil {
+		t.Fatal(err)
+	}
+	data, err := os.ReadFile(sheetPath)
+	if err != nil {
+		t.Fatal(err)
+	}
+	src := strings.ReplaceAll(string(data), "_templates/"+name, "lib/"+name)
+	lines := strings.Split(src, "\n")
+	for k, v := range set {
+		found := false
+		for i, l := range lines {
+			if strings.HasPrefix(l, k+" = ") {
+				rest := l[len(k+" = "):]
+				tail := ""
+				if j := strings.Index(rest, " ;"); j >= 0 {
+					tail = rest[j:]
+				}
+				lines[i] = k + " = " + v + tail
+				found = true
+			}
+		}
+		if !found {
+			t.Fatalf("starter of %s sets no %s", name, k)
+		}
+	}
+	return strings.Join(lines, "\n")
+}
+
+// wantFail asserts that exactly the named checks fail and the rest pass.
+func wantFail(t *testing.T, got map[string]engine.Status, failing ...string) {
+	t.Helper()
+	if len(got) == 0 {
+		t.Fatal("no checks")
+	}
+	for f, st := range got {
+		want := engine.Pass
+		for _, w := range failing {
+			if f == w {
+				want = engine.Fail
+			}
+		}
+		if st != want {
+			t.Errorf("check %s: %v, want %v", f, st, want)
+		}
+	}
+	for _, w := range failing {
+		if _, ok := got[w]; !ok {
+			t.Errorf("no check %s", w)
+		}
+	}
+}
+
+// The transformer-core checks fail where a design breaks them.
+func TestTransformerCoreChecksCanFail(t *testing.T) {
+	// 1.75 T designed, 1.1 p.u. V/Hz gives 1.925 T, above a 1.9 T knee;
+	// the loss rises as B² too, to 1.70 kW, above 1.6 kW.
+	wantFail(t, checkStatus(t, starterWith(t, "transformer-core", map[string]string{"B_max": "1.75 T"})),
+		"B_over <= B_knee", "P_0 <= P_0_max")
+	// A poorer steel: 1.3 W/kg at 1.5 T gives 2.46 kW, above 1.6 kW.
+	wantFail(t, checkStatus(t, starterWith(t, "transformer-core", map[string]string{"p_ref": "1.3 W/kg"})),
+		"P_0 <= P_0_max")
+	// 5 VA/kg with k_bVA 1.5 on 1450 kg is 10.9 kVA, 1.09 % of 1 MVA.
+	wantFail(t, checkStatus(t, starterWith(t, "transformer-core", map[string]string{"s_VA": "5 VA/kg"})),
+		"i_m <= i_m_max")
+}
+
+// TestTransformerCoreIndependent works the Theraja sheet's loss and
+// magnetising parts, which have no published example (invented steel
+// data), and the turns and flux density, in Go.
+func TestTransformerCoreIndependent(t *testing.T) {
+	_, byPath := loadLibrary(t)
+	s := byPath["theraja2-transformer-core.md"]
+	const tight = 1e-9
+	aNet := 0.9 * 0.2 * 0.2
+	for _, w := range []struct {
+		inst      string
+		v, fRef   float64
+		wantTurns float64
+	}{{"hv", 11000, 50, 1059}, {"lv", 550, 60, 53}} {
+		et := math.Sqrt2 * math.Pi * 50 * 1.3 * aNet
+		n := math.Ceil(w.v / et)
+		closeTo(t, w.inst+".N", libraryValue(t, s, w.inst+".N"), w.wantTurns, 0)
+		closeTo(t, w.inst+".N against ceil", n, w.wantTurns, 0)
+		b := w.v / (math.Sqrt2 * math.Pi * 50 * n * aNet)
+		closeTo(t, w.inst+".B", libraryValue(t, s, w.inst+".B"), b, tight)
+		if b > 1.3 {
+			t.Errorf("%s: B = %g above the design 1.3 T", w.inst, b)
+		}
+		closeTo(t, w.inst+".B_over", libraryValue(t, s, w.inst+".B_over"), 1.1*b, tight)
+		p := 1.1 * math.Pow(50/w.fRef, 1.3) * math.Pow(b/1.5, 2)
+		closeTo(t, w.inst+".p", libraryValue(t, s, w.inst+".p"), p, tight)
+		closeTo(t, w.inst+".P_0", libraryValue(t, s, w.inst+".P_0"), 1.2*p*300, tight)
+		s0 := 1.6 * 0.9 * 300
+		closeTo(t, w.inst+".S_0", libraryValue(t, s, w.inst+".S_0"), s0, tight)
+		closeTo(t, w.inst+".I_m", libraryValue(t, s, w.inst+".I_m"), s0/w.v, tight)
+		closeTo(t, w.inst+".i_m", libraryValue(t, s, w.inst+".i_m"), s0/100e3, tight)
+	}
+	// By hand: 1.2 × 1.1 × (1.2995/1.5)² × 300 kg ≈ 297 W for the HV instance.
+	closeTo(t, "hv.P_0 by hand", libraryValue(t, s, "hv.P_0"), 296.9, 5e-4)
+}
