@@ -169,3 +169,66 @@ func TestTransformerCoreIndependent(t *testing.T) {
 	// By hand: 1.2 × 1.1 × (1.2995/1.5)² × 300 kg ≈ 297 W for the HV instance.
 	closeTo(t, "hv.P_0 by hand", libraryValue(t, s, "hv.P_0"), 296.9, 5e-4)
 }
+
+// The pm-machine-constants checks fail where a machine breaks them.
+func TestPMMachineConstantsChecksCanFail(t *testing.T) {
+	// A data-sheet K_T 15 % below √3·k_e (saturation, or a wrong form).
+	wantFail(t, checkStatus(t, starterWith(t, "pm-machine-constants", map[string]string{"K_T_ds": "1.22 N*m/A"})),
+		"abs(x_K) <= tol_K")
+	// 150 A peak in the −d axis: 3207 A per pole drives a 3 mm magnet at
+	// 120 °C to about −0.20 T, below the 0.1 T knee.
+	wantFail(t, checkStatus(t, starterWith(t, "pm-machine-constants", map[string]string{"I_pk": "150 A"})),
+		"B_m_worst >= B_knee")
+	// A 2 mm magnet gives 12 % less EMF than the data sheet's 87 V/krpm.
+	wantFail(t, checkStatus(t, starterWith(t, "pm-machine-constants", map[string]string{"l_m": "2 mm"})),
+		"abs(x_E) <= tol_K")
+}
+
+// TestPMMachineConstantsIndependent works the servo sheet again in Go. No
+// published worked example was recalled; the data are invented.
+func TestPMMachineConstantsIndependent(t *testing.T) {
+	_, byPath := loadLibrary(t)
+	s := byPath["pm-servo-constants.md"]
+	allPass(t, s)
+	const tight, mu0 = 1e-9, 4e-7 * math.Pi
+	krpm := 2 * math.Pi * 1000.0 / 60 // rad/s
+	keLL := 90 / krpm                 // V·s/rad, RMS line
+	v := func(name string) float64 { return libraryValue(t, s, "m1."+name) }
+	closeTo(t, "k_e_LL", v("k_e_LL"), keLL, tight)
+	closeTo(t, "k_e_LL_pk", v("k_e_LL_pk"), math.Sqrt2*keLL, tight)
+	closeTo(t, "k_e_ph", v("k_e_ph"), keLL/math.Sqrt(3), tight)
+	kePhPk := math.Sqrt2 * keLL / math.Sqrt(3)
+	closeTo(t, "k_e_ph_pk", v("k_e_ph_pk"), kePhPk, tight)
+	closeTo(t, "psi_m", v("psi_m"), kePhPk/4, tight)
+	// Power balance, three phases, i_d = 0: T = 3·E_ph·I/ω (Hendershot &
+	// Miller, 2010 ed., from memory).
+	kt := 3 * (keLL / math.Sqrt(3))
+	closeTo(t, "K_T", v("K_T"), kt, tight)
+	closeTo(t, "K_T_pk", v("K_T_pk"), 1.5*kePhPk, tight)
+	// Data-sheet rule K_T ≈ 0.01654·K_E[V/krpm] (common practice, from
+	// memory): 0.01654 is √3·60/(2π·1000) rounded.
+	closeTo(t, "K_T against 0.01654 × 90", v("K_T"), 0.01654*90, 5e-4)
+	closeTo(t, "x_K", v("x_K"), 1.45/kt-1, tight)
+
+	pc := 3.0 * 1.1 / (1.1 * 1.0 * 1)
+	closeTo(t, "P_c", v("P_c"), pc, tight)
+	brHot := 1.25 * (1 - 0.0011*130)
+	closeTo(t, "B_r_hot", v("B_r_hot"), brHot, tight)
+	bm20 := 1.25 * pc / (pc + 1.05)
+	closeTo(t, "B_m20", v("B_m20"), bm20, tight)
+	bg1 := 4 / math.Pi * bm20 / 1.1 * math.Sin(0.8*math.Pi/2)
+	phi1 := 2 / math.Pi * bg1 * math.Pi * 0.09 / 8 * 0.08
+	keCalc := 4 * 0.945 * 100 * phi1
+	closeTo(t, "k_e_calc", v("k_e_calc"), keCalc, tight)
+	closeTo(t, "x_E", v("x_E"), keCalc/kePhPk-1, tight)
+	fd := 3 / math.Pi * 0.945 * 100 * 45 / 4
+	closeTo(t, "F_d", v("F_d"), fd, tight)
+	// sheaf's mu_0 (CODATA 2018) differs from 4π·10⁻⁷ by about 1e-10.
+	bw := (brHot - mu0*1.05*fd/0.003) * pc / (pc + 1.05)
+	closeTo(t, "B_m_worst", v("B_m_worst"), bw, 1e-8)
+	closeTo(t, "H_m_worst", v("H_m_worst"), (bw-brHot)/(mu0*1.05), 1e-8)
+	// The load line itself: B_m = B_r + μ0·μ_rec·H_m, and Ampère round one
+	// pole, H_m·l_m + k_r·g·B_g/μ0 = −F_d, with B_g = B_m·A_m/(k_l·A_g).
+	hm := v("H_m_worst")
+	closeTo(t, "Ampère round the pole", hm*0.003+1.1*0.001*(v("B_m_worst")/1.1)/mu0, -fd, 1e-7)
+}
