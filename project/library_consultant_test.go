@@ -179,7 +179,7 @@ func TestPMMachineConstantsChecksCanFail(t *testing.T) {
 	// 120 °C to about −0.20 T, below the 0.1 T knee.
 	wantFail(t, checkStatus(t, starterWith(t, "pm-machine-constants", map[string]string{"I_pk": "150 A"})),
 		"B_m_worst >= B_knee")
-	// A 2 mm magnet gives 12 % less EMF than the data sheet's 87 V/krpm.
+	// A 2 mm magnet gives 12 % less EMF than the data sheet's 88 V/krpm.
 	wantFail(t, checkStatus(t, starterWith(t, "pm-machine-constants", map[string]string{"l_m": "2 mm"})),
 		"abs(x_E) <= tol_K")
 }
