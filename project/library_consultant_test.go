@@ -232,3 +232,52 @@ func TestPMMachineConstantsIndependent(t *testing.T) {
 	hm := v("H_m_worst")
 	closeTo(t, "Ampère round the pole", hm*0.003+1.1*0.001*(v("B_m_worst")/1.1)/mu0, -fd, 1e-7)
 }
+
+// The synchronous-generator-load checks fail where a load breaks them.
+func TestSynchronousGeneratorChecksCanFail(t *testing.T) {
+	// 1.8 p.u. reactance needs 15.5 kV and 38.5°: above the field's limit.
+	wantFail(t, checkStatus(t, starterWith(t, "synchronous-generator-load", map[string]string{"X_s": "43.6 ohm"})),
+		"E_f <= E_max")
+	// A leading load asks little field but a large angle.
+	wantFail(t, checkStatus(t, starterWith(t, "synchronous-generator-load", map[string]string{"phi": "-31.79 deg"})),
+		"delta <= delta_max")
+}
+
+// TestSynchronousGeneratorIndependent works E = V + I·(R + jX) in Go's
+// complex numbers for the starter's machine and the Chapman sheet.
+func TestSynchronousGeneratorIndependent(t *testing.T) {
+	const tight = 1e-9
+	phasorE := func(v, i, phiDeg, r, x float64) complex128 {
+		phi := phiDeg * math.Pi / 180
+		return complex(v, 0) + complex(i*math.Cos(-phi), i*math.Sin(-phi))*complex(r, x)
+	}
+	dir := filepath.Join(t.TempDir(), "job")
+	if _, _, err := project.CopyTemplate("synchronous-generator-load", dir); err != nil {
+		t.Fatal(err)
+	}
+	_, starter := loadTestPackage(t, dir)
+	s := starter["synchronous-generator-load.md"]
+	e := phasorE(6350, 262, 31.79, 0.145, 36.3)
+	absE := math.Hypot(real(e), imag(e))
+	closeTo(t, "starter E_f", libraryValue(t, s, "calc.E_f"), absE, tight)
+	closeTo(t, "starter delta", libraryValue(t, s, "calc.delta"), math.Atan2(imag(e), real(e)), tight)
+	closeTo(t, "starter reg", libraryValue(t, s, "calc.reg"), absE/6350-1, tight)
+	closeTo(t, "starter P_delta", libraryValue(t, s, "calc.P_delta"), 6350*absE*math.Sin(math.Atan2(imag(e), real(e)))/36.3, tight)
+	// By hand: 6350 + 262∠−31.79° × (0.145 + j36.3) ≈ 11 391 + j8064 V.
+	closeTo(t, "starter E_f by hand", libraryValue(t, s, "calc.E_f"), 13957, 5e-4)
+
+	_, byPath := loadLibrary(t)
+	c := byPath["chapman4-synchronous-generator.md"]
+	e0 := 480 / math.Sqrt(3)
+	phi := math.Acos(0.8) * 180 / math.Pi
+	for _, w := range []struct {
+		inst, v string
+		phi     float64
+	}{{"lag", "V_lag", phi}, {"one", "V_one", 0}, {"lead", "V_lead", -phi}} {
+		// |V + jX·I∠−φ| = E_0 with R = 0: (V + X·I·sin φ)² + (X·I·cos φ)² = E_0².
+		p := w.phi * math.Pi / 180
+		v := math.Sqrt(e0*e0-math.Pow(60*math.Cos(p), 2)) - 60*math.Sin(p)
+		closeTo(t, w.v, libraryValue(t, c, w.v), v, 1e-9)
+		closeTo(t, w.inst+".reg", libraryValue(t, c, w.inst+".reg"), e0/v-1, 1e-9)
+	}
+}

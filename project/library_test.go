@@ -32,7 +32,7 @@ const libraryRelTol = 5e-3
 var libraryTemplates = []string{
 	"coil-emf", "dc-machine", "flux-linkage", "insulation-margin",
 	"magnetic-circuit", "magnetic-circuit-saturating", "motor-back-emf", "pm-machine-constants",
-	"speed-voltage", "transformer-core",
+	"speed-voltage", "synchronous-generator-load", "transformer-core",
 }
 
 // rpm is one revolution per minute in SI (revolutions per second).
@@ -229,6 +229,27 @@ var libraryExamples = []libraryExample{
 			{"hv.E_t", "EMF per turn", 10.39, ""},    // book: Et = 4.44 × 50 × 1.3 × 0.036 = 10.39 V
 			{"hv.N", "high-voltage turns", 1058, ""}, // book: N1 = 11 000/10.39 = 1058
 			{"lv.N", "low-voltage turns", 53, ""},    // book: N2 = 550/10.39 = 53
+		},
+	},
+	{
+		// Chapman, Electric Machinery Fundamentals, 4th ed., Example 4-2
+		// (from memory): 480 V, delta, X_s = 0.1 Ω, R_a = 0.015 Ω,
+		// 1200 A at 0.8 lagging; Example 4-3 (from memory): 480 V, star,
+		// X_s = 1.0 Ω, 60 A, field set for 480 V on no load. The book's
+		// regulations (17.1 %, 2.6 %, −10.4 %) rest on its rounded
+		// terminal voltages and differ from the exact ones by up to 7 %
+		// of their value: TestSynchronousGeneratorIndependent checks the
+		// regulation in Go instead.
+		file:      "chapman4-synchronous-generator.md",
+		templates: []string{"synchronous-generator-load"},
+		source:    "Chapman, Electric Machinery Fundamentals, 4th ed., Examples 4-2 and 4-3 (from memory)",
+		cite:      []string{"Chapman", "4th ed.", "4-2", "4-3"},
+		want: []libraryWant{
+			{"ex2.E_f", "internal generated voltage", 532, "Chapman 4th ed., Ex. 4-2 (from memory)"},           // book: E_A = 532∠5.3° V
+			{"ex2.delta", "load angle", 5.3 * math.Pi / 180, "Chapman 4th ed., Ex. 4-2 (from memory)"},         // book: E_A = 532∠5.3° V
+			{"V_T_lag", "terminal voltage, 0.8 lagging", 410, "Chapman 4th ed., Ex. 4-3 (from memory)"},        // book: V_T = 410 V
+			{"V_T_one", "terminal voltage, unity power factor", 468, "Chapman 4th ed., Ex. 4-3 (from memory)"}, // book: V_T = 468 V
+			{"V_T_lead", "terminal voltage, 0.8 leading", 535, "Chapman 4th ed., Ex. 4-3 (from memory)"},       // book: V_T = 535 V
 		},
 	},
 }
