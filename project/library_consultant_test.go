@@ -4,6 +4,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -280,4 +281,85 @@ func TestSynchronousGeneratorIndependent(t *testing.T) {
 		closeTo(t, w.v, libraryValue(t, c, w.v), v, 1e-9)
 		closeTo(t, w.inst+".reg", libraryValue(t, c, w.inst+".reg"), e0/v-1, 1e-9)
 	}
+}
+
+// The ac-winding-rules checks fail for windings that cannot be built
+// balanced.
+func TestACWindingRulesChecksCanFail(t *testing.T) {
+	// Ten poles in three parallel paths (issue 13, the hydro demo's
+	// finding): 90 slots, t = 5, Q/t = 18 even, a_max = 10; 3 does not
+	// divide it.
+	wantFail(t, checkStatus(t, starterWith(t, "ac-winding-rules", map[string]string{"Q": "90", "p": "5", "y": "8", "a": "3"})),
+		"whole(a_max / a) == 1")
+	// The same machine in five or two paths is balanced.
+	wantFail(t, checkStatus(t, starterWith(t, "ac-winding-rules", map[string]string{"Q": "90", "p": "5", "y": "8", "a": "5"})))
+	// q = 30/18 = 5/3: its denominator is a multiple of m, t = 3, and
+	// Q/(m·t) = 10/3 is no whole number: unsymmetrical (Pyrhönen et al.,
+	// 2nd ed., ch. 2, from memory).
+	wantFail(t, checkStatus(t, starterWith(t, "ac-winding-rules", map[string]string{"Q": "30", "p": "3", "y": "4", "a": "1"})),
+		"S_m * S_t == 1")
+}
+
+// TestACWindingRulesIndependent works the fractional-slot instance and the
+// harmonic lists in Go: gcd by Euclid, factors by their formulas.
+func TestACWindingRulesIndependent(t *testing.T) {
+	_, byPath := loadLibrary(t)
+	s := byPath["winding-factor-examples.md"]
+	gcd := func(a, b int) int {
+		for b != 0 {
+			a, b = b, a%b
+		}
+		return a
+	}
+	const tight = 1e-12
+	for _, w := range []struct {
+		inst    string
+		q, p, y int
+		nu      []float64
+	}{
+		{"th", 36, 2, 7, []float64{1, 5, 7, 11, 13}},
+		{"ch", 12, 1, 5, []float64{1, 3, 5, 7}},
+		{"fr", 27, 2, 6, []float64{1, 5, 7, 11, 13}},
+	} {
+		tt := gcd(w.q, w.p)
+		closeTo(t, w.inst+".t", libraryValue(t, s, w.inst+".t"), float64(tt), 0)
+		z := w.q / gcd(w.q, 6*w.p)
+		closeTo(t, w.inst+".z", libraryValue(t, s, w.inst+".z"), float64(z), 0)
+		amax := tt
+		if (w.q/tt)%2 == 0 {
+			amax = 2 * tt
+		}
+		closeTo(t, w.inst+".a_max", libraryValue(t, s, w.inst+".a_max"), float64(amax), 0)
+		tau := float64(w.q) / float64(2*w.p)
+		kw := make([]float64, len(w.nu))
+		for k, v := range w.nu {
+			kd := math.Sin(v*math.Pi/6) / (float64(z) * math.Sin(v*math.Pi/(6*float64(z))))
+			kp := math.Sin(v * float64(w.y) / tau * math.Pi / 2)
+			kw[k] = kd * kp
+		}
+		got := listValues(t, s, w.inst+".k_ws")
+		if len(got) != len(kw) {
+			t.Fatalf("%s.k_ws has %d values, want %d", w.inst, len(got), len(kw))
+		}
+		for k := range kw {
+			closeTo(t, w.inst+".k_ws["+strconv.Itoa(k+1)+"]", got[k], kw[k], tight)
+		}
+	}
+	// q = 9/4: z = 9, k_d1 = sin 30° / (9 sin(30°/9)) ≈ 0.9555, by hand.
+	closeTo(t, "fr k_d1 by hand", libraryValue(t, s, "fr.k_w1")/math.Sin(6.0/6.75*math.Pi/2), 0.9555, 1e-4)
+}
+
+// listValues returns the SI values of a list result that must have
+// evaluated.
+func listValues(t *testing.T, s *project.Sheet, name string) []float64 {
+	t.Helper()
+	st := s.Calc.Lookup(name)
+	if st == nil {
+		t.Fatalf("%s: no result named %s", s.Path(), name)
+	}
+	r := s.Calc.Result(st)
+	if r.Status != engine.OK || r.List == nil {
+		t.Fatalf("%s: %s is no evaluated list: %v %v", s.Path(), name, r.Status, r.Err)
+	}
+	return r.List
 }

@@ -30,7 +30,7 @@ const libraryRelTol = 5e-3
 
 // libraryTemplates are the templates the library must hold.
 var libraryTemplates = []string{
-	"coil-emf", "dc-machine", "flux-linkage", "insulation-margin",
+	"ac-winding-rules", "coil-emf", "dc-machine", "flux-linkage", "insulation-margin",
 	"magnetic-circuit", "magnetic-circuit-saturating", "motor-back-emf", "pm-machine-constants",
 	"speed-voltage", "synchronous-generator-load", "transformer-core",
 }
@@ -250,6 +250,24 @@ var libraryExamples = []libraryExample{
 			{"V_T_lag", "terminal voltage, 0.8 lagging", 410, "Chapman 4th ed., Ex. 4-3 (from memory)"},        // book: V_T = 410 V
 			{"V_T_one", "terminal voltage, unity power factor", 468, "Chapman 4th ed., Ex. 4-3 (from memory)"}, // book: V_T = 468 V
 			{"V_T_lead", "terminal voltage, 0.8 leading", 535, "Chapman 4th ed., Ex. 4-3 (from memory)"},       // book: V_T = 535 V
+		},
+	},
+	{
+		// Theraja, Vol. II, multicolour ed., Examples 37.1 and 37.2 (from
+		// memory): 36 slots, 4 poles, span 1 to 8; Chapman, 4th ed.,
+		// Appendix B (from memory; the example's slots may differ): the
+		// pitch factors of a 5/6-pitch coil.
+		file:      "winding-factor-examples.md",
+		templates: []string{"ac-winding-rules"},
+		source:    "Theraja Vol. II, multicolour ed., Examples 37.1, 37.2; Chapman, 4th ed., Appendix B (all from memory)",
+		cite:      []string{"Theraja", "Vol. II", "37.1", "37.2", "Chapman", "4th ed.", "Appendix B"},
+		want: []libraryWant{
+			{"k_d_th", "distribution factor, 36 slots, 4 poles", 0.96, "Theraja Vol. II, Ex. 37.1 (from memory)"}, // book: kd = 0.96
+			{"k_p_th", "pitch factor, span 1 to 8", 0.94, "Theraja Vol. II, Ex. 37.2 (from memory)"},              // book: kp = cos 20° = 0.94
+			{"k_p1", "pitch factor, 5/6 pitch, fundamental", 0.966, "Chapman 4th ed., App. B (from memory)"},      // book: 0.966
+			{"k_p3", "pitch factor, 5/6 pitch, 3rd", -0.707, "Chapman 4th ed., App. B (from memory)"},             // book: −0.707
+			{"k_p5", "pitch factor, 5/6 pitch, 5th", 0.259, "Chapman 4th ed., App. B (from memory)"},              // book: 0.259
+			{"k_p7", "pitch factor, 5/6 pitch, 7th", 0.259, "Chapman 4th ed., App. B (from memory)"},              // book: 0.259
 		},
 	},
 }
