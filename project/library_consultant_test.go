@@ -363,3 +363,20 @@ func listValues(t *testing.T, s *project.Sheet, name string) []float64 {
 	}
 	return r.List
 }
+
+// Rule 4: the new templates that deal with voltages that can hurt carry
+// the cautions and defer to local codes, the standards and licensed
+// practice.
+func TestLibraryNewTemplatesCautions(t *testing.T) {
+	for _, name := range []string{"transformer-core", "pm-machine-constants", "synchronous-generator-load"} {
+		data, ok := sheets.LibrarySource(name)
+		if !ok {
+			t.Fatalf("no template %s", name)
+		}
+		for _, want := range []string{"Safety", "local codes", "applicable standards", "licensed practice", "from memory"} {
+			if !strings.Contains(string(data), want) {
+				t.Errorf("lib/%s does not say %q", name, want)
+			}
+		}
+	}
+}
