@@ -524,6 +524,9 @@ func (p *Program) Results(f *Frame) []Result {
 			if st.Type.IsList() {
 				r.List = slices.Clone(st.listIn(f.Values))
 				r.Value = largest(r.List)
+				if st.Type.IsSeries() {
+					r.Over = slices.Clone(st.axisIn(f.Values))
+				}
 			}
 			if st.Type.IsComplex() {
 				ph := st.phasorIn(f.Values)
@@ -710,6 +713,11 @@ func diagnose(e Expr, v []float64) *diag.Diagnostic {
 	for _, c := range children {
 		if !valueOK(c, v) {
 			return diagnose(c, v)
+		}
+	}
+	if c, ok := e.(*Call); ok && c.Func.explain != nil {
+		if d := c.Func.explain(c, v); d != nil {
+			return d
 		}
 	}
 	if e.Type().IsList() {
