@@ -1,6 +1,7 @@
 package engine_test
 
 import (
+	"fmt"
 	"math"
 	"testing"
 
@@ -67,5 +68,112 @@ func TestSeriesDerivativeOfASine(t *testing.T) {
 	}
 	if worst > 1e-4 {
 		t.Errorf("derivative of Λ·sin θ is off by %.3g of ω·Λ, want within 1e-4", worst)
+	}
+}
+
+// The Fourier series of a square wave of amplitude 1, (4/π)·Σ sin(kθ)/k
+// over odd k, and of a triangular wave of amplitude 1, (8/π²)·Σ
+// (−1)^((k−1)/2)·sin(kθ)/k² over odd k, with no even harmonics
+// (Kreyszig, Advanced Engineering Mathematics, 10th ed., §11.1 and
+// §11.2; from memory), against harmonic and harmonicphase from 1,024
+// samples of one period.
+//
+// N samples cannot give those amplitudes to 1e-6: harmonic k + mN of the
+// wave folds onto harmonic k (aliasing), and the sums of the folded
+// series are closed forms, from the partial fractions π·cot(πx) =
+// Σ 1/(x+m) and π²/sin²(πx) = Σ 1/(x+m)² (Ahlfors, Complex Analysis, 3rd
+// ed., ch. 5, §2.1; from memory): (4/N)·cot(πk/N) for the square wave and
+// 8/(N·sin(πk/N))² for the triangular one. So each is checked against its
+// sampled closed form within 1e-9, and against the Fourier series within
+// what aliasing leaves, 4πk/(3N²) and 8/(3N²) (the first terms of those
+// forms' expansions); the triangle's 2.5e-6 and the square's 4.0e-6·k are
+// beyond 1e-6 at N = 1,024 for any method that reads only the samples.
+func TestHarmonicsOfSquareAndTriangularWaves(t *testing.T) {
+	const N = 1024
+	// sin θ/√(sin²θ + 1e-18) is ±1 within 1e-14 at every sample but the
+	// three at the jumps (0°, 180°, 360°), where it is within 3e-7 of 0,
+	// the mean of the two sides, as the Fourier series gives there.
+	lines := []string{"theta = 0 deg .. 360 deg by 0.3515625 deg", "u_sq = sin(theta) / sqrt(sin(theta)^2 + 1e-18)",
+		"u_tri = 2 / pi * asin(sin(theta))", "sq = series(u_sq, theta)", "tr = series(u_tri, theta)"}
+	for k := 1; k <= 15; k++ {
+		lines = append(lines, fmt.Sprintf("A_%d = harmonic(sq, %d)", k, k), fmt.Sprintf("B_%d = harmonic(tr, %d)", k, k),
+			fmt.Sprintf("phi_%d = harmonicphase(sq, %d)", k, k), fmt.Sprintf("psi_%d = harmonicphase(tr, %d)", k, k))
+	}
+	calc := engine.Compile(sheetOf("w.md", lines...))
+	calc.Evaluate()
+	val := func(n string) float64 {
+		r := calc.Result(calc.Lookup(n))
+		if r.Status != engine.OK {
+			t.Fatalf("%s: %v %v", n, r.Status, r.Err)
+		}
+		return r.Value
+	}
+	near := func(what string, got, want, tol float64) {
+		if math.Abs(got-want) > tol {
+			t.Errorf("%s is %.10f, want %.10f within %.2g (off by %.2g)", what, got, want, tol, got-want)
+		}
+	}
+	for k := 1; k <= 15; k++ {
+		kf := float64(k)
+		A, B := val(fmt.Sprintf("A_%d", k)), val(fmt.Sprintf("B_%d", k))
+		if k%2 == 0 {
+			near(fmt.Sprintf("harmonic %d of the square wave", k), A, 0, 1e-9)
+			near(fmt.Sprintf("harmonic %d of the triangular wave", k), B, 0, 1e-9)
+			continue
+		}
+		x := math.Pi * kf / N
+		near(fmt.Sprintf("harmonic %d of the square wave against its sampled form", k), A, 4.0/N/math.Tan(x), 1e-9)
+		near(fmt.Sprintf("harmonic %d of the triangular wave against its sampled form", k), B, 8/math.Pow(N*math.Sin(x), 2), 1e-9)
+		near(fmt.Sprintf("harmonic %d of the square wave against 4/(πk)", k), A, 4/(math.Pi*kf), 1.01*4*math.Pi*kf/(3*N*N))
+		near(fmt.Sprintf("harmonic %d of the triangular wave against 8/(π²k²)", k), B, 8/(math.Pi*math.Pi*kf*kf), 1.01*8/(3*N*N))
+		// sin(kθ) = cos(kθ − 90°): every odd harmonic of the square wave has
+		// phase −90°; the triangle's alternate, −90° and +90°.
+		near(fmt.Sprintf("phase of harmonic %d of the square wave", k), val(fmt.Sprintf("phi_%d", k)), -math.Pi/2, 1e-6)
+		want := -math.Pi / 2
+		if k%4 == 3 {
+			want = math.Pi / 2
+		}
+		near(fmt.Sprintf("phase of harmonic %d of the triangular wave", k), val(fmt.Sprintf("psi_%d", k)), want, 1e-6)
+	}
+}
+
+// THD of a sum of sines, √(0.05² + 0.03²) = 0.05831 exactly (the definition
+// of total harmonic distortion relative to the fundamental, IEC 60050-551,
+// 551-20-13; from memory), and of the triangular wave, √(π⁴/96 − 1) =
+// 0.1212 from Σ 1/k⁴ over odd k = π⁴/96 (Kreyszig, 10th ed., §11.1,
+// Parseval's identity; from memory), within what 1,024 samples leave.
+func TestTHD(t *testing.T) {
+	calc := engine.Compile(sheetOf("t.md", "theta = 0 deg .. 360 deg by 0.3515625 deg",
+		"u = 100 V * (sin(theta) + 0.05 * sin(5 * theta) + 0.03 * sin(7 * theta))", "d_u = thd(series(u, theta))",
+		"w = 2 / pi * asin(sin(theta))", "d_w = thd(series(w, theta))"))
+	calc.Evaluate()
+	for _, c := range []struct {
+		name      string
+		want, tol float64
+	}{{"d_u", math.Hypot(0.05, 0.03), 1e-12}, {"d_w", math.Sqrt(math.Pow(math.Pi, 4)/96 - 1), 1e-4}} {
+		r := calc.Result(calc.Lookup(c.name))
+		if r.Status != engine.OK || math.Abs(r.Value-c.want) > c.tol {
+			t.Errorf("%s = %.12g (%v %v), want %.12g within %g", c.name, r.Value, r.Status, r.Err, c.want, c.tol)
+		}
+	}
+}
+
+// Bad inputs to harmonic analysis, each a located error.
+func TestHarmonicsBadInputs(t *testing.T) {
+	for _, c := range []checkerCase{
+		{"uneven samples, known when checked",
+			[]string{"x = [0 deg, 40 deg, 90 deg, 135 deg, 180 deg, 225 deg, 270 deg, 315 deg, 360 deg]",
+				"s = series(sin(x), x)", "a = harmonic(s, 1)"},
+			map[string]string{"a": "error 4:14 the samples are uneven: the step from sample 1 to sample 2 differs from the mean step; harmonics need even samples"}},
+		{"not periodic over its span, too coarse, a harmonic the sampling does not resolve, not a whole number",
+			[]string{"x = 0 deg .. 360 deg by 30 deg", "s = series(x / (1 rad) * 1 V, x)", "a = harmonic(s, 1)",
+				"c = thd(series([0, 1, 0, -1, 0, 1, 0], 0 deg .. 360 deg by 60 deg))",
+				"t = series(sin(x) * 1 V, x)", "k = harmonic(t, 6)", "h = harmonic(t, 2.5)", "p = thd(t)"},
+			map[string]string{"a": "error 4:14 the series is not periodic over its span: its last sample differs from its first",
+				"k": "error 7:17 the sampling is too coarse for harmonic 6: 12 samples per period resolve harmonics up to 5",
+				"h": "error 8:17 harmonic 2.5 is not a whole number from 1",
+				"c": "error 5:9 the sampling is too coarse for harmonics: the series has 6 samples per period"}},
+	} {
+		c.run(t, engine.Options{})
 	}
 }
