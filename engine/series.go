@@ -378,3 +378,14 @@ var spanReduction = map[string]func(y, x []float64) float64{
 	"mean": spanMeanOf,
 	"rms":  spanRMSOf,
 }
+
+// axisUnit picks the unit a series' x shows in: degrees for an angle, as
+// drawings give rotor positions, else the unit that suits its largest end.
+func axisUnit(t Type, xs []float64) units.Unit {
+	if t.XKind == units.Angle {
+		if u, ok := units.Lookup("deg"); ok {
+			return u
+		}
+	}
+	return units.AutoUnit(math.Max(math.Abs(xs[0]), math.Abs(xs[len(xs)-1])), t.XDim, t.XKind)
+}

@@ -526,6 +526,7 @@ func (p *Program) Results(f *Frame) []Result {
 				r.Value = largest(r.List)
 				if st.Type.IsSeries() {
 					r.Over = slices.Clone(st.axisIn(f.Values))
+					r.OverShown = axisUnit(st.Type, r.Over)
 				}
 			}
 			if st.Type.IsComplex() {

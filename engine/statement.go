@@ -238,6 +238,8 @@ type Result struct {
 	// Over holds a series' x values in SI, nil for any other value; List
 	// then holds its y values.
 	Over []float64
+	// OverShown is the unit a series' x is shown in.
+	OverShown units.Unit
 
 	count bool // a definition whose value is a whole-number count
 }
