@@ -193,8 +193,11 @@ func thdOf(c []complex128, _, per int, _, _ float64) float64 {
 	for _, z := range c[2 : top+1] {
 		scale = math.Max(scale, cmplx.Abs(z))
 	}
+	if f := cmplx.Abs(c[1]); f <= 1e-9*scale || f == 0 {
+		return math.NaN() // no fundamental: explainHarmonic says so
+	}
 	if scale == 0 {
-		return 0 / cmplx.Abs(c[1]) // NaN with no fundamental
+		return 0
 	}
 	s := 0.0
 	for _, z := range c[2 : top+1] {

@@ -325,7 +325,12 @@ func explainValueAt(n *Call, v []float64) *diag.Diagnostic {
 		return nil
 	}
 	u := units.AutoUnit(math.Max(math.Abs(xs[0]), math.Abs(xs[len(xs)-1])), n.Args[0].Type().XDim, n.Args[0].Type().XKind)
-	show := func(si float64) string { return units.FormatNumber(u.FromSI(si), 4) + " " + u.Symbol }
+	show := func(si float64) string {
+		if units.SpaceBefore(u.Symbol) {
+			return units.FormatNumber(u.FromSI(si), 4) + " " + u.Symbol
+		}
+		return units.FormatNumber(u.FromSI(si), 4) + u.Symbol
+	}
 	return errAt(n.Args[1].Pos(), "give an x within the series' span",
 		"x = %s is outside the series' span, %s to %s", show(at), show(xs[0]), show(xs[len(xs)-1]))
 }

@@ -22,6 +22,12 @@ func TestSeries(t *testing.T) {
 			// = √19.17 = 4.378 V (9.5 V·s is 9.5 Wb, and shows so); between 4 V and 9 V at 2.5 s: 6.5 V.
 			map[string]string{"d": "ok [0, 2.000, 4.000, 6.000] V/s", "I": "ok 9.500 Wb", "p": "ok 9.000 V", "m": "ok 3.167 V",
 				"r": "ok 4.378 V", "v": "ok 6.500 V", "w": "ok [0, 2.000, 8.000, 18.00] V", "n": "ok 4 1", "e": "ok 4.000 V"}},
+		{"a function of the sheet's own over a series keeps its x, and a phase of a negated sine",
+			[]string{"x = 0 deg .. 360 deg by 30 deg", "s = series(sin(x) * 1 V, x)", "f(a) = a * 2", "y = f(s)", "v = valueat(y, 75 deg)",
+				"p = harmonicphase(-s, 1)"},
+			// Between 2·sin 60° = 1.732 V and 2·sin 90° = 2 V, halfway: 1.866 V.
+			// −sin θ = cos(θ + 90°).
+			map[string]string{"v": "ok 1.866 V", "p": "ok 90.00 °"}},
 		{"a repeated x in a list literal is refused at the sample",
 			[]string{"s = series([1 V, 2 V, 3 V, 4 V], [0 s, 1 s, 1 s, 2 s])"},
 			map[string]string{"s": "error 2:45 x of sample 3 repeats x of sample 2; the x of a series must rise strictly"}},
@@ -168,10 +174,11 @@ func TestHarmonicsBadInputs(t *testing.T) {
 		{"not periodic over its span, too coarse, a harmonic the sampling does not resolve, not a whole number",
 			[]string{"x = 0 deg .. 360 deg by 30 deg", "s = series(x / (1 rad) * 1 V, x)", "a = harmonic(s, 1)",
 				"c = thd(series([0, 1, 0, -1, 0, 1, 0], 0 deg .. 360 deg by 60 deg))",
-				"t = series(sin(x) * 1 V, x)", "k = harmonic(t, 6)", "h = harmonic(t, 2.5)", "p = thd(t)"},
+				"t = series(sin(x) * 1 V, x)", "k = harmonic(t, 6)", "h = harmonic(t, 2.5)", "p = thd(t)",
+				"p2 = thd(t^2)"},
 			map[string]string{"a": "error 4:14 the series is not periodic over its span: its last sample differs from its first",
 				"k": "error 7:17 the sampling is too coarse for harmonic 6: 12 samples per period resolve harmonics up to 5",
-				"h": "error 8:17 harmonic 2.5 is not a whole number from 1",
+				"h": "error 8:17 harmonic 2.5 is not a whole number from 1", "p2": "error 10:6 the series has no fundamental (its 1st harmonic is zero)",
 				"c": "error 5:9 the sampling is too coarse for harmonics: the series has 6 samples per period"}},
 	} {
 		c.run(t, engine.Options{})
