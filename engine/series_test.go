@@ -3,6 +3,7 @@ package engine_test
 import (
 	"fmt"
 	"math"
+	"sync"
 	"testing"
 
 	"github.com/sheaf-calc/sheaf/engine"
@@ -190,5 +191,36 @@ func TestHarmonicsBadInputs(t *testing.T) {
 				"c": "error 5:9 the sampling is too coarse for harmonics: the series has 6 samples per period"}},
 	} {
 		c.run(t, engine.Options{})
+	}
+}
+
+// Four goroutines share one Program whose sheet takes harmonics, each
+// frame with its own amplitude: each FFT's scratch space is its own (run
+// with -race, as CI does). The 5th harmonic is 0.05·U by construction.
+func TestHarmonicsSharedByGoroutines(t *testing.T) {
+	s, p := program(t, "theta = 0 deg .. 360 deg by 1 deg", "U = 100 V", "u = U * (sin(theta) + 0.05 * sin(5 * theta))",
+		"A_5 = harmonic(series(u, theta), 5)")
+	a5, in := s.Lookup("A_5").Index, slot(t, p, "U")
+	var wg sync.WaitGroup
+	errs := make(chan string, 4)
+	for w := 0; w < 4; w++ {
+		wg.Add(1)
+		go func(w int) {
+			defer wg.Done()
+			f := p.NewFrame()
+			for i := 0; i < 50; i++ {
+				U := float64(100 + 10*((i+w)%7))
+				p.Run(f, []engine.Set{{Slot: in, SI: U}})
+				if got := f.Values[a5]; math.Abs(got-0.05*U) > 1e-9*U {
+					errs <- fmt.Sprintf("U = %g V: A_5 = %g V, want %g V", U, got, 0.05*U)
+					return
+				}
+			}
+		}(w)
+	}
+	wg.Wait()
+	close(errs)
+	for e := range errs {
+		t.Error(e)
 	}
 }
