@@ -24,13 +24,14 @@ type Expr interface {
 }
 
 // Shape says how many values a node holds: one (a scalar), or a list of
-// values of one dimension; sampled series are the shape to come.
+// values of one dimension, or a sampled series y(x) (series.go).
 type Shape uint8
 
 // The shapes.
 const (
 	Scalar Shape = iota
 	List
+	Series
 )
 
 // Domain says what numbers a node holds: real, or complex (a phasor,
@@ -62,6 +63,9 @@ type Type struct {
 	// whole numbers, sums and products of counts, and round, floor and
 	// ceil. A count whose value is whole shows without decimals.
 	Count bool
+	// XDim and XKind are the dimension and kind of a series' x.
+	XDim  units.Dim
+	XKind units.Kind
 }
 
 type node struct {

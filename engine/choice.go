@@ -41,6 +41,10 @@ func inferChoice(n *Choice) *diag.Diagnostic {
 		return errAt(at.Pos(), "choose between real values, and build the phasor from the chosen one",
 			"a conditional value of phasors is not supported")
 	}
+	if a.IsSeries() || b.IsSeries() {
+		return errAt(n.Pos(), "choose between values of the series, such as peak(...) or valueat(...)",
+			"a conditional value of series is not supported")
+	}
 	if a.IsList() != b.IsList() || a.Len != b.Len {
 		return errAt(n.Other.Pos(), "give both values the same shape: two single values, or two lists of one length",
 			"the value when the condition holds has %s, but the value otherwise has %s", shapeText(a), shapeText(b))
@@ -55,6 +59,9 @@ func inferChoice(n *Choice) *diag.Diagnostic {
 }
 
 func shapeText(t *Type) string {
+	if t.IsSeries() {
+		return "a series of " + plural(t.Len, "sample")
+	}
 	if t.IsList() {
 		return plural(t.Len, "element")
 	}

@@ -284,6 +284,9 @@ func compileCall(n *Call) evalFn {
 		return func(v []float64) float64 { return read(x(v)) }
 	}
 	f := n.Func
+	if f.build != nil {
+		return f.build(n)
+	}
 	if f.cx != nil || f.Name == "abs" && n.Args[0].Type().IsComplex() {
 		return compilePhasorPart(n)
 	}

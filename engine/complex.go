@@ -25,6 +25,8 @@ func (t *Type) IsComplex() bool { return t.Domain == Complex }
 // the statements' slots: a list's elements, a phasor's two parts.
 func (t *Type) places() int {
 	switch {
+	case t.IsSeries():
+		return 2 * t.Len
 	case t.IsList():
 		return t.Len
 	case t.IsComplex():

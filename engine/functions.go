@@ -61,6 +61,10 @@ type Function struct {
 	// the arithmetic of those that give a real value (complex.go).
 	phasor bool
 	cx     func(complex128) float64
+	// build compiles a function of a series (series.go), and explain
+	// says why its result is not a number.
+	build   func(n *Call) evalFn
+	explain func(n *Call, v []float64) *diag.Diagnostic
 }
 
 func (f *Function) arity() string {

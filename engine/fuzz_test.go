@@ -42,6 +42,8 @@ func FuzzStatement(f *testing.F) {
 		"V = 6.35 kV ∠ 0 deg\nI = 525 A /_ -31.8 deg\nE = V + I * (0.04 Ω + 11.5j Ω)\nd [deg] = arg(E)\ncheck abs(E) <= 12 kV",
 		"z = 3 A + 4j A\nw = conj(z) / z\ncheck z <= 1 A\nq = z + 1 V\nr = Re(2)\ns = sqrt(z)\nu = z / (0 A + 0j A)\nl = [z, 1j]",
 		"p = 5 V ∠ 3 m\nc = 1j ∠ 2\nk(x) = x * 2\nm = k(1j)\ny = 1j when 1 < 2 otherwise 2j\nt = 4jx + 4 j",
+		"th = 0 deg .. 360 deg by 30 deg\ns = series(sin(th) * 1 Wb, th)\ne = -314 rad/s * deriv(s)\nE = rms(e)\nA = harmonic(e, 5)\nd = thd(e)\nv = valueat(s, 400 deg)",
+		"x = [0 s, 1 s, 1 s, 2 s]\ns = series([1 V, 2 V, 3 V, 4 V], x)\ni = integral(s)\np = peak(s) + s\nq = harmonicphase(s, 0)\nr = s + s\nc = 1 when 1 < 2 otherwise s",
 	} {
 		f.Add(seed)
 	}

@@ -43,7 +43,7 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 			*t = Type{Dim: n.Constant.Dim, Const: true, Val: n.Constant.Value}
 		default:
 			tt := n.Target.Type
-			*t = Type{Shape: tt.Shape, Domain: tt.Domain, Len: tt.Len, Dim: tt.Dim, Kind: tt.Kind, Count: tt.Count}
+			*t = Type{Shape: tt.Shape, Domain: tt.Domain, Len: tt.Len, Dim: tt.Dim, Kind: tt.Kind, Count: tt.Count, XDim: tt.XDim, XKind: tt.XKind}
 		}
 	case *ListLit:
 		return inferList(n)
@@ -72,6 +72,9 @@ func inferNode(e Expr, inChain bool) *diag.Diagnostic {
 			return err
 		}
 		if err := inferListOperands(n); err != nil {
+			return err
+		}
+		if err := inferSeriesOperands(n); err != nil {
 			return err
 		}
 		if product && !inChain {

@@ -54,8 +54,9 @@ func (r *Range) children() []Expr {
 }
 func (x *Index) children() []Expr { return []Expr{x.X, x.I} }
 
-// IsList reports whether a node holds a list.
-func (t *Type) IsList() bool { return t.Shape == List }
+// IsList reports whether a node holds a list; a series is a list of its
+// y values, with its x values placed after them.
+func (t *Type) IsList() bool { return t.Shape == List || t.Shape == Series }
 
 // listAt is where a list node's elements lie in a frame's values.
 func listAt(e Expr) (at, n int) { return int(e.base().at), e.Type().Len }

@@ -27,19 +27,22 @@ func compileList(e Expr) evalFn {
 	case *Unary:
 		fx, xa := fnOf(e.X), int(e.X.base().at)
 		if e.Op == "+" {
-			return func(v []float64) float64 { fx(v); copy(v[at:at+n], v[xa:xa+n]); return 0 }
+			return withAxis(e, func(v []float64) float64 { fx(v); copy(v[at:at+n], v[xa:xa+n]); return 0 })
 		}
-		return func(v []float64) float64 {
+		return withAxis(e, func(v []float64) float64 {
 			fx(v)
 			a, o := v[xa:xa+n], v[at:at+n]
 			for i := range o {
 				o[i] = -a[i]
 			}
 			return 0
-		}
+		})
 	case *Binary:
-		return compileListBinary(e, at, n)
+		return withAxis(e, compileListBinary(e, at, n))
 	case *Call:
+		if e.Func.build != nil {
+			return e.Func.build(e)
+		}
 		return mapList(fnOf(e.Args[0]), int(e.Args[0].base().at), at, n, e.Func.f1)
 	}
 	return func([]float64) float64 { return math.NaN() }
@@ -269,6 +272,12 @@ func compileIndex(e *Index) evalFn {
 func compileReduce(c *Call) evalFn {
 	fx, red := fnOf(c.Args[0]), c.Func.reduce
 	at, n := listAt(c.Args[0])
+	if over := spanReduction[c.Name]; over != nil && c.Args[0].Type().IsSeries() {
+		return func(v []float64) float64 {
+			fx(v)
+			return over(v[at:at+n], v[at+n:at+2*n])
+		}
+	}
 	return func(v []float64) float64 {
 		fx(v)
 		return red(v[at : at+n])

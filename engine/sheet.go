@@ -524,6 +524,10 @@ func (p *Program) Results(f *Frame) []Result {
 			if st.Type.IsList() {
 				r.List = slices.Clone(st.listIn(f.Values))
 				r.Value = largest(r.List)
+				if st.Type.IsSeries() {
+					r.Over = slices.Clone(st.axisIn(f.Values))
+					r.OverShown = axisUnit(st.Type, r.Over)
+				}
 			}
 			if st.Type.IsComplex() {
 				ph := st.phasorIn(f.Values)
@@ -710,6 +714,11 @@ func diagnose(e Expr, v []float64) *diag.Diagnostic {
 	for _, c := range children {
 		if !valueOK(c, v) {
 			return diagnose(c, v)
+		}
+	}
+	if c, ok := e.(*Call); ok && c.Func.explain != nil {
+		if d := c.Func.explain(c, v); d != nil {
+			return d
 		}
 	}
 	if e.Type().IsList() {

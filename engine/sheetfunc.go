@@ -359,7 +359,7 @@ func compileApply(a *Apply) evalFn {
 	if !a.T.IsList() {
 		return body
 	}
-	at, n := listAt(a)
+	at, n := int(a.base().at), a.T.places() // a series brings its x along
 	ba := int(a.Body.base().at)
 	return func(v []float64) float64 {
 		body(v)

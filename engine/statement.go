@@ -235,6 +235,11 @@ type Result struct {
 	// Phasor holds a complex result's parts in SI, nil for a real one;
 	// Value is then its magnitude.
 	Phasor *Phasor
+	// Over holds a series' x values in SI, nil for any other value; List
+	// then holds its y values.
+	Over []float64
+	// OverShown is the unit a series' x is shown in.
+	OverShown units.Unit
 
 	count bool // a definition whose value is a whole-number count
 }

@@ -202,6 +202,17 @@ type JSONList struct {
 	SI      []float64 `json:"si"`
 	Display []float64 `json:"display"`
 	Text    []string  `json:"text"`
+	// Over is a series' x, absent for a list: the list holds its y.
+	Over *JSONAxis `json:"over,omitempty"`
+}
+
+// JSONAxis is a series' x values in coherent SI, and the unit the page
+// shows them in.
+type JSONAxis struct {
+	SI          []float64 `json:"si"`
+	Unit        string    `json:"unit"`
+	DisplayUnit string    `json:"display_unit"`
+	Display     []float64 `json:"display"`
 }
 
 // JSONPhasor is a complex value's parts in coherent SI and its angle; the
@@ -563,6 +574,13 @@ func jsonList(res engine.Result, digits int) *JSONList {
 	for i, x := range res.List {
 		l.Display[i] = res.Shown.FromSI(x)
 		l.Text[i] = units.FormatNumber(l.Display[i], elementDigits(res, x, digits))
+	}
+	if res.Over != nil {
+		a := &JSONAxis{SI: res.Over, Unit: res.OverShown.Dim.SIUnits(), DisplayUnit: res.OverShown.Symbol, Display: make([]float64, len(res.Over))}
+		for i, x := range res.Over {
+			a.Display[i] = res.OverShown.FromSI(x)
+		}
+		l.Over = a
 	}
 	return l
 }

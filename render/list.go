@@ -42,7 +42,10 @@ func resultMathML(res engine.Result, digits int) string {
 		b.WriteString(numberMathML(units.FormatNumber(res.Shown.FromSI(*x), elementDigits(res, *x, digits))))
 	}
 	b.WriteString(`<mo fence="true">]</mo>` + unitMathML(res.Shown.Symbol))
-	if len(res.List) > listInline {
+	switch {
+	case res.Over != nil:
+		b.WriteString(`<mspace width="0.4em"></mspace><mtext>` + html.EscapeString(seriesSpan(res, digits)) + "</mtext>")
+	case len(res.List) > listInline:
 		b.WriteString(`<mspace width="0.4em"></mspace><mtext>(` + strconv.Itoa(len(res.List)) + " values)</mtext>")
 	}
 	b.WriteString("</mrow>")
@@ -87,10 +90,29 @@ func ListText(res engine.Result, digits int) string {
 		}
 		s += u
 	}
-	if len(res.List) > listInline {
+	switch {
+	case res.Over != nil:
+		s += " " + seriesSpan(res, digits)
+	case len(res.List) > listInline:
 		s += " (" + strconv.Itoa(len(res.List)) + " values)"
 	}
 	return s
+}
+
+// seriesSpan is what a series adds to its y values: the span of its x in
+// the unit x shows in, and the number of samples, "over 0 … 360 deg (73
+// samples)". A series shows no table of values; the JSON has them all.
+func seriesSpan(res engine.Result, digits int) string {
+	u := res.OverShown
+	end := func(si float64) string { return units.FormatNumber(u.FromSI(si), digits) }
+	s := "over " + end(res.Over[0]) + " … " + end(res.Over[len(res.Over)-1])
+	if sym := u.Symbol; sym != "" && sym != "1" {
+		if units.SpaceBefore(sym) {
+			s += " "
+		}
+		s += sym
+	}
+	return s + " (" + strconv.Itoa(len(res.Over)) + " samples)"
 }
 
 // resultText is a result's value as the terminal shows it.
@@ -104,7 +126,7 @@ func resultText(res engine.Result, digits int) string {
 // writeListTable writes a long list in full below its formula: a row
 // heading gives the number of the row's first element, counted from 1.
 func writeListTable(w sink, st *engine.Statement, res engine.Result, digits int) {
-	if len(res.List) <= listInline {
+	if len(res.List) <= listInline || res.Over != nil {
 		return
 	}
 	unit := res.Shown.Symbol

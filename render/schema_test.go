@@ -90,6 +90,18 @@ var phasorSheets = map[string][]byte{
 		"Z_s = 0.04 Ω + 11.5j Ω ; synchronous impedance\nE [kV] = V + I * Z_s ; excitation EMF\ndelta [deg] = arg(E) ; load angle\ncheck abs(E) <= 12 kV\nI_q = 210j A ; reactive current ; source: invented\n```\n"),
 }
 
+// seriesSheets is one stator coil of the Tarnwick Weir generator: its
+// flux linkage against electrical rotor angle (invented: 0.44 Wb peak, 3 %
+// 5th and 1.5 % 7th harmonic), its EMF at 50 Hz, and that EMF's harmonics.
+var seriesSheets = map[string][]byte{
+	"coil-emf.md": []byte("# Coil EMF waveform\n\n```sheaf\ntheta [deg] = 0 deg .. 360 deg by 5 deg ; electrical rotor angle\n" +
+		"Lambda = 0.44 Wb ; peak flux linkage of the coil ; source: invented\n" +
+		"lambda_c = Lambda * (sin(theta) + 0.03 * sin(5 * theta) + 0.015 * sin(7 * theta)) ; flux linkage\n" +
+		"lambda_s = series(lambda_c, theta) ; flux linkage against rotor angle\n" +
+		"omega = 2 * pi * 50 Hz ; electrical angular speed\ne = -omega * deriv(lambda_s) ; coil EMF\n" +
+		"E_rms = rms(e) ; rms EMF\nE_5 = harmonic(e, 5) ; 5th harmonic\nd_e = thd(e) ; THD of the EMF\ncheck d_e <= 0.3\n```\n"),
+}
+
 var brokenSheets = map[string][]byte{
 	"a-names.md": []byte(`---
 title: Broken on purpose
@@ -371,6 +383,23 @@ func TestRealOutputValidates(t *testing.T) {
 				}
 			}
 			return "no statement phi_k"
+		}},
+		{"package with a series", func(t *testing.T) []byte {
+			return withAudit(t, project.FromFiles("series", seriesSheets))
+		}, func(doc map[string]any) string {
+			for _, st := range doc["sheets"].([]any)[0].(map[string]any)["statements"].([]any) {
+				m := st.(map[string]any)
+				if m["name"] != "e" {
+					continue
+				}
+				l, _ := m["list"].(map[string]any)
+				o, _ := l["over"].(map[string]any)
+				if o == nil || o["display_unit"] != "°" || len(o["display"].([]any)) != 73 {
+					return fmt.Sprintf("e should carry its 73 rotor angles in degrees, not %v", l["over"])
+				}
+				return ""
+			}
+			return "no statement e"
 		}},
 		{"package with phasors", func(t *testing.T) []byte {
 			return withAudit(t, project.FromFiles("phasors", phasorSheets))
