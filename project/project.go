@@ -415,17 +415,29 @@ func (r *resolver) resolve(ref, from string) (engine.SheetSource, string, error)
 // templatePath is the package file a use statement in the file at from
 // names: a path relative to from, with or without .md, inside the folder.
 func templatePath(ref, from string) (string, error) {
-	if path.IsAbs(ref) || strings.ContainsAny(ref, "\\:") {
+	p, written, inside := packagePath(ref, from)
+	switch {
+	case !written:
 		return "", fmt.Errorf("template %s must be a path inside the package folder, written with /", ref)
-	}
-	p := path.Clean(path.Join(path.Dir(from), ref))
-	if !strings.EqualFold(path.Ext(p), ".md") {
-		p += ".md"
-	}
-	if p == ".." || strings.HasPrefix(p, "../") {
+	case !inside:
 		return "", fmt.Errorf("template %s leaves the package folder; templates must lie inside it", ref)
 	}
 	return p, nil
+}
+
+// packagePath is the package file that ref, written in the file at from,
+// names: a path relative to from, with or without .md. written is false
+// for a path written as an absolute or Windows path, inside false for one
+// that leaves the package folder.
+func packagePath(ref, from string) (p string, written, inside bool) {
+	if path.IsAbs(ref) || strings.ContainsAny(ref, "\\:") {
+		return "", false, false
+	}
+	p = path.Clean(path.Join(path.Dir(from), ref))
+	if !strings.EqualFold(path.Ext(p), ".md") {
+		p += ".md"
+	}
+	return p, true, p != ".." && !strings.HasPrefix(p, "../")
 }
 
 // Counts tallies a sheet's or a package's outcomes.

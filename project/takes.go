@@ -2,7 +2,6 @@ package project
 
 import (
 	"fmt"
-	"path"
 	"sort"
 	"strings"
 	"sync"
@@ -33,14 +32,11 @@ type takes struct {
 // takeTarget resolves a sheet named by a take statement in the sheet at
 // from: a path relative to that sheet, with or without .md.
 func takeTarget(ref, from string) (string, error) {
-	if path.IsAbs(ref) || strings.ContainsAny(ref, "\\:") {
+	p, written, inside := packagePath(ref, from)
+	switch {
+	case !written:
 		return "", fmt.Errorf("sheet %s must be a path inside the package folder, written with /", ref)
-	}
-	p := path.Clean(path.Join(path.Dir(from), ref))
-	if !strings.EqualFold(path.Ext(p), ".md") {
-		p += ".md"
-	}
-	if p == ".." || strings.HasPrefix(p, "../") {
+	case !inside:
 		return "", fmt.Errorf("sheet %s leaves the package folder", ref)
 	}
 	return p, nil
