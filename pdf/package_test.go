@@ -63,7 +63,7 @@ func TestPackagePDF(t *testing.T) {
 			t.Errorf("bookmark %q, want the sheet's title %q", marks[1].Title, res.Package.Sheets[0].Title())
 		}
 		// The second sheet's first page is where its bookmark points.
-		if !strings.Contains(pages[marks[2].PageFrom-1], "Sheet 2 of 5") || !strings.Contains(pages[marks[2].PageFrom-1], "page 1 of") {
+		if !strings.Contains(pages[marks[2].PageFrom-1], "Sheet 2 of 6") || !strings.Contains(pages[marks[2].PageFrom-1], "page 1 of") {
 			t.Errorf("page %d does not start sheet 2", marks[2].PageFrom)
 		}
 	}

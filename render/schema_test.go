@@ -444,8 +444,8 @@ func TestRealOutputValidates(t *testing.T) {
 			}
 			return data
 		}, func(doc map[string]any) string {
-			if doc["build_date"] != "2026-11-30" {
-				return fmt.Sprintf("build_date = %v, want the latest front-matter date 2026-11-30", doc["build_date"])
+			if doc["build_date"] != "2026-12-02" {
+				return fmt.Sprintf("build_date = %v, want the latest front-matter date 2026-12-02", doc["build_date"])
 			}
 			return ""
 		}},
