@@ -2,6 +2,7 @@ package preview
 
 import (
 	"bytes"
+	"fmt"
 	"net/http/httptest"
 	"os"
 	"path/filepath"
@@ -63,19 +64,19 @@ func TestIncrementalEqualsFullBuild(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	all := []string{"01-field-coil.md", "02-coil-emf.md", "03-speed-voltage.md", "04-pump-motor-back-emf.md", "05-stator-insulation.md"}
+	all := []string{"01-field-coil.md", "02-coil-emf.md", "03-speed-voltage.md", "04-pump-motor-back-emf.md", "05-stator-insulation.md", "06-emf-waveform-and-excitation.md"}
 	for _, tc := range []struct {
 		name, file, old, new string
 		redo                 []string
 	}{
 		{"a sheet nobody takes from", "03-speed-voltage.md", "B_1 = 0.83 T", "B_1 = 0.86 T", []string{"03-speed-voltage.md"}},
-		{"a sheet others take from", "01-field-coil.md", "k_C = 1.08", "k_C = 1.10", []string{"01-field-coil.md", "02-coil-emf.md", "03-speed-voltage.md"}},
-		{"a template", "_templates/tw-g1-ratings.md", "U_n = 690 V", "U_n = 660 V", []string{"01-field-coil.md", "02-coil-emf.md", "03-speed-voltage.md", "05-stator-insulation.md"}},
+		{"a sheet others take from", "01-field-coil.md", "k_C = 1.08", "k_C = 1.10", []string{"01-field-coil.md", "02-coil-emf.md", "03-speed-voltage.md", "06-emf-waveform-and-excitation.md"}},
+		{"a template", "_templates/tw-g1-ratings.md", "U_n = 690 V", "U_n = 660 V", []string{"01-field-coil.md", "02-coil-emf.md", "03-speed-voltage.md", "05-stator-insulation.md", "06-emf-waveform-and-excitation.md"}},
 		{"a half-typed formula", "04-pump-motor-back-emf.md", "R_a = 0.28 ohm", "R_a = 0.28 ohm *", []string{"04-pump-motor-back-emf.md"}},
 		{"the formula fixed", "04-pump-motor-back-emf.md", "R_a = 0.28 ohm *", "R_a = 0.28 ohm", []string{"04-pump-motor-back-emf.md"}},
 		// A later date in one sheet moves the build date every page
 		// states: one sheet evaluated again, every page rendered again.
-		{"a later date", "04-pump-motor-back-emf.md", "date: 2026-11-30", "date: 2026-12-01", []string{"04-pump-motor-back-emf.md"}},
+		{"a later date", "04-pump-motor-back-emf.md", "date: 2026-11-30", "date: 2026-12-03", []string{"04-pump-motor-back-emf.md"}},
 		{"a new sheet", "", "", "", append(all, "06-spare.md")},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
@@ -118,7 +119,7 @@ func TestIncrementalEqualsFullBuild(t *testing.T) {
 			}
 			for _, p := range wp {
 				if !bytes.Equal(got[p], want[p]) {
-					t.Errorf("served %s differs from a full build's", p)
+					t.Errorf("served %s differs from a full build's: %s", p, firstDiff(got[p], want[p]))
 				}
 			}
 			// The page of a sheet the edit does not touch stays as it was;
@@ -169,4 +170,14 @@ func TestIncrementalOfOneSheet(t *testing.T) {
 	if !bytes.Contains(got["sheets/01-field-coil.html"], []byte("1.10")) {
 		t.Error("the page does not show the edited value 1.10")
 	}
+}
+
+// firstDiff shows where two pages part.
+func firstDiff(a, b []byte) string {
+	i := 0
+	for i < len(a) && i < len(b) && a[i] == b[i] {
+		i++
+	}
+	lo := max(0, i-80)
+	return fmt.Sprintf("served %q, built %q", a[lo:min(len(a), i+80)], b[lo:min(len(b), i+80)])
 }

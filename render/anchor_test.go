@@ -73,3 +73,31 @@ func TestDigitsHoldOnEveryPage(t *testing.T) {
 		t.Error("the diff does not show the moved result to six figures")
 	}
 }
+
+// A sheet rendered again gives the same bytes: goldmark's table renderer
+// writes a cell's alignment onto the tree, and a second rendering (as the
+// preview makes after an edit elsewhere) must not repeat it.
+func TestRenderingTwiceGivesTheSameBytes(t *testing.T) {
+	src := "Table BH: a steel\n\n| H [A/m] | B [T] |\n|---:|---:|\n| 0 | 0 |\n| 100 | 0.5 |\n\n```sheaf\nB_c = interp(BH.B, BH.H, 50 A/m) ; read\n```\n"
+	pkg := project.FromFiles("pkg", map[string][]byte{"t.md": []byte(src)})
+	page := func() string {
+		out, err := HTML(pkg, Options{Version: "test"})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, f := range out {
+			if f.Path == "sheets/t.html" {
+				return string(f.Data)
+			}
+		}
+		t.Fatal("no page for t.md")
+		return ""
+	}
+	first, second := page(), page()
+	if first != second {
+		t.Error("the second rendering of the sheet differs from the first")
+	}
+	if strings.Contains(second, "text-align:right;text-align:right") {
+		t.Error("the cells' alignment is written twice")
+	}
+}

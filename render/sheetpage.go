@@ -4,6 +4,8 @@ import (
 	"strconv"
 
 	"github.com/yuin/goldmark"
+	"github.com/yuin/goldmark/ast"
+	extast "github.com/yuin/goldmark/extension/ast"
 	"github.com/yuin/goldmark/renderer"
 	"github.com/yuin/goldmark/util"
 
@@ -35,7 +37,22 @@ func newProse() *prose {
 
 func (pr *prose) render(p *page, s *project.Sheet, digits int) error {
 	*pr.blocks = blockRenderer{sheet: s, digits: digits}
+	freshCells(s.Doc.Doc)
 	return pr.md.Renderer().Render(&p.Buffer, s.Doc.Source, s.Doc.Doc)
+}
+
+// freshCells clears what goldmark's table renderer wrote onto the cells of
+// the tree the last time it rendered them (it appends the alignment to a
+// cell's style attribute), so that a sheet rendered again, as the preview
+// does after an edit elsewhere, gives the same bytes. Cells carry no
+// attributes of their own: sheets are read without attribute syntax.
+func freshCells(doc ast.Node) {
+	_ = ast.Walk(doc, func(n ast.Node, entering bool) (ast.WalkStatus, error) {
+		if c, ok := n.(*extast.TableCell); ok && entering {
+			c.RemoveAttributes()
+		}
+		return ast.WalkContinue, nil
+	})
 }
 
 func sheetPage(pkg *project.Package, s *project.Sheet, opt Options, pr *prose) ([]byte, error) {
