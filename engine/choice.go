@@ -8,7 +8,7 @@ import (
 )
 
 // Choice is a conditional value, for piecewise rules: Value when Cond
-// holds, otherwise Other (k = 1 when B <= 1.5 T otherwise 1.5 T / B).
+// holds, else Other (k = 1 when B <= 1.5 T else 1.5 T / B).
 // Both values measure the same thing, checked before anything runs; a run
 // evaluates only the value it chooses, so the other may be undefined
 // there (a division by zero on the side not taken is no error).
@@ -26,12 +26,12 @@ func inferChoice(n *Choice) *diag.Diagnostic {
 	a, b := n.Value.Type(), n.Other.Type()
 	for _, e := range []Expr{n.Value, n.Other} {
 		if c, ok := e.(*Binary); ok && isComparison(c.Op) {
-			return errAt(c.Pos(), "write the comparison after when: value when a <= b otherwise other value", "a value cannot be a comparison")
+			return errAt(c.Pos(), "write the comparison after when: value when a <= b else other value", "a value cannot be a comparison")
 		}
 	}
 	if a.Dim != b.Dim {
 		return errAt(n.Other.Pos(), "give both values of the condition one dimension",
-			"the value when the condition holds is %s, but the value otherwise is %s", units.Describe(a.Dim), units.Describe(b.Dim))
+			"the value when the condition holds is %s, but the value after else is %s", units.Describe(a.Dim), units.Describe(b.Dim))
 	}
 	if a.IsComplex() || b.IsComplex() || n.Cond.Type().IsComplex() {
 		at := n.Value
@@ -47,7 +47,7 @@ func inferChoice(n *Choice) *diag.Diagnostic {
 	}
 	if a.IsList() != b.IsList() || a.Len != b.Len {
 		return errAt(n.Other.Pos(), "give both values the same shape: two single values, or two lists of one length",
-			"the value when the condition holds has %s, but the value otherwise has %s", shapeText(a), shapeText(b))
+			"the value when the condition holds has %s, but the value after else has %s", shapeText(a), shapeText(b))
 	}
 	k, err := addKinds("<", a.Kind, b.Kind)
 	if err != nil {

@@ -37,13 +37,13 @@ func FuzzStatement(f *testing.F) {
 		"phi = [2.41 mWb, 2.38 mWb, 2.30 mWb]\nlambda = sum(phi)\nPhi_e = lambda / count(phi)\nb = phi[2] + phi[4]",
 		"k = 1 .. 12\nth = 0 deg .. 90 deg by 15 deg\ny = sin(th) * k[1 .. 7]\nc = [1 m, 2 s] + (1 .. 3)",
 		"a = [1, 2] + [1, 2, 3]\nm = max(a)\nr = rms(1 / (k - 3))\nk = 1 .. 5\ncheck a <= 3",
-		"B = 1.62 T\nk = 1 when B <= 1.5 T otherwise 1.5 T / B\ny = 1 / B when B > 2 T otherwise 0 / T\nz = (1 when k < 1 otherwise 2 s) * 2",
+		"B = 1.62 T\nk = 1 when B <= 1.5 T else 1.5 T / B\ny = 1 / B when B > 2 T else 0 / T\nz = (1 when k < 1 else 2 s) * 2",
 		"k_p(nu) = sin(nu * y * pi / 2)\ny = 7 / 9\nw = k_p([1, 5, 7])\nf(x) = f(x)\ng(a, a) = a\nh = k_p(1 m) + k_p(1, 2) + nope(3)\nm(x) = n(x)\nn(x) = m(x) * x",
 		"V = 6.35 kV ∠ 0 deg\nI = 525 A /_ -31.8 deg\nE = V + I * (0.04 Ω + 11.5j Ω)\nd [deg] = arg(E)\ncheck abs(E) <= 12 kV",
 		"z = 3 A + 4j A\nw = conj(z) / z\ncheck z <= 1 A\nq = z + 1 V\nr = Re(2)\ns = sqrt(z)\nu = z / (0 A + 0j A)\nl = [z, 1j]",
-		"p = 5 V ∠ 3 m\nc = 1j ∠ 2\nk(x) = x * 2\nm = k(1j)\ny = 1j when 1 < 2 otherwise 2j\nt = 4jx + 4 j",
+		"p = 5 V ∠ 3 m\nc = 1j ∠ 2\nk(x) = x * 2\nm = k(1j)\ny = 1j when 1 < 2 else 2j\nt = 4jx + 4 j",
 		"th = 0 deg .. 360 deg by 30 deg\ns = series(sin(th) * 1 Wb, th)\ne = -314 rad/s * deriv(s)\nE = rms(e)\nA = harmonic(e, 5)\nd = thd(e)\nv = valueat(s, 400 deg)",
-		"x = [0 s, 1 s, 1 s, 2 s]\ns = series([1 V, 2 V, 3 V, 4 V], x)\ni = integral(s)\np = peak(s) + s\nq = harmonicphase(s, 0)\nr = s + s\nc = 1 when 1 < 2 otherwise s",
+		"x = [0 s, 1 s, 1 s, 2 s]\ns = series([1 V, 2 V, 3 V, 4 V], x)\ni = integral(s)\np = peak(s) + s\nq = harmonicphase(s, 0)\nr = s + s\nc = 1 when 1 < 2 else s",
 	} {
 		f.Add(seed)
 	}

@@ -331,7 +331,7 @@ func identifier(r []rune, i int) (string, int) {
 
 // reserved are words the formula parser gives a meaning of its own.
 var reserved = map[string]bool{
-	"check": true, "use": true, "param": true, "take": true, "with": true, "by": true, "when": true, "otherwise": true, "extrapolate": true, "in": true, "not": true, "and": true, "or": true, "let": true, "if": true, "else": true,
+	"check": true, "use": true, "param": true, "take": true, "with": true, "by": true, "when": true, "extrapolate": true, "in": true, "not": true, "and": true, "or": true, "let": true, "if": true, "else": true,
 	"true": true, "false": true, "nil": true, "matches": true, "contains": true, "startsWith": true, "endsWith": true,
 }
 

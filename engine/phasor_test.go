@@ -91,7 +91,7 @@ func TestPhasorErrors(t *testing.T) {
 		{"phasors have no order, do not mix dimensions, and are built from real values",
 			[]string{"E = 6.9 kV ∠ 12 deg", "V = 6.35 kV + 0j V", "I = 410 A ∠ -30 deg", "check E <= V", "check E == V", "a = V + I",
 				"b = arg(2 V)", "c = sqrt(E)", "d = E^2", "e = 5 V ∠ 3 m", "f = 5 V ∠ (50 Hz * 1 s)", "g = E ∠ 10 deg", "h = [E, V]",
-				"i = E when abs(E) > 1 V otherwise V", "j = 4j °C", "k = min(E, V)", "l = Re(3 V)", "m = 2 V ∠ 1 deg ∠ 2 deg",
+				"i = E when abs(E) > 1 V else V", "j = 4j °C", "k = min(E, V)", "l = Re(3 V)", "m = 2 V ∠ 1 deg ∠ 2 deg",
 				"n = 0 V + 0j V", "o = E / n", "check abs(E) <= 7 kV", "check Re(E) >= Re(V)", "p = E[1]", "q = 1j .. 3j",
 				"check abs(E) == 6.9 kV", "r = 2 ∠ 10 deg * E"},
 			map[string]string{

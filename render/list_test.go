@@ -45,7 +45,7 @@ func TestListsShowInlineOrAsATable(t *testing.T) {
 // A conditional value shows as a piecewise rule: a brace, the value with
 // its condition, and the other value with "otherwise".
 func TestChoiceShowsAsAPiecewiseRule(t *testing.T) {
-	sheet := "# Knee\n\n```sheaf\nB = 1.62 T ; flux density\nB_s = 1.5 T ; knee\nk_s = 1 when B <= B_s otherwise B_s / B ; saturation factor\n```\n"
+	sheet := "# Knee\n\n```sheaf\nB = 1.62 T ; flux density\nB_s = 1.5 T ; knee\nk_s = 1 when B <= B_s else B_s / B ; saturation factor\n```\n"
 	_, pages := build(t, map[string]string{"knee.md": sheet})
 	page := pages["sheets/knee.html"]
 	for _, want := range []string{
@@ -84,7 +84,7 @@ func TestSheetFunctionShowsDefinitionAndCalls(t *testing.T) {
 func TestListsRenderDeterministically(t *testing.T) {
 	files := map[string]string{"turns.md": "# Turns\n\n```sheaf\nphi_k = [2.41 mWb, 2.38 mWb, 2.30 mWb] ; flux per turn group\nlambda = sum(phi_k)\n" +
 		"k_p(nu) = sin(nu * 7 / 9 * pi / 2) ; pitch factor\nw = k_p([1, 5, 7])\n```\n"}
-	files["more.md"] = "# More\n\n```sheaf\nk = 1 .. 300\nx = 2 when count(k) > 10 otherwise 3\nf(a, b) = a * b + x\ny = f(k, 2)\nz = frob(k)\n```\n"
+	files["more.md"] = "# More\n\n```sheaf\nk = 1 .. 300\nx = 2 when count(k) > 10 else 3\nf(a, b) = a * b + x\ny = f(k, 2)\nz = frob(k)\n```\n"
 	_, first := build(t, files)
 	_, second := build(t, files)
 	for name, page := range first {

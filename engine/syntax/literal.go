@@ -38,7 +38,7 @@ func scanLiteral(r []rune, i, to int) (*Number, *Quantity, int, *Error) {
 	j := skipBlanks(r, i, to)
 	rest := string(r[j:to])
 	n := units.ScanCompact(rest)
-	if j > i && (isWord(r, j, to, StepWord) || isWord(r, j, to, WhenWord) || isWord(r, j, to, OtherwiseWord)) {
+	if j > i && (isWord(r, j, to, StepWord) || isWord(r, j, to, WhenWord) || isWord(r, j, to, ElseWord)) {
 		n = 0 // "0 .. 10 by 2", "1 when ...": the words of the grammar, not units
 	}
 	if n == 0 {

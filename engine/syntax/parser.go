@@ -97,7 +97,7 @@ func (p *parser) expr(minBP int) Node {
 	for p.err == nil {
 		t := p.peek()
 		if t.kind != tokOp {
-			if t.kind == tokName && (t.text == StepWord || t.text == WhenWord || t.text == OtherwiseWord) {
+			if t.kind == tokName && (t.text == StepWord || t.text == WhenWord || t.text == ElseWord) {
 				return left // a range's step or a conditional's words: the caller reads them
 			}
 			if startsOperand(t) {
@@ -213,7 +213,7 @@ func (p *parser) call(name token) Node {
 }
 
 // choice parses a value that may hold a condition: value when condition
-// otherwise other, where other may hold a condition of its own.
+// else other, where other may hold a condition of its own.
 func (p *parser) choice() Node {
 	v := p.expr(0)
 	if p.err != nil || p.peek().kind != tokName || p.peek().text != WhenWord {
@@ -228,8 +228,8 @@ func (p *parser) choice() Node {
 	if p.err != nil {
 		return nil
 	}
-	if t := p.peek(); t.kind != tokName || t.text != OtherwiseWord {
-		return p.fail(t, "write value "+WhenWord+" condition "+OtherwiseWord+" other value", "a condition needs the value %s it does not hold", OtherwiseWord)
+	if t := p.peek(); t.kind != tokName || t.text != ElseWord {
+		return p.fail(t, "write value "+WhenWord+" condition "+ElseWord+" other value", "a condition needs %s and the value when it does not hold", ElseWord)
 	}
 	p.next()
 	other := p.choice()
@@ -331,8 +331,8 @@ func (p *parser) unexpected(t token) Node {
 	switch {
 	case t.kind == tokEOF:
 		return p.endsEarly()
-	case t.kind == tokName && (t.text == WhenWord || t.text == OtherwiseWord):
-		return p.fail(t, "write value "+WhenWord+" condition "+OtherwiseWord+" other value, in parentheses inside a formula", "%s belongs to a conditional value: value %s condition %s other value", t.text, WhenWord, OtherwiseWord)
+	case t.kind == tokName && (t.text == WhenWord || t.text == ElseWord):
+		return p.fail(t, "write value "+WhenWord+" condition "+ElseWord+" other value, in parentheses inside a formula", "%s belongs to a conditional value: value %s condition %s other value", t.text, WhenWord, ElseWord)
 	case t.kind == tokName && t.text == StepWord:
 		return p.fail(t, "write a range with its step as from .. to by step", "%s gives the step of a range, and follows from .. to", StepWord)
 	case t.kind == tokComma && p.decimalComma(t):

@@ -100,12 +100,12 @@ func TestParseShapes(t *testing.T) {
 		{"[1 .. 3]", "{(.. 1 3)}"},
 		{"2 * (1 .. 3)", "(* 2 (.. 1 3))"},
 		// Conditional values.
-		{"1 when B <= 1.5 T otherwise 1.5 T / B", "(when 1 (<= B [1.5 T]) (/ [1.5 T] B))"},
-		{"a when x < 1 otherwise b when x < 2 otherwise 3", "(when a (< x 1) (when b (< x 2) 3))"},
-		{"2 * (a when x > 0 otherwise -a)", "(* 2 (when a (> x 0) (- a)))"},
-		{"max(0 when a < b otherwise a - b, 1)", "max((when 0 (< a b) (- a b)), 1)"},
-		{"2 * a when b < c otherwise d", "(when (* 2 a) (< b c) d)"},
-		{"5 when n > 2 otherwise 6", "(when 5 (> n 2) 6)"},
+		{"1 when B <= 1.5 T else 1.5 T / B", "(when 1 (<= B [1.5 T]) (/ [1.5 T] B))"},
+		{"a when x < 1 else b when x < 2 else 3", "(when a (< x 1) (when b (< x 2) 3))"},
+		{"2 * (a when x > 0 else -a)", "(* 2 (when a (> x 0) (- a)))"},
+		{"max(0 when a < b else a - b, 1)", "max((when 0 (< a b) (- a b)), 1)"},
+		{"2 * a when b < c else d", "(when (* 2 a) (< b c) d)"},
+		{"5 when n > 2 else 6", "(when 5 (> n 2) 6)"},
 	} {
 		n, err := parse(c.in)
 		if c.want == "?" {
@@ -174,8 +174,8 @@ func TestParseErrors(t *testing.T) {
 		{"phi [2]", "a [ follows phi after a space", "phi[...]", 4, 5},
 		{"1 .. 2 .. 3", "a range has one ..", "", 7, 9},
 		{"a by 2", "by gives the step of a range", "from .. to by step", 2, 4},
-		{"a when b < c", "a condition needs the value otherwise", "value when condition otherwise other value", 12, 13},
-		{"a otherwise b", "otherwise belongs to a conditional value", "", 2, 11},
+		{"a when b < c", "a condition needs else and the value when it does not hold", "value when condition else other value", 12, 13},
+		{"a else b", "else belongs to a conditional value", "", 2, 6},
 		{"1 .. ", "formula ends too early", "", 2, 4},
 		{"5 V ± 1 V", "reserved for tolerances", "", 4, 5},
 		{"10 V ∠ 30 deg ∠ 5 deg", "a phasor has one ∠", "magnitude ∠ angle", 14, 15},
@@ -230,7 +230,7 @@ func FuzzParse(f *testing.F) {
 	for _, s := range []string{"1 + 2*3", "-x^2", "sqrt(a, b)", "2π*n", "60 cm^2", "a < b < c", "(", ")", "1,5 V",
 		"3 m s", "f(", "interp(T.y, T.x, 3 A, extrapolate)", "1..2", "±", "∠", "[", "\xff", "2(a)", "x ** -2",
 		"[1.2 mWb, 1.5 mWb]", "phi[2]", "0 deg .. 90 deg by 15 deg", "[1, 2)", "a [1]", "sum(T.x[1 .. 3])", "[[1]][1][1]",
-		"1 when B <= 1.5 T otherwise 1.5 T / B", "a when b otherwise", "(a when b < c otherwise d)[1]",
+		"1 when B <= 1.5 T else 1.5 T / B", "a when b else", "(a when b < c else d)[1]",
 		"3 A + 4j A", "4j", "230 V ∠ -30 deg", "230 V /_ -30 deg", "a*b ∠ c + d", "1 ∠ 2 ∠ 3", "2j π", "1e3j kV", "4jx", "/_"} {
 		f.Add(s)
 	}

@@ -6,7 +6,7 @@
 // The grammar, as EBNF (README, "Formula grammar"):
 //
 //	formula    = choice .
-//	choice     = comparison [ "when" comparison "otherwise" choice ] .
+//	choice     = comparison [ "when" comparison "else" choice ] .
 //	comparison = span [ relation span ] .
 //	relation   = "<" | "<=" | ">" | ">=" | "==" | "≤" | "≥" .
 //	span       = sum [ ".." sum [ "by" sum ] ] .
@@ -123,7 +123,7 @@ type Index struct {
 	I   Node
 }
 
-// Choice is a conditional value: Value when Cond holds, otherwise Other.
+// Choice is a conditional value: Value when Cond holds, else Other.
 type Choice struct {
 	Pos          Span
 	WhenAt       int
@@ -133,9 +133,9 @@ type Choice struct {
 
 // The words of ranges and conditional values.
 const (
-	StepWord      = "by"
-	WhenWord      = "when"
-	OtherwiseWord = "otherwise"
+	StepWord = "by"
+	WhenWord = "when"
+	ElseWord = "else"
 )
 
 // Span implementations.
