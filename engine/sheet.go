@@ -437,7 +437,7 @@ func (s *Calc) checkTake(st *Statement) {
 			"%s in %s is a list; take reads single values", st.Remote, st.TakenPath))
 		return
 	}
-	if st.taken.Status != OK {
+	if st.taken == nil || st.taken.Status != OK {
 		st.Verdict = Blocked
 		st.Problem = &diag.Diagnostic{Pos: st.Pos, Message: fmt.Sprintf("not evaluated: %s in %s has no value", st.Remote, st.TakenPath)}
 		return

@@ -152,7 +152,7 @@ type Info struct {
 	Verdict Status
 	Problem *diag.Diagnostic
 
-	taken Result // the taken statement's result, fixed for this sheet's runs
+	taken *Result // the taken statement's result, fixed for this sheet's runs; nil but on a take
 }
 
 // Override is one `name = formula` after `with` in a use statement.

@@ -128,7 +128,8 @@ func (s *Calc) resolveTakes(find func(ref, from string) (*Calc, string, error)) 
 			s.fail(st, errAt(st.RemotePos, hint, "%s defines no result %s", path, st.Remote))
 			continue
 		}
-		st.Taken, st.TakenPath, st.taken = target, path, other.Result(target)
+		r := other.Result(target)
+		st.Taken, st.TakenPath, st.taken = target, path, &r
 		st.Type = target.Type
 	}
 }
