@@ -49,12 +49,24 @@ type Browser struct {
 
 // Start starts a headless Chromium. The flags keep it from reaching for the
 // network on its own (updates, sync, field trials), which a closed network
-// refuses and a build has no use for.
+// refuses and a build has no use for. A Chromium that exits before it is
+// ready (seen now and then on a loaded machine) is started once more, with
+// a fresh profile.
 func Start(parent context.Context) (*Browser, error) {
 	exe, err := FindChromium()
 	if err != nil {
 		return nil, err
 	}
+	for attempt := 1; ; attempt++ {
+		b, err := start(parent, exe)
+		if err == nil || attempt == 2 || parent.Err() != nil {
+			return b, err
+		}
+	}
+}
+
+// start starts Chromium once.
+func start(parent context.Context, exe string) (*Browser, error) {
 	profile, err := os.MkdirTemp("", "sheaf-chromium-")
 	if err != nil {
 		return nil, err
