@@ -60,6 +60,15 @@ func parseStatement(t *text) (*Statement, *diag.Diagnostic) {
 	case w == "take" && j < end && unicode.IsSpace(r[j]) && skipSpace(r, j) < end && r[skipSpace(r, j)] != '=':
 		return st, parseTake(st, t, skipSpace(r, j), end)
 	}
+	if conditionHead(r, i, end) {
+		if w, _ := word(r, i); w == "case" {
+			return st, parseCase(st, t, i, end)
+		}
+		return st, parseSweep(st, t, i, end)
+	}
+	if w, j := word(r, i); w == "sample" && j < end && unicode.IsSpace(r[j]) && skipSpace(r, j) < end && unicode.IsDigit(r[skipSpace(r, j)]) {
+		return st, parseSampling(st, t, i, end)
+	}
 	if w, j := word(r, i); w == "check" && (j == end || r[j] == ' ' || r[j] == '\t' || r[j] == '[') {
 		return st, parseCheck(st, t, j, end)
 	}
@@ -131,6 +140,12 @@ func parseDefinition(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	i++
 	if skipSpace(r[:end], i) == end {
 		return errAt(t.pos(i), "write the formula or value after =", "%s = has nothing on the right", name)
+	}
+	if k := splitTolerance(r, i, end); k < end {
+		if err := parseTolerance(st, t, k, end); err != nil {
+			return err
+		}
+		end = k
 	}
 	st.Formula = strings.TrimSpace(string(r[i:end]))
 	e, err := parseFormula(t, i, end)

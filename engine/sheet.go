@@ -120,6 +120,7 @@ func CompileWith(src SheetSource, opt Options) *Calc {
 	}
 	s.checkSolveRelations()
 	s.linkAssumptions(append(src.Assumptions, x.assumptions...))
+	s.checkConditions() // after the assumptions: a sweep's check reads the traces
 	s.Diags.Sort()
 	return s
 }
@@ -356,6 +357,8 @@ func (s *Calc) check(st *Statement) {
 	case Take:
 		s.checkTake(st)
 		return
+	case Case, Sweep, Sampling:
+		return // checkConditions, once every input is checked
 	}
 	for _, d := range st.Deps {
 		if !d.compiled {
@@ -396,6 +399,12 @@ func (s *Calc) check(st *Statement) {
 	if err := overrideProblem(st); err != nil {
 		s.fail(st, err)
 		return
+	}
+	if st.Tol != nil {
+		if err := checkTolerance(st); err != nil {
+			s.fail(st, err)
+			return
+		}
 	}
 	if st.Display != nil {
 		if msg, hint := displayProblem(name, formula, st.Type, *st.Display); msg != "" {
@@ -500,6 +509,16 @@ func (s *Calc) Result(st *Statement) Result {
 		return s.results[st.slot]
 	}
 	return Result{Status: st.Verdict, Err: st.Problem}
+}
+
+// Govern replaces the result a check of this sheet shows with the one it
+// has under its governing condition (a load case or a sweep point where
+// it comes out worst), so that the pages, the counts and the audit read
+// the check where it governs.
+func (s *Calc) Govern(st *Statement, r Result) {
+	if st.Kind == Check && st.slot < len(s.results) && s.Statements[st.slot] == st {
+		s.results[st.slot] = r
+	}
 }
 
 // Results reads a frame as the pages show it: for each statement, by slot,

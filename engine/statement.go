@@ -30,6 +30,15 @@ const (
 	// FunctionDef is `name(p, q) = formula`: a function of the sheet's
 	// own, checked at each call with the call's arguments.
 	FunctionDef
+	// Case is `case name: a = v, b = w`: a named load case, the inputs it
+	// sets and their values; every result and check is worked out in it.
+	Case
+	// Sweep is `sweep name: x over points [in case] [show a, b]`: one
+	// input varied over a range or a list, with the results it gathers.
+	Sweep
+	// Sampling is `sample N times, seed S`: the Monte Carlo count and seed
+	// of the sheet's tolerances.
+	Sampling
 )
 
 // Status is how a statement came out.
@@ -119,6 +128,11 @@ type Statement struct {
 	// Remote the name there, each with where it is written.
 	From, Remote       string
 	FromPos, RemotePos diag.Pos
+
+	// Cond is what a case, sweep or sample statement declares; Tol is an
+	// input's tolerance.
+	Cond *Condition
+	Tol  *Tolerance
 
 	// Info is what the checker learnt; the results of a run are in the
 	// run's Frame, read through Calc.Result.

@@ -1,0 +1,322 @@
+package conditions_test
+
+import (
+	"math"
+	"strings"
+	"testing"
+
+	"github.com/sheaf-calc/sheaf/conditions"
+	"github.com/sheaf-calc/sheaf/diag"
+	"github.com/sheaf-calc/sheaf/engine"
+	"gonum.org/v1/gonum/stat/distuv"
+)
+
+// compile makes a one-block sheet of lines, the first on line 2, and
+// evaluates it.
+func compile(t testing.TB, lines ...string) *engine.Calc {
+	t.Helper()
+	b := engine.SourceBlock{Fence: diag.Pos{File: "c.md", Line: 1, Col: 1}}
+	for i, l := range lines {
+		b.Lines = append(b.Lines, engine.SourceLine{Text: l, Pos: diag.Pos{File: "c.md", Line: i + 2, Col: 1}})
+	}
+	calc := engine.Compile(engine.SheetSource{Path: "c.md", Blocks: []engine.SourceBlock{b}})
+	calc.Evaluate()
+	return calc
+}
+
+func mustClean(t *testing.T, calc *engine.Calc) {
+	t.Helper()
+	for _, d := range calc.Diags {
+		t.Errorf("unexpected diagnostic %s", d.Error())
+	}
+}
+
+func statement(t testing.TB, calc *engine.Calc, text string) *engine.Statement {
+	t.Helper()
+	if st := calc.Lookup(text); st != nil {
+		return st
+	}
+	for _, st := range calc.Statements {
+		if st.Text == text || st.Formula == text || st.Name == text && st.Kind != engine.Definition {
+			return st
+		}
+	}
+	t.Fatalf("no statement %q", text)
+	return nil
+}
+
+func near(got, want, rel float64) bool {
+	return math.Abs(got-want) <= rel*math.Abs(want)
+}
+
+// The magnetic circuit of a gapped core is linear while the iron keeps
+// one permeability: Φ = N·I/R with R = l_c/(μ0·μr·A) + g/(μ0·A), so a
+// sweep of the current must give N·I/R at every point (the magnetic
+// Ohm's law of any textbook of electrical machines, e.g. Hughes,
+// Electrical and Electronic Technology, 10th ed., ch. 8).
+func TestSweepOfLinearCircuitFollowsOhmsLaw(t *testing.T) {
+	calc := compile(t,
+		"N = 200",
+		"I = 2 A",
+		"l_c = 0.3 m",
+		"A = 9 cm^2",
+		"g = 1 mm",
+		"mu_r = 1500",
+		"R = l_c / (mu_0 * mu_r * A) + g / (mu_0 * A)",
+		"Phi = N * I / R",
+		"B = Phi / A",
+		"B_max = 1.4 T",
+		"check B <= B_max",
+		"sweep mag: I over 0 A .. 10 A by 0.5 A show Phi, B",
+	)
+	mustClean(t, calc)
+	r := conditions.Run(calc)
+	if r == nil || len(r.Sweeps) != 1 {
+		t.Fatalf("want one sweep, got %+v", r)
+	}
+	sw := r.Sweeps[0]
+	if len(sw.X) != 21 || len(sw.Curves) != 2 {
+		t.Fatalf("want 21 points and 2 curves, got %d and %d", len(sw.X), len(sw.Curves))
+	}
+	mu0 := 4e-7 * math.Pi * 1.00000000055 // CODATA 2018 μ0, as the units package holds it
+	rel := 0.3/(mu0*1500*9e-4) + 1e-3/(mu0*9e-4)
+	for i, x := range sw.X {
+		want := 200 * x / rel
+		if !near(sw.Curves[0].Y[i], want, 1e-6) {
+			t.Errorf("point %d (I = %g A): Φ = %g Wb, want N·I/R = %g Wb", i, x, sw.Curves[0].Y[i], want)
+		}
+	}
+	// B rises by 0.209 T per ampere and reaches 1.4 T near I = 6.7 A: the
+	// seven points from 7 A up fail, and the worst is the last.
+	g, ok := r.Governing(statement(t, calc, "B <= B_max"))
+	if !ok || g.Result.Status != engine.Fail || g.Point != 20 {
+		t.Fatalf("governing = %+v, want the sweep's last point, failing", g)
+	}
+	if g.Evaluated != 22 || len(g.Failing) != 1 || !strings.Contains(g.Failing[0], "7 of 21 points") {
+		t.Errorf("evaluated %d, failing %v; want 22 conditions and the sweep's 7 failing points", g.Evaluated, g.Failing)
+	}
+}
+
+// A check reports its worst case by name, and holds only if it holds in
+// every case.
+func TestCasesGovern(t *testing.T) {
+	calc := compile(t,
+		"U = 24 V",
+		"R = 3 ohm",
+		"I = U / R",
+		"I_max = 9 A",
+		"check I <= I_max",
+		"case low: U = 20 V",
+		"case high: U = 28 V, R = 2.9 ohm",
+	)
+	mustClean(t, calc)
+	r := conditions.Run(calc)
+	if len(r.Cases) != 2 {
+		t.Fatalf("want 2 cases, got %d", len(r.Cases))
+	}
+	i := statement(t, calc, "I")
+	if got := r.Cases[1].Results[i.Index].Value; !near(got, 28/2.9, 1e-12) {
+		t.Errorf("I in case high = %g A, want %g A", got, 28/2.9)
+	}
+	g, ok := r.Governing(statement(t, calc, "I <= I_max"))
+	if !ok || g.Where != "case high" || g.Result.Status != engine.Fail || g.Evaluated != 3 {
+		t.Fatalf("governing = %+v, want case high, failing, of 3 conditions", g)
+	}
+	if !near(g.Result.Utilisation, 28/2.9/9, 1e-9) {
+		t.Errorf("utilisation %g, want %g", g.Result.Utilisation, 28/2.9/9)
+	}
+}
+
+// The Monte Carlo mean and standard deviation of a sum and a product of
+// independent normal inputs against the analytic ones: for a sum, μx+μy
+// and √(σx²+σy²); for a product, μxμy and √(μx²σy²+μy²σx²+σx²σy²)
+// (Goodman, "On the exact variance of products", J. Am. Stat. Assoc. 55,
+// 1960; from memory).
+func TestMonteCarloMomentsOfSumAndProduct(t *testing.T) {
+	calc := compile(t,
+		"x = 10 V ± σ 1 V",
+		"y = 20 V ± σ 2 V",
+		"s = x + y",
+		"k = 5 A ± σ 0.5 A",
+		"p = x * k",
+		"sample 100000 times, seed 11",
+	)
+	mustClean(t, calc)
+	sp := conditions.Run(calc).Spread
+	if sp == nil || sp.Samples != 100000 || sp.Seed != 11 {
+		t.Fatalf("spread %+v", sp)
+	}
+	got := map[string]conditions.ResultSpread{}
+	for _, r := range sp.Results {
+		got[r.Stmt.Name] = r
+	}
+	sum, prod := got["s"], got["p"]
+	if !near(sum.Mean, 30, 0.01) || !near(sum.SD, math.Sqrt(5), 0.01) {
+		t.Errorf("sum: mean %g, SD %g; want 30 and %g within 1 %%", sum.Mean, sum.SD, math.Sqrt(5))
+	}
+	wantSD := math.Sqrt(100*0.25 + 25*1 + 1*0.25)
+	if !near(prod.Mean, 50, 0.01) || !near(prod.SD, wantSD, 0.01) {
+		t.Errorf("product: mean %g, SD %g; want 50 and %g within 1 %%", prod.Mean, prod.SD, wantSD)
+	}
+}
+
+// The root-sum-square of a linear function's tolerances is
+// √Σ(aᵢ·tᵢ)² exactly (the tolerance stack of any text on tolerancing,
+// e.g. Fortini, Design and Tolerancing, 1967; common practice).
+func TestRSSOfLinearFunction(t *testing.T) {
+	calc := compile(t,
+		"a = 12 mm ± 0.1 mm",
+		"b = 30 mm ± 0.25 mm triangular",
+		"c = 5 mm in 4.9 mm .. 5.2 mm",
+		"d = 3 mm ± σ 0.02 mm",
+		"gap = b - 2 * a - c + 0.5 * d",
+		"gap_min = 0.2 mm",
+		"check gap >= gap_min",
+	)
+	mustClean(t, calc)
+	sp := conditions.Run(calc).Spread
+	var gap conditions.ResultSpread
+	for _, r := range sp.Results {
+		if r.Stmt.Name == "gap" {
+			gap = r
+		}
+	}
+	// c's band is 0.3 mm wide: its half-width is 0.15 mm; d's tolerance
+	// is 3σ.
+	want := math.Sqrt(math.Pow(2*0.1e-3, 2) + math.Pow(0.25e-3, 2) + math.Pow(0.15e-3, 2) + math.Pow(0.5*0.06e-3, 2))
+	if math.Abs(gap.RSS-want) > 1e-9*want {
+		t.Errorf("RSS %.15g m, want %.15g m", gap.RSS, want)
+	}
+	chk := sp.Checks[0]
+	if math.Abs(chk.RSS-want) > 1e-9*want {
+		t.Errorf("check's RSS %.15g m, want %.15g m", chk.RSS, want)
+	}
+	if chk.Ranking[0].Input.Name != "b" || chk.Ranking[len(chk.Ranking)-1].Input.Name != "d" {
+		t.Errorf("ranking starts %s and ends %s; want b first and d last", chk.Ranking[0].Input.Name, chk.Ranking[len(chk.Ranking)-1].Input.Name)
+	}
+}
+
+// The worst case found by corners against a hand enumeration of the
+// eight corners of three inputs.
+func TestWorstCaseByCorners(t *testing.T) {
+	calc := compile(t,
+		"U = 230 V ± 10 %",
+		"R = 40 ohm ± 5 %",
+		"L = 0.1 H ± 0.01 H",
+		"f = 50 Hz",
+		"Z = sqrt(R^2 + (2 * pi * f * L)^2)",
+		"I = U / Z",
+		"I_max = 5.3 A",
+		"check I <= I_max",
+	)
+	mustClean(t, calc)
+	chk := conditions.Run(calc).Spread.Checks[0]
+	worst := 0.0
+	for _, u := range []float64{207, 253} {
+		for _, r := range []float64{38, 42} {
+			for _, l := range []float64{0.09, 0.11} {
+				if i := u / math.Hypot(r, 2*math.Pi*50*l); i > worst {
+					worst = i
+				}
+			}
+		}
+	}
+	if chk.Method != "corners" || !near(chk.Worst.Left, worst, 1e-12) {
+		t.Errorf("worst case %g A by %s, want %g A by corners", chk.Worst.Left, chk.Method, worst)
+	}
+	if chk.Worst.Status != engine.Fail {
+		t.Errorf("at %g A against 5.3 A the worst corner must fail", worst)
+	}
+	if got := chk.WorstAt; !near(got[0], 253, 1e-12) || !near(got[1], 38, 1e-12) || !near(got[2], 0.09, 1e-12) {
+		t.Errorf("worst corner at %v, want U high, R low, L low", got)
+	}
+}
+
+// A value whose effect turns within its band is not bounded by its
+// corners: the interior point is found.
+func TestWorstCaseFindsInteriorTurn(t *testing.T) {
+	calc := compile(t,
+		"x = 1 ± 0.5",
+		"y = (x - 1)^2",
+		"check y <= 0.3",
+		"check 0.05 <= y",
+	)
+	mustClean(t, calc)
+	sp := conditions.Run(calc).Spread
+	lower := sp.Checks[1]
+	if lower.Method != "corners and interior points" || lower.Worst.Status != engine.Fail || math.Abs(lower.Worst.Right) > 1e-12 {
+		t.Errorf("worst %+v by %s; want y = 0 at x = 1, failing, found as an interior point", lower.Worst, lower.Method)
+	}
+}
+
+// The probability of failure of a check on one normal input against the
+// normal CDF (gonum's distuv).
+func TestProbabilityOfFailureAgainstNormalCDF(t *testing.T) {
+	calc := compile(t,
+		"V = 690 V ± σ 20 V",
+		"V_max = 720 V",
+		"check V <= V_max",
+		"sample 200000 times, seed 3",
+	)
+	mustClean(t, calc)
+	chk := conditions.Run(calc).Spread.Checks[0]
+	want := 1 - distuv.Normal{Mu: 690, Sigma: 20}.CDF(720)
+	if math.Abs(chk.Fail-want) > 0.005 {
+		t.Errorf("P(fail) = %.4f, want %.4f within 0.5 percentage points", chk.Fail, want)
+	}
+	if !(chk.FailLo < want && want < chk.FailHi) {
+		t.Errorf("the 95 %% interval %.4f–%.4f misses %.4f", chk.FailLo, chk.FailHi, want)
+	}
+}
+
+// Same sources, same figures: the samples do not depend on the cores.
+func TestSpreadIsDeterministic(t *testing.T) {
+	lines := []string{"a = 1 m ± 1 %", "b = 2 m ± σ 0.01 m", "c = a * b", "check c <= 2.04 m^2", "sample 30000 times, seed 5"}
+	one := conditions.Run(compile(t, lines...)).Spread
+	two := conditions.Run(compile(t, lines...)).Spread
+	if one.Checks[0].Fail != two.Checks[0].Fail || one.Results[0].Mean != two.Results[0].Mean || one.Results[0].SD != two.Results[0].SD {
+		t.Errorf("two runs differ: %+v and %+v", one.Checks[0], two.Checks[0])
+	}
+}
+
+// Bad conditions are located errors, and leave the rest of the sheet
+// alone.
+func TestBadConditions(t *testing.T) {
+	cases := []struct {
+		line, want string
+		at         string // the error's column is where this starts in line
+	}{
+		{"case hot: Z = 3 ohm", "Z is a result, not an input", "Z ="},
+		{"case hot: Q = 3 ohm", "unknown name Q", "Q ="},
+		{"case hot: R = 3 V", "R is resistance (Ω), but this value is voltage (V)", "3 V"},
+		{"sweep s: Z over 1 ohm .. 2 ohm by 0.1 ohm", "Z is a result, not an input", "Z over"},
+		{"sweep s: R over 1 ohm .. 1 ohm by 0.1 ohm", "the sweep has 1 point; a sweep needs two or more", "1 ohm .."},
+		{"sweep s: R over 1 ohm .. 2 ohm by 0.1 ohm in cold", "cold is not a case of the sheet", "cold"},
+		{"sweep s: U over 1 V .. 2 V by 0.1 V show Z", "Z does not depend on U", "Z"},
+		{"sweep s: R over 1 ohm .. 2 ohm by 0.1 ohm show U", "U is not a single result that a sweep can gather", "U"},
+		{"W = 2 * R ± 0.1 ohm", "a tolerance on a computed value", "±"},
+		{"W = 3 ohm ± σ -0.1 ohm", "a normal distribution needs σ above zero", "-0.1"},
+		{"W = 3 ohm ± 0.1 V", "the tolerance is voltage (V), but W is resistance (Ω)", "0.1 V"},
+		{"sample 2000000 times", "2000000 samples are more than the limit of 1000000", "2000000"},
+	}
+	for _, c := range cases {
+		calc := compile(t, "U = 24 V", "R = 3 ohm", "Z = R * 2", "I = U / R", c.line)
+		var found *diag.Diagnostic
+		for i := range calc.Diags {
+			if calc.Diags[i].Pos.Line == 6 {
+				found = &calc.Diags[i]
+			}
+		}
+		if found == nil {
+			t.Errorf("%s: no error on line 6; diags %v", c.line, calc.Diags)
+			continue
+		}
+		col := len([]rune(c.line[:strings.LastIndex(c.line, c.at)])) + 1
+		if !strings.Contains(found.Message, c.want) || found.Pos.Col != col || found.Hint == "" {
+			t.Errorf("%s: got %d:%d %s (hint %q); want column %d and %q", c.line, found.Pos.Line, found.Pos.Col, found.Message, found.Hint, col, c.want)
+		}
+		if r := calc.Result(calc.Lookup("I")); r.Status != engine.OK {
+			t.Errorf("%s: I = U/R is independent of the bad line but came out %v", c.line, r.Status)
+		}
+	}
+}
