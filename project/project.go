@@ -19,6 +19,7 @@ import (
 	"github.com/sheaf-calc/sheaf/band"
 	"github.com/sheaf-calc/sheaf/diag"
 	"github.com/sheaf-calc/sheaf/engine"
+	"github.com/sheaf-calc/sheaf/conditions"
 	"github.com/sheaf-calc/sheaf/fixity"
 	"github.com/sheaf-calc/sheaf/sheets"
 )
@@ -61,6 +62,9 @@ type Sheet struct {
 	rests []string // the files its page rests on, sorted (see RestsOn)
 
 	fixed map[*engine.Statement]fixity.Outcome
+	// Conditions is what the sheet's cases, sweeps and tolerances gave;
+	// nil for a sheet with none.
+	Conditions *conditions.Report
 
 	bandOnce sync.Once
 	bands    map[*engine.Statement]band.Band
@@ -72,6 +76,18 @@ func (s *Sheet) Band(st *engine.Statement) (band.Band, bool) {
 	s.bandOnce.Do(func() { s.bands = band.Find(s.Calc.Statements, s.Calc.Result) })
 	b, ok := s.bands[st]
 	return b, ok
+}
+
+// govern works the sheet out over its conditions, and shows each check
+// that a case or a sweep reaches where it governs.
+func govern(calc *engine.Calc) *conditions.Report {
+	r := conditions.Run(calc)
+	for _, st := range calc.Statements {
+		if g, ok := r.Governing(st); ok {
+			calc.Govern(st, g.Result)
+		}
+	}
+	return r
 }
 
 // Fixed reports whether a check of the sheet cannot fail (or cannot pass):
@@ -263,8 +279,9 @@ func assemble(root string, files map[string][]byte, docs []*sheets.Document, pag
 			calc := engine.CompileWith(sourceOf(doc), engine.Options{Resolve: used.recording(r.resolve), Take: t.find})
 			calc.Evaluate()
 			fixed := fixity.Find(calc) // while the program can still run
+			conds := govern(calc)
 			calc.Release()
-			s := &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path), Number: i + 1, fixed: fixed, uses: used.sorted(), takes: t.named[i]}
+			s := &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path), Number: i + 1, fixed: fixed, Conditions: conds, uses: used.sorted(), takes: t.named[i]}
 			s.rests = t.restsOn(i, s)
 			pkg.Sheets[i] = s
 			t.done(i, s)
