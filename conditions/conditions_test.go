@@ -320,3 +320,29 @@ func TestBadConditions(t *testing.T) {
 		}
 	}
 }
+
+// A sweep point and a Monte Carlo sample allocate nothing: the
+// allocations of a run do not grow with its points or samples.
+func TestNoAllocationPerPoint(t *testing.T) {
+	allocs := func(lines ...string) float64 {
+		calc := compile(t, lines...)
+		mustClean(t, calc)
+		return testing.AllocsPerRun(3, func() { conditions.Run(calc) })
+	}
+	base := []string{"U = 24 V", "R = 3 ohm", "I = U / R", "P = U * I", "check P <= 300 W"}
+	few := allocs(append(base, "sweep s: U over 1 V .. 100 V by 1 V show I, P")...)
+	many := allocs(append(base, "sweep s: U over 1 V .. 10000 V by 1 V show I, P")...)
+	// The curves' and checks' slices grow with the points; nothing else
+	// may.
+	if many-few > 8 {
+		t.Errorf("a sweep of 10000 points allocates %.0f times, one of 100 points %.0f: a point allocates", many, few)
+	}
+	tol := []string{"U = 24 V ± 5 %", "R = 3 ohm ± σ 0.05 ohm", "I = U / R", "P = U * I", "check P <= 220 W"}
+	small := allocs(append(tol, "sample 4096 times")...)
+	large := allocs(append(tol, "sample 40960 times")...)
+	// Each chunk of 4096 samples has its stream and tallies: ten chunks
+	// may allocate a few dozen times more, not once per sample.
+	if large-small > 200 {
+		t.Errorf("40960 samples allocate %.0f times, 4096 samples %.0f: a sample allocates", large, small)
+	}
+}
