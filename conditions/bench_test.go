@@ -80,7 +80,9 @@ func BenchmarkMonteCarlo100000(b *testing.B) {
 // An open-circuit characteristic of 100 points through a saturating
 // circuit, with a solve for the flux at every point; the target is 50 ms.
 func BenchmarkOpenCircuitCharacteristic(b *testing.B) {
-	at := func(s string) engine.CellSource { return engine.CellSource{Text: s, Pos: diag.Pos{File: "b.md", Line: 1, Col: 1}} }
+	at := func(s string) engine.CellSource {
+		return engine.CellSource{Text: s, Pos: diag.Pos{File: "b.md", Line: 1, Col: 1}}
+	}
 	bh := engine.TableSource{Name: "BH", Pos: diag.Pos{File: "b.md", Line: 1, Col: 1}, Header: []engine.CellSource{at("H [A/m]"), at("B [T]")}}
 	for _, row := range [][2]string{{"0", "0"}, {"100", "0.8"}, {"180", "1.2"}, {"400", "1.4"}, {"2000", "1.6"}, {"10000", "1.8"}, {"100000", "2.13"}} {
 		bh.Rows = append(bh.Rows, []engine.CellSource{at(row[0]), at(row[1])})
