@@ -58,6 +58,15 @@ func (r *Report) Governing(st *engine.Statement) (Governing, bool) {
 	return g, ok
 }
 
+// SpreadOf returns the tolerance figures, nil for a sheet without
+// tolerances.
+func (r *Report) SpreadOf() *Spread {
+	if r == nil {
+		return nil
+	}
+	return r.Spread
+}
+
 // Case returns a case's results, by the case statement.
 func (r *Report) Case(st *engine.Statement) *CaseRun {
 	if r == nil {

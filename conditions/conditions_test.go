@@ -346,3 +346,34 @@ func TestNoAllocationPerPoint(t *testing.T) {
 		t.Errorf("40960 samples allocate %.0f times, 4096 samples %.0f: a sample allocates", large, small)
 	}
 }
+
+// FuzzConditions compiles a sheet with cases, sweeps and tolerances from
+// the fuzz string and runs it over them: whatever the input, nothing
+// panics, and every governing condition is one the sheet declares.
+func FuzzConditions(f *testing.F) {
+	for _, seed := range []string{
+		"U = 24 V ± 5 %\nR = 3 ohm in 2.9 ohm .. 3.2 ohm\nI = U / R\ncheck I <= 9 A\ncase low: U = 20 V\ncase high: U = 28 V, R = 2.9 ohm\nsweep s: U over 18 V .. 30 V by 1 V show I\nsample 500 times, seed 4",
+		"x = 1 ± 0.5 triangular\ny = (x - 1)^2\ncheck y <= 0.3\ncheck 0.05 <= y\nz = 2 ± σ 0.1\nw = x * z\nsample 100 times",
+		"a = 1 m ± σ -1 m\nb = a in 2 m .. 1 m\ncase c: a = 1 s\nsweep d: b over 1 m .. 1 m by 1 m\nsweep e: a over [1 m, 2 m] in nope show b\nsample 0 times",
+		"t = 40 degC ± 5 K\nu = t + 10 K\ncheck u <= 60 degC\ncase hot: t = 50 degC\nsweep w: t over 20 degC .. 60 degC by 10 K show u",
+	} {
+		f.Add(seed)
+	}
+	f.Fuzz(func(t *testing.T, src string) {
+		lines := strings.Split(src, "\n")
+		if len(lines) > 40 || strings.Contains(src, "sample") && strings.ContainsAny(src, "0123456789") && len(src) > 400 {
+			return // keep each run short: the limits are tested on their own
+		}
+		calc := compile(t, lines...)
+		r := conditions.Run(calc)
+		for _, st := range calc.Statements {
+			g, ok := r.Governing(st)
+			if !ok {
+				continue
+			}
+			if g.Case == nil && g.Sweep == nil && g.Where != "as written" {
+				t.Fatalf("governing condition %q is neither as written, a case nor a sweep", g.Where)
+			}
+		}
+	})
+}

@@ -1,6 +1,7 @@
 package engine
 
 import (
+	"fmt"
 	"math"
 	"strconv"
 	"strings"
@@ -26,6 +27,11 @@ const (
 	// no sample statement.
 	DefaultSamples = 10_000
 	DefaultSeed    = 1
+	// MaxTolerances bounds the toleranced inputs of one sheet, and
+	// MaxConditionWork the statements evaluated over all its cases, sweep
+	// points and samples: about ten seconds of work.
+	MaxTolerances    = 64
+	MaxConditionWork = 500_000_000
 )
 
 // Condition is what a case, sweep or sample statement declares, once
@@ -484,7 +490,7 @@ func (s *Calc) checkConditions() {
 			sampling = st
 		}
 	}
-	cases := 0
+	cases, work := 0, 0
 	for _, st := range s.Statements {
 		if st.Verdict == Errored || st.Instance != "" {
 			continue
@@ -497,10 +503,16 @@ func (s *Calc) checkConditions() {
 			} else {
 				err = s.checkCase(st)
 			}
+			work += len(s.Statements)
 		case Sweep:
-			err = s.checkSweep(st, named)
+			if err = s.checkSweep(st, named); err == nil {
+				work += len(st.Cond.Points) * len(s.Statements)
+			}
 		default:
 			continue
+		}
+		if err == nil && work > MaxConditionWork {
+			err = errAt(st.NamePos, "use fewer points or cases, or split the sheet", "the sheet's cases and sweeps evaluate more than %d statements in all, the limit for one sheet", MaxConditionWork)
 		}
 		if err != nil {
 			s.fail(st, err)
@@ -508,9 +520,21 @@ func (s *Calc) checkConditions() {
 			st.Verdict = OK
 		}
 	}
-	if sampling != nil {
-		sampling.Verdict = OK
+	s.checkSampling(sampling)
+}
+
+// checkSampling bounds the Monte Carlo work of the sheet: its samples
+// times its statements.
+func (s *Calc) checkSampling(st *Statement) {
+	if st == nil {
+		return
 	}
+	if n := st.Cond.Samples; n*len(s.Statements) > MaxConditionWork {
+		s.fail(st, errAt(st.Pos, fmt.Sprintf("sample at most %d times on a sheet of %d statements, or split the sheet", MaxConditionWork/len(s.Statements), len(s.Statements)),
+			"%d samples of %d statements are more than %d evaluations, the limit for one sheet", n, len(s.Statements), MaxConditionWork))
+		return
+	}
+	st.Verdict = OK
 }
 
 func kindWord(k StmtKind) string {
