@@ -146,7 +146,7 @@ func reachedBySweep(calc *engine.Calc, st *engine.Statement, sweeps []*engine.St
 	ins, _ := calc.RestsOn(st)
 	for _, s := range sweeps {
 		for _, in := range ins {
-			if in == s.Cond.Input {
+			if in == s.Cond.Input && s.Cond.Governs {
 				return true
 			}
 		}

@@ -377,3 +377,24 @@ func FuzzConditions(f *testing.F) {
 		}
 	})
 }
+
+// A curve draws results against an input and governs no check: its
+// checks' worst point is reported for the table, and the check keeps
+// its verdict as written.
+func TestCurveGovernsNoCheck(t *testing.T) {
+	calc := compile(t,
+		"I = 2 A", "R = 5 ohm", "U = I * R", "U_max = 30 V", "check U <= U_max",
+		"curve vi: I over 0 A .. 10 A by 1 A show U",
+	)
+	mustClean(t, calc)
+	r := conditions.Run(calc)
+	if _, ok := r.Governing(statement(t, calc, "U <= U_max")); ok {
+		t.Error("a curve governs a check")
+	}
+	if c := r.Sweeps[0].Checks; len(c) != 1 || c[0].Worst != 10 || c[0].Fails != 4 {
+		t.Errorf("curve's checks %+v, want the worst at 10 A and 4 points above 30 V", c)
+	}
+	if st := statement(t, calc, "U <= U_max"); calc.Result(st).Status != engine.Pass {
+		t.Errorf("the check as written must hold")
+	}
+}

@@ -49,10 +49,14 @@ type Condition struct {
 	Points            []float64
 	In                *Statement
 	Show              []*Statement
-	showNames         []string
-	showPos           []diag.Pos
-	points            Expr
-	pointsPos         diag.Pos
+	// Governs is set for a sweep, whose checks must hold at every point,
+	// and not for a curve, which only draws its results against the
+	// input (a characteristic, such as the open-circuit one).
+	Governs   bool
+	showNames []string
+	showPos   []diag.Pos
+	points    Expr
+	pointsPos diag.Pos
 
 	// Samples and Seed are a sample statement's Monte Carlo count and seed.
 	Samples int
@@ -123,7 +127,7 @@ func caseName(r []rune, i int) (string, int) {
 // the word, a name and a colon.
 func conditionHead(r []rune, i, end int) bool {
 	w, j := word(r, i)
-	if (w != "case" && w != "sweep") || j >= end || !unicode.IsSpace(r[j]) {
+	if (w != "case" && w != "sweep" && w != "curve") || j >= end || !unicode.IsSpace(r[j]) {
 		return false
 	}
 	_, k := caseName(r, skipSpace(r, j))
@@ -147,7 +151,8 @@ func parseCase(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	return parseOverrides(st, t, j, end)
 }
 
-// parseSweep reads `sweep name: input over points [in case] [show a, b]`.
+// parseSweep reads `sweep name: input over points [in case] [show a, b]`,
+// or the same with curve for a characteristic that governs no check.
 func parseSweep(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	r := t.runes
 	st.Kind = Sweep
@@ -158,7 +163,8 @@ func parseSweep(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	st.Name, j = caseName(r, j)
 	j = skipSpace(r, j) + 1
 	st.Formula = strings.TrimSpace(string(r[j:end]))
-	c := &Condition{}
+	w, _ := word(r, i)
+	c := &Condition{Governs: w == "sweep"}
 	st.Cond = c
 	j = skipSpace(r, j)
 	c.InputName, j = qualifiedName(r, j)
