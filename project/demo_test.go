@@ -9,6 +9,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/sheaf-calc/sheaf/conditions"
 	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
 )
@@ -38,6 +39,50 @@ func checkPasses(t *testing.T, s *project.Sheet, formula string) {
 		}
 	}
 	t.Errorf("%s has no check %s", s.Path(), formula)
+}
+
+// governing returns where a check of the sheet governs.
+func governing(t *testing.T, s *project.Sheet, formula string) conditions.Governing {
+	t.Helper()
+	for _, st := range s.Calc.Statements {
+		if st.Kind == engine.Check && st.Formula == formula {
+			g, ok := s.Conditions.Governing(st)
+			if !ok {
+				t.Fatalf("%v: check %s has no governing condition", st.Pos, formula)
+			}
+			return g
+		}
+	}
+	t.Fatalf("%s has no check %s", s.Path(), formula)
+	return conditions.Governing{}
+}
+
+// caseValue returns a result's SI value in a load case of the sheet.
+func caseValue(t *testing.T, s *project.Sheet, name, result string) float64 {
+	t.Helper()
+	for _, c := range s.Conditions.Cases {
+		if c.Stmt.Name == name {
+			r := c.Results[s.Calc.Lookup(result).Index]
+			if r.Status != engine.OK {
+				t.Fatalf("%s in case %s: %v", result, name, r.Status)
+			}
+			return r.Value
+		}
+	}
+	t.Fatalf("%s has no case %s", s.Path(), name)
+	return 0
+}
+
+// sweepOf returns a sweep or curve of the sheet.
+func sweepOf(t *testing.T, s *project.Sheet, name string) conditions.SweepRun {
+	t.Helper()
+	for _, sw := range s.Conditions.Sweeps {
+		if sw.Stmt.Name == name {
+			return sw
+		}
+	}
+	t.Fatalf("%s has no sweep %s", s.Path(), name)
+	return conditions.SweepRun{}
 }
 
 // noCheck fails if the sheet still has a check with this formula.
@@ -119,8 +164,36 @@ func TestDemoTarnwickPoleBody(t *testing.T) {
 	if bPB >= 1.50 {
 		t.Errorf("pole body at %.3f T is above the knee 1.50 T of the plate's DC curve", bPB)
 	}
+	// Field forcing at 1.6 times the rated-load field current (72.8 A)
+	// is a load case of the same statements, and governs the pole body:
+	// the leakage grows with the field current, the gap flux is held at
+	// its rated-load value.
 	checkPasses(t, s, "B_pb <= B_i_knee")
-	checkPasses(t, s, "B_pb_ceil <= B_i_knee")
+	bCeil := (ed*phi0 + 0.11*phi0*72.8/24) / (0.150 * 0.320)
+	g := governing(t, s, "B_pb <= B_i_knee")
+	if g.Where != "case ceiling" {
+		t.Errorf("the pole body check governs at %q, want case ceiling", g.Where)
+	}
+	closeTo(t, "B_pb at ceiling", g.Result.Left, bCeil, 1e-9)
+	if g.Evaluated != 3 {
+		t.Errorf("the pole body check is worked out in %d conditions, want 3 (as written, no-load, ceiling)", g.Evaluated)
+	}
+	// At no load the gap carries the no-load flux and the armature none.
+	noLoad := caseValue(t, s, "no-load", "B_pb")
+	closeTo(t, "B_pb at no load", noLoad, (phi0+0.11*phi0)/(0.150*0.320), 1e-9)
+	// The magnetisation characteristic is solved at each of its 19
+	// points; at the open-circuit test's 24 A it is the saturating
+	// circuit's no-load flux.
+	occ := sweepOf(t, s, "occ")
+	if len(occ.X) != 19 || occ.Curves[0].Failed != 0 {
+		t.Fatalf("occ has %d points, %d without a value", len(occ.X), occ.Curves[0].Failed)
+	}
+	closeTo(t, "occ at 24 A", occ.Curves[0].Y[5], libraryValue(t, s, "sat.Phi"), 1e-9)
+	// Saturation: the curve's flux falls below the linear circuit's as the
+	// field current rises.
+	if last := len(occ.X) - 1; occ.Curves[0].Y[last] >= occ.Curves[1].Y[last] {
+		t.Errorf("at %g A the curve's flux %g Wb is not below the linear %g Wb", occ.X[last], occ.Curves[0].Y[last], occ.Curves[1].Y[last])
+	}
 	// The linear μ_r agrees with the whole DC curve of the pole plate
 	// within 1 % at no load: a cross-check that can fail.
 	if d := math.Abs(phi0/libraryValue(t, s, "sat.Phi") - 1); d > 0.01 || d == 0 {
