@@ -30,9 +30,9 @@ const libraryRelTol = 5e-3
 
 // libraryTemplates are the templates the library must hold.
 var libraryTemplates = []string{
-	"ac-winding-rules", "coil-emf", "dc-machine", "emf-waveform", "flux-linkage", "insulation-margin",
-	"magnetic-circuit", "magnetic-circuit-saturating", "motor-back-emf", "pm-machine-constants",
-	"speed-voltage", "synchronous-generator-load", "transformer-core",
+	"ac-winding-rules", "coil-emf", "dc-machine", "emf-waveform", "flux-linkage", "gapped-reactor",
+	"insulation-margin", "magnetic-circuit", "magnetic-circuit-saturating", "motor-back-emf",
+	"pm-machine-constants", "speed-voltage", "synchronous-generator-load", "transformer-core",
 }
 
 // rpm is one revolution per minute in SI (revolutions per second).
@@ -275,7 +275,7 @@ var libraryExamples = []libraryExample{
 // independentSheets have no published example; TestLibraryIndependent
 // compares them with calculations in Go.
 var independentSheets = []string{"flux-linkage-groups.md", "saturating-core.md", "solve-and-interp.md", "laminated-gapped-core.md", "pm-servo-constants.md",
-	"emf-waveform-closed-forms.md"}
+	"emf-waveform-closed-forms.md", "gapped-dc-link-choke.md"}
 
 // loadLibrary loads testdata/library and fails on any diagnostic.
 func loadLibrary(t *testing.T) (*project.Package, map[string]*project.Sheet) {
@@ -403,6 +403,11 @@ func TestLibraryPublishedExamples(t *testing.T) {
 			// No published example of a sampled flux linkage was recalled:
 			// TestEMFWaveformSinusoid and TestEMFWaveformTrapezoid compare it
 			// with closed forms and an independent calculation in Go.
+			continue
+		}
+		if name == "gapped-reactor" {
+			// No worked example of the fringing formula was recalled with its
+			// numbers: TestGappedReactorIndependent works it in Go.
 			continue
 		}
 		if name == "magnetic-circuit-saturating" {
