@@ -31,8 +31,9 @@ const libraryRelTol = 5e-3
 // libraryTemplates are the templates the library must hold.
 var libraryTemplates = []string{
 	"ac-winding-rules", "coil-emf", "dc-machine", "emf-waveform", "flux-linkage", "gapped-reactor",
-	"insulation-margin", "magnetic-circuit", "magnetic-circuit-saturating", "motor-back-emf",
-	"pm-machine-constants", "speed-voltage", "synchronous-generator-load", "transformer-core",
+	"insulation-margin", "magnetic-circuit", "magnetic-circuit-multisection",
+	"magnetic-circuit-saturating", "motor-back-emf", "pm-machine-constants", "speed-voltage",
+	"synchronous-generator-load", "transformer-core",
 }
 
 // rpm is one revolution per minute in SI (revolutions per second).
@@ -270,12 +271,32 @@ var libraryExamples = []libraryExample{
 			{"k_p7", "pitch factor, 5/6 pitch, 7th", 0.259, "Chapman 4th ed., App. B (from memory)"},              // book: 0.259
 		},
 	},
+	{
+		// Hughes, Electrical and Electronic Technology, 10th ed., chapter on
+		// magnetic circuits (from memory; the example's number not
+		// recalled): parts of 80 mm × 50 mm² and 60 mm × 90 mm², a gap of
+		// 0.5 mm × 150 mm², μr = 1300, 4000 turns, 0.30 T in the gap.
+		file:      "hughes10-series-gap.md",
+		templates: []string{"magnetic-circuit-multisection"},
+		source:    "Hughes, Electrical and Electronic Technology, 10th ed., magnetic circuits chapter (from memory)",
+		cite:      []string{"Hughes", "10th ed.", "magnetic circuits"},
+		want: []libraryWant{
+			{"hu.Phi_cw", "flux", 45e-6, ""},                                // book: Φ = 0.30 × 150 × 10⁻⁶ = 45 μWb
+			{"hu.B_1w", "flux density in part a", 0.90, ""},                 // book: 45 μWb / 50 mm² = 0.9 T
+			{"hu.H_1w", "field strength in part a", 551, ""},                // book: H_a ≈ 551 A/m
+			{"hu.H_2w", "field strength in part b", 306, ""},                // book: H_b ≈ 306 A/m
+			{"hu.F_gw", "magnetomotive force of the gap", 119.4, ""},        // book: H_gap ≈ 238 700 A/m × 0.5 mm
+			{"hu.F_w", "total magnetomotive force", 182, ""},                // book: about 182 A
+			{"hu.I_w", "coil current", 45.5e-3, ""},                         // book: about 45.5 mA
+			{"hu.B_g", "gap flux density at the printed current", 0.30, ""}, // book: 0.30 T (solve at 45.5 mA)
+		},
+	},
 }
 
 // independentSheets have no published example; TestLibraryIndependent
 // compares them with calculations in Go.
 var independentSheets = []string{"flux-linkage-groups.md", "saturating-core.md", "solve-and-interp.md", "laminated-gapped-core.md", "pm-servo-constants.md",
-	"emf-waveform-closed-forms.md", "gapped-dc-link-choke.md"}
+	"emf-waveform-closed-forms.md", "gapped-dc-link-choke.md", "clapper-brake-magnet.md"}
 
 // loadLibrary loads testdata/library and fails on any diagnostic.
 func loadLibrary(t *testing.T) (*project.Package, map[string]*project.Sheet) {
