@@ -13,9 +13,9 @@ import (
 // and with the same calculation written out in Go, independently of
 // sheaf's engine; its checks are made to fail.
 
-// TestEMFWaveformSinusoid compares a sinusoidal flux linkage with its closed
+// TestLibraryEMFWaveformSinusoid compares a sinusoidal flux linkage with its closed
 // form: λ = Λ·sin θ gives e = −ω·Λ·cos θ, E_rms = ω·Λ/√2 and no harmonics.
-func TestEMFWaveformSinusoid(t *testing.T) {
+func TestLibraryEMFWaveformSinusoid(t *testing.T) {
 	_, byPath := loadLibrary(t)
 	s := byPath["emf-waveform-closed-forms.md"]
 	allPass(t, s)
@@ -93,11 +93,11 @@ func dftAmplitude(y []float64, k int) float64 {
 	return 2 * math.Hypot(re, im) / float64(n)
 }
 
-// TestEMFWaveformTrapezoid compares the flat-topped EMF of the brushless DC
+// TestLibraryEMFWaveformTrapezoid compares the flat-topped EMF of the brushless DC
 // motor with the Fourier series of a trapezoid (a square wave's 4E/(πk)
 // times sin(kα/2)/(kα/2) for flanks α wide: the convolution theorem, worked
 // here) and with its own differences and discrete Fourier sums in Go.
-func TestEMFWaveformTrapezoid(t *testing.T) {
+func TestLibraryEMFWaveformTrapezoid(t *testing.T) {
 	_, byPath := loadLibrary(t)
 	s := byPath["emf-waveform-closed-forms.md"]
 	w := 2 * math.Pi * 2 * 3000.0 / 60
@@ -159,7 +159,7 @@ func TestEMFWaveformTrapezoid(t *testing.T) {
 }
 
 // The emf-waveform checks fail where a waveform or its sampling breaks them.
-func TestEMFWaveformChecksCanFail(t *testing.T) {
+func TestLibraryEMFWaveformChecksCanFail(t *testing.T) {
 	// A 10 % 5th harmonic in the flux linkage is a 50 % 5th in the EMF.
 	wantFail(t, checkStatus(t, starterWith(t, "emf-waveform", map[string]string{
 		"lambda": "0.20 Wb * (sin(0 deg .. 360 deg by 1 deg) + 0.1 * sin(5 * (0 deg .. 360 deg by 1 deg)))"})),
@@ -178,7 +178,7 @@ func TestEMFWaveformChecksCanFail(t *testing.T) {
 // Rule 4 and issue 13: the template carries the cautions, defers to local
 // codes, the standards and licensed practice, and states its sign
 // convention.
-func TestEMFWaveformCautions(t *testing.T) {
+func TestLibraryEMFWaveformCautions(t *testing.T) {
 	templateCautions(t, "emf-waveform")
 	data, _ := sheets.LibrarySource("emf-waveform")
 	for _, want := range []string{"Sign convention", "e = −dλ/dt", "u = +ω·dλ/dθ"} {

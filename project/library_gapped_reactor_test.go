@@ -10,10 +10,10 @@ import (
 // is worked again in Go, independently of sheaf's engine; the checks are
 // made to fail.
 
-// TestGappedReactorIndependent works the DC-link choke again in Go. No
+// TestLibraryGappedReactorIndependent works the DC-link choke again in Go. No
 // worked example of the fringing formula was recalled with its numbers;
 // the formula is McLyman's (3rd ed., from memory), the data are invented.
-func TestGappedReactorIndependent(t *testing.T) {
+func TestLibraryGappedReactorIndependent(t *testing.T) {
 	_, byPath := loadLibrary(t)
 	s := byPath["gapped-dc-link-choke.md"]
 	allPass(t, s)
@@ -46,7 +46,7 @@ func TestGappedReactorIndependent(t *testing.T) {
 }
 
 // The gapped-reactor checks fail where a design breaks them.
-func TestGappedReactorChecksCanFail(t *testing.T) {
+func TestLibraryGappedReactorChecksCanFail(t *testing.T) {
 	// 29 turns give 1.82 mH, short of 2 mH.
 	wantFail(t, checkStatus(t, starterWith(t, "gapped-reactor", map[string]string{"N": "29"})),
 		"L >= L_t")
@@ -60,4 +60,4 @@ func TestGappedReactorChecksCanFail(t *testing.T) {
 }
 
 // Rule 4: the template carries the cautions and states its limits.
-func TestGappedReactorCautions(t *testing.T) { templateCautions(t, "gapped-reactor") }
+func TestLibraryGappedReactorCautions(t *testing.T) { templateCautions(t, "gapped-reactor") }

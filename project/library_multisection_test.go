@@ -13,11 +13,11 @@ import (
 // bisection in Go and with the closed form of a linear series–parallel
 // circuit; the checks are made to fail.
 
-// TestMultisectionIndependent finds the gap flux of the brake magnet by
+// TestLibraryMultisectionIndependent finds the gap flux of the brake magnet by
 // bisection over gonum's piecewise-linear reading of the same curves, with
 // the leakage across the gap, open and closed, and the current for the
 // wanted flux in closed form.
-func TestMultisectionIndependent(t *testing.T) {
+func TestLibraryMultisectionIndependent(t *testing.T) {
 	_, byPath := loadLibrary(t)
 	s := byPath["clapper-brake-magnet.md"]
 	allPass(t, s)
@@ -85,10 +85,10 @@ func TestMultisectionIndependent(t *testing.T) {
 	}
 }
 
-// TestMultisectionLinearLeakage checks the leakage in a linear case against
+// TestLibraryMultisectionLinearLeakage checks the leakage in a linear case against
 // the closed form of the series–parallel circuit: with straight-line curves
 // of μ_r, F = Φ_g·R_g + σ·Φ_g·Σ l_k/(μ0·μ_r·A_k).
-func TestMultisectionLinearLeakage(t *testing.T) {
+func TestLibraryMultisectionLinearLeakage(t *testing.T) {
 	src := `---
 title: linear leakage
 ---
@@ -127,7 +127,7 @@ use m = lib/magnetic-circuit-multisection with N = N, I = I, Phi_w = Phi_w, g = 
 }
 
 // The multisection checks fail where a circuit breaks them.
-func TestMultisectionChecksCanFail(t *testing.T) {
+func TestLibraryMultisectionChecksCanFail(t *testing.T) {
 	// 1.8 mWb wanted in the gap is 1.89 T in the 9.5 cm² yoke, above 1.8 T.
 	wantFail(t, checkStatus(t, starterWith(t, "magnetic-circuit-multisection", map[string]string{"Phi_w": "1.8 mWb"})),
 		"max(B_1w, B_2w, B_3w) <= B_max")
@@ -138,4 +138,6 @@ func TestMultisectionChecksCanFail(t *testing.T) {
 }
 
 // Rule 4: the template carries the cautions and states its limits.
-func TestMultisectionCautions(t *testing.T) { templateCautions(t, "magnetic-circuit-multisection") }
+func TestLibraryMultisectionCautions(t *testing.T) {
+	templateCautions(t, "magnetic-circuit-multisection")
+}

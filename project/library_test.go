@@ -422,13 +422,13 @@ func TestLibraryPublishedExamples(t *testing.T) {
 		}
 		if name == "emf-waveform" {
 			// No published example of a sampled flux linkage was recalled:
-			// TestEMFWaveformSinusoid and TestEMFWaveformTrapezoid compare it
+			// TestLibraryEMFWaveformSinusoid and TestLibraryEMFWaveformTrapezoid compare it
 			// with closed forms and an independent calculation in Go.
 			continue
 		}
 		if name == "gapped-reactor" {
 			// No worked example of the fringing formula was recalled with its
-			// numbers: TestGappedReactorIndependent works it in Go.
+			// numbers: TestLibraryGappedReactorIndependent works it in Go.
 			continue
 		}
 		if name == "magnetic-circuit-saturating" {
