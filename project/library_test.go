@@ -291,6 +291,21 @@ var libraryExamples = []libraryExample{
 			{"hu.B_g", "gap flux density at the printed current", 0.30, ""}, // book: 0.30 T (solve at 45.5 mA)
 		},
 	},
+	{
+		// Theraja & Theraja, A Textbook of Electrical Technology, Vol. I,
+		// multicolour ed., magnetic circuits chapter (from memory; the
+		// example's number not recalled): a ring of 21 cm mean diameter
+		// and 10 cm², half cast steel (μr = 800) and half cast iron
+		// (μr = 166), two joints each worth a 0.2 mm gap, 0.8 mWb.
+		file:      "theraja1-composite-ring.md",
+		templates: []string{"magnetic-circuit-multisection"},
+		source:    "B. L. & A. K. Theraja, A Textbook of Electrical Technology, Vol. I, multicolour ed., magnetic circuits chapter (from memory)",
+		cite:      []string{"Theraja", "Vol. I,", "magnetic circuits"},
+		want: []libraryWant{
+			{"ring.F_w", "ampere-turns for 0.8 mWb", 1783, ""},                    // book: about 1783 AT
+			{"ring.Phi_g", "flux at the book's ampere-turns (solve)", 0.8e-3, ""}, // book: 0.8 mWb, the data, read back
+		},
+	},
 }
 
 // independentSheets have no published example; TestLibraryIndependent
