@@ -278,11 +278,21 @@ func TestDemoTarnwickPumpMotor(t *testing.T) {
 			hi = mid
 		}
 	}
-	closeTo(t, "n_low", libraryValue(t, s, "n_low"), (lo+hi)/2, 1e-6)
+	// The lowest battery voltage is a load case of the operating point,
+	// and governs the speed check.
+	closeTo(t, "n_op at low battery", caseValue(t, s, "low-battery", "n_op"), (lo+hi)/2, 1e-6)
 	if (lo+hi)/2*60 < 1150 {
 		t.Errorf("pump at %.0f rpm at the lowest voltage, below the 1150 rpm it needs", (lo+hi)/2*60)
 	}
-	checkPasses(t, s, "n_low >= n_req")
+	checkPasses(t, s, "n_op >= n_req")
+	if g := governing(t, s, "n_op >= n_req"); g.Where != "case low-battery" {
+		t.Errorf("the speed check governs at %q, want case low-battery", g.Where)
+	}
+	// In service the current is the higher: the current check governs as
+	// written.
+	if g := governing(t, s, "I_op <= I_a"); g.Where != "as written" || g.Result.Status != engine.Pass {
+		t.Errorf("the current check governs at %q (%v), want as written, holding", g.Where, g.Result.Status)
+	}
 }
 
 func TestDemoTarnwickInsulation(t *testing.T) {
