@@ -335,12 +335,10 @@ func parseTolerance(st *Statement, t *text, k, end int) *diag.Diagnostic {
 		tol.form, tol.Dist, from = "σ", Normal, j
 	}
 	stop := end
-	for _, d := range []Distribution{Uniform, Triangular, Normal} {
-		if at := topLevelWord(r, from, end, d.String()); at < stop && tol.form == "±" {
-			stop, tol.Dist = at, d
-			if skipSpace(r[:end], at+len(d.String())) != end {
-				return errAt(t.pos(at), toleranceExample, "unexpected text after %s", d)
-			}
+	if tol.form == "±" {
+		var err *diag.Diagnostic
+		if stop, err = distributionWord(tol, t, from, end); err != nil {
+			return err
 		}
 	}
 	e, err := toleranceValue(t, from, stop)
@@ -366,9 +364,29 @@ func parseLimits(tol *Tolerance, t *text, from, end int) *diag.Diagnostic {
 	if err != nil {
 		return err
 	}
-	b, err := toleranceValue(t, dots+2, end)
+	stop, err := distributionWord(tol, t, dots+2, end)
+	if err != nil {
+		return err
+	}
+	b, err := toleranceValue(t, dots+2, stop)
 	tol.a, tol.b = a, b
 	return err
+}
+
+// distributionWord finds a distribution written after a tolerance's
+// value in r[from:end], sets it, and returns where the value ends.
+func distributionWord(tol *Tolerance, t *text, from, end int) (int, *diag.Diagnostic) {
+	r := t.runes
+	stop := end
+	for _, d := range []Distribution{Uniform, Triangular, Normal} {
+		if at := topLevelWord(r, from, end, d.String()); at < stop {
+			stop, tol.Dist = at, d
+			if skipSpace(r[:end], at+len(d.String())) != end {
+				return stop, errAt(t.pos(at), toleranceExample, "unexpected text after %s", d)
+			}
+		}
+	}
+	return stop, nil
 }
 
 // toleranceValue parses one value of a tolerance.
@@ -444,6 +462,9 @@ func checkTolerance(st *Statement) *diag.Diagnostic {
 			return errAt(tol.a.Pos(), "write the limits lower .. upper, around the value written", "the limits do not enclose the input's value")
 		}
 		tol.Lo, tol.Hi = a, b
+		if tol.Dist == Normal {
+			tol.Sigma = (b - a) / 6 // the limits are ∓3σ about their middle
+		}
 	}
 	return nil
 }
