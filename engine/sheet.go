@@ -120,6 +120,7 @@ func CompileWith(src SheetSource, opt Options) *Calc {
 	}
 	s.checkSolveRelations()
 	s.linkAssumptions(append(src.Assumptions, x.assumptions...))
+	s.checkDrawings()
 	s.Diags.Sort()
 	return s
 }
