@@ -2,6 +2,7 @@ package chart
 
 import (
 	"math"
+	"slices"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -67,7 +68,7 @@ func lineFigure(spec LineSpec) (figure, error) {
 	p.Add(grid())
 	x0, x1, y0, y1 := spec.extent()
 	for i, cv := range spec.Curves {
-		l, err := plotter.NewLine(xys(cv.X, cv.Y))
+		l, err := plotter.NewLine(thin(xys(cv.X, cv.Y)))
 		if err != nil {
 			return figure{}, specError("curve %d: %v", i+1, err)
 		}
@@ -152,6 +153,43 @@ func (spec LineSpec) extent() (x0, x1, y0, y1 float64) {
 		x0, x1 = math.Min(x0, l.Value), math.Max(x1, l.Value)
 	}
 	return x0, x1, y0, y1
+}
+
+// thinFrom is the most points a curve is drawn with as given; a longer
+// one keeps, in each of thinBuckets runs of points, the first, the lowest,
+// the highest and the last, so that its peaks stay where they are and the
+// figure stays small.
+const (
+	thinFrom    = 1500
+	thinBuckets = 400
+)
+
+func thin(pts plotter.XYs) plotter.XYs {
+	if len(pts) <= thinFrom {
+		return pts
+	}
+	out := make(plotter.XYs, 0, 4*thinBuckets)
+	for b := range thinBuckets {
+		lo, hi := b*len(pts)/thinBuckets, (b+1)*len(pts)/thinBuckets
+		keep := []int{lo, hi - 1}
+		mn, mx := lo, lo
+		for i := lo; i < hi; i++ {
+			if pts[i].Y < pts[mn].Y {
+				mn = i
+			}
+			if pts[i].Y > pts[mx].Y {
+				mx = i
+			}
+		}
+		keep = append(keep, min(mn, mx), max(mn, mx))
+		slices.Sort(keep)
+		for i, k := range keep {
+			if i == 0 || k != keep[i-1] {
+				out = append(out, pts[k])
+			}
+		}
+	}
+	return out
 }
 
 func xys(x, y []float64) plotter.XYs {

@@ -2,8 +2,8 @@ package render
 
 import (
 	"html"
-	"strconv"
 	"math/cmplx"
+	"strconv"
 
 	"github.com/sheaf-calc/sheaf/chart"
 	"github.com/sheaf-calc/sheaf/engine"
