@@ -73,9 +73,9 @@ func (spec BarSpec) validate() error {
 	case len(spec.Values) > 1000:
 		return specError("%d harmonics; one spectrum shows at most 1000", len(spec.Values))
 	case firstNotFinite(spec.Values) >= 0:
-		return specError("the value of harmonic %d is not a finite number", spec.Orders[firstNotFinite(spec.Values)])
+		return specError("the value of harmonic %d is not a finite number within ±1e300", spec.Orders[firstNotFinite(spec.Values)])
 	case !finite(spec.LabelFrom):
-		return specError("the smallest labelled bar is not a finite number")
+		return specError("the smallest labelled bar is not a finite number within ±1e300")
 	}
 	for i, k := range spec.Orders {
 		if k < 1 || i > 0 && k <= spec.Orders[i-1] {

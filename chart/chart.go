@@ -91,17 +91,23 @@ func specError(format string, args ...any) error {
 	return fmt.Errorf("%w: %s", errSpec, fmt.Sprintf(format, args...))
 }
 
-// finite reports the first value that is NaN or infinite, or -1.
+// MaxMagnitude is the largest value a figure draws: spans of values
+// beyond it overflow float64, and the axes with them.
+const MaxMagnitude = 1e300
+
+// firstNotFinite reports the first value that is NaN, infinite or beyond
+// MaxMagnitude, or -1.
 func firstNotFinite(vs []float64) int {
 	for i, v := range vs {
-		if math.IsNaN(v) || math.IsInf(v, 0) {
+		if !finite(v) {
 			return i
 		}
 	}
 	return -1
 }
 
-func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
+// finite reports whether v is a number a figure can draw.
+func finite(v float64) bool { return !math.IsNaN(v) && math.Abs(v) <= MaxMagnitude }
 
 // size returns the figure's size in points, the defaults for zeros.
 func size(w, h float64) (vg.Length, vg.Length, error) {

@@ -107,9 +107,9 @@ func (spec LineSpec) validate() error {
 		case len(cv.X) < 2:
 			return specError("curve %d has %d points; a curve needs at least 2", i+1, len(cv.X))
 		case firstNotFinite(cv.X) >= 0:
-			return specError("curve %d: x value %d is not a finite number", i+1, firstNotFinite(cv.X)+1)
+			return specError("curve %d: x value %d is not a finite number within ±1e300", i+1, firstNotFinite(cv.X)+1)
 		case firstNotFinite(cv.Y) >= 0:
-			return specError("curve %d: y value %d is not a finite number", i+1, firstNotFinite(cv.Y)+1)
+			return specError("curve %d: y value %d is not a finite number within ±1e300", i+1, firstNotFinite(cv.Y)+1)
 		}
 		n += len(cv.X)
 	}
@@ -118,12 +118,12 @@ func (spec LineSpec) validate() error {
 	}
 	for _, l := range append(append([]Limit(nil), spec.YLimits...), spec.XLimits...) {
 		if !finite(l.Value) {
-			return specError("limit %q is not a finite number", l.Label)
+			return specError("limit %q is not a finite number within ±1e300", l.Label)
 		}
 	}
 	for _, m := range spec.Marks {
 		if !finite(m.X) || !finite(m.Y) {
-			return specError("mark %q is not at a finite point", m.Label)
+			return specError("mark %q is not at a finite point within ±1e300", m.Label)
 		}
 	}
 	return nil

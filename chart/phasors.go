@@ -191,7 +191,7 @@ func (spec PhasorSpec) validate() error {
 	for i, a := range spec.Arrows {
 		for _, v := range []float64{real(a.Tail), imag(a.Tail), real(a.Value), imag(a.Value)} {
 			if !finite(v) {
-				return specError("phasor %d (%s) is not a finite number", i+1, a.Label)
+				return specError("phasor %d (%s) is not a finite number within ±1e300", i+1, a.Label)
 			}
 		}
 		big = math.Max(big, cmplx.Abs(a.Value))
