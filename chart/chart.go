@@ -83,12 +83,12 @@ func (a Axis) Label() string {
 	return a.Quantity + " / " + u
 }
 
-// errSpec wraps every problem with a spec, so callers can tell a bad
-// input from a failure to draw.
-var errSpec = errors.New("chart")
+// ErrSpec wraps every problem with a spec (errors.Is), so callers can
+// tell a bad input from a failure to draw.
+var ErrSpec = errors.New("chart")
 
 func specError(format string, args ...any) error {
-	return fmt.Errorf("%w: %s", errSpec, fmt.Sprintf(format, args...))
+	return fmt.Errorf("%w: %s", ErrSpec, fmt.Sprintf(format, args...))
 }
 
 // MaxMagnitude is the largest value a figure draws: spans of values
@@ -152,7 +152,7 @@ func newPlot(x, y string) *plot.Plot {
 	return p
 }
 
-// grid is a faint grid at the major ticks, in the page's rule colour.
+// grid is a faint grid at the major ticks, in the page's band colour.
 func grid() *gridLines {
 	return &gridLines{sty: draw.LineStyle{Color: band, Width: vg.Points(0.5)}}
 }

@@ -209,7 +209,7 @@ func TestBadSpecsAreErrors(t *testing.T) {
 		"too many":    {Curves: []Curve{{X: make([]float64, MaxPoints+1), Y: make([]float64, MaxPoints+1)}}},
 	}
 	for name, spec := range lines {
-		if _, err := Line(spec); !errors.Is(err, errSpec) {
+		if _, err := Line(spec); !errors.Is(err, ErrSpec) {
 			t.Errorf("Line, %s: error %v, want a spec error", name, err)
 		}
 	}
@@ -222,7 +222,7 @@ func TestBadSpecsAreErrors(t *testing.T) {
 		"out of turn": {Orders: []int{1, 3, 2}, Values: []float64{1, 1, 1}},
 	}
 	for name, spec := range bars {
-		if _, err := Bars(spec); !errors.Is(err, errSpec) {
+		if _, err := Bars(spec); !errors.Is(err, ErrSpec) {
 			t.Errorf("Bars, %s: error %v, want a spec error", name, err)
 		}
 	}
@@ -233,7 +233,7 @@ func TestBadSpecsAreErrors(t *testing.T) {
 		"NaN tail": {Arrows: []Arrow{{Value: 1, Tail: complex(0, math.Inf(-1))}}},
 	}
 	for name, spec := range phasors {
-		if _, err := Phasors(spec); !errors.Is(err, errSpec) {
+		if _, err := Phasors(spec); !errors.Is(err, ErrSpec) {
 			t.Errorf("Phasors, %s: error %v, want a spec error", name, err)
 		}
 	}
