@@ -29,6 +29,7 @@ func FuzzPipeline(f *testing.F) {
 		"```sheaf\nx = 1e308 * 10\ny = -1e-320\nz = 0\ncheck z == 0\ncheck y >= -1 m\n```\n",
 		"Table T: turns\n\n| k [1] | phi [mWb] |\n|---:|---:|\n| 1 | 2.4 |\n| 2 | 2.3 |\n\n```sheaf\nphi_k = [2.41 mWb, 2.38 mWb,\n    2.30 mWb] ; flux per turn group ; source: field plot FP-3\nlambda = sum(phi_k) + sum(T.phi)\nth [deg] = 0 deg .. 360 deg by 10 deg\ne = cos(th) * lambda / 1 s\ncheck max(e) <= 1 V\nk = 1 when lambda > 1 Wb else phi_k[2] / lambda\n```\n",
 		"```sheaf\nk_p(nu) = sin(nu * y * pi / 2) ; pitch factor\ny = 7 / 9\nw = k_p([1, 5, 7])\nf(x) = f(x) + 1\nz = f(2)\n```\n",
+		"```sheaf\nth [deg] = 0 deg .. 360 deg by 10 deg\ns = series(sin(th) * 2 V, th) ; draw: spectrum\nr = series(th / 1 deg * 1 V, th) ; draw: spectrum\nV = 1 V ∠ 0 deg\nU = 2j V ; draw: phasors V, U, E ; draw: phasors V, Q\nE = V + U ; draw: pie\n```\n",
 	} {
 		f.Add([]byte(seed))
 	}

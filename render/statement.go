@@ -59,6 +59,7 @@ func writeStatement(w sink, s *project.Sheet, st *engine.Statement, digits int) 
 	}
 	writeSteps(w, steps)
 	writeListTable(w, st, res, digits)
+	writeFigures(w, s, st, res, digits)
 	writeNote(w, calc, st)
 	w.WriteString("</div>\n")
 }
