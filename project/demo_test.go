@@ -538,3 +538,43 @@ func TestDemoTarnwickWaveformAndExcitation(t *testing.T) {
 		t.Error("sheet 06 lost its caution")
 	}
 }
+
+// Sheet 05 carries the tolerances of its insulation inputs, and each
+// margin check reports its probability of failure.
+func TestDemoTarnwickInsulationTolerances(t *testing.T) {
+	s := loadDemo(t, "tarnwick-weir")["05-stator-insulation.md"]
+	sp := s.Conditions.SpreadOf()
+	if sp == nil || sp.Samples != 20000 || sp.Seed != 2417 {
+		t.Fatalf("sheet 05's spread %+v, want 20000 samples with seed 2417", sp)
+	}
+	byFormula := map[string]conditions.CheckSpread{}
+	for _, c := range sp.Checks {
+		byFormula[c.Stmt.Formula] = c
+	}
+	for _, f := range []string{"k_m * ins.U_tt <= sqrt(2) * U_w_tt_ac", "k_m * ins.U_tt_s <= U_w_tt", "k_m * U_s <= U_w_gw"} {
+		if _, ok := byFormula[f]; !ok {
+			t.Errorf("margin check %s has no probability of failure", f)
+		}
+	}
+	// The earth-fault stress rests on the rated voltage, the voltage
+	// factor of the grid agreement and the test rule, none of which
+	// spreads: it has no figures under tolerances.
+	if _, ok := byFormula["k_m * ins.U_pg <= ins.U_test"]; ok {
+		t.Error("the earth-fault check rests on no toleranced input, yet has tolerance figures")
+	}
+	gw := byFormula["k_m * U_s <= U_w_gw"]
+	// Worst corner: the surge at the top of the study's ± 10 %, the
+	// withstand at its mean less 3σ.
+	closeTo(t, "worst surge", gw.Worst.Left, 1.5*2.4e3*1.1, 1e-12)
+	closeTo(t, "worst withstand", gw.Worst.Right, 9.5e3-3*0.4e3, 1e-12)
+	// 3.96 kV against a withstand of 9.5 kV with σ = 0.4 kV: no sample
+	// fails, and the 95 % Wilson bound of 0 in n is z²/(n + z²) (Wilson,
+	// J. Am. Stat. Assoc. 22, 1927; from memory).
+	z := 1.959963984540054
+	if gw.Fail != 0 || math.Abs(gw.FailHi-z*z/(20000+z*z)) > 1e-12 {
+		t.Errorf("ground wall P(fail) %g, upper bound %g; want 0 and %g", gw.Fail, gw.FailHi, z*z/(20000+z*z))
+	}
+	// The RSS of a margin with two inputs: the surge's half-band times
+	// k_m, and the withstand's 3σ.
+	closeTo(t, "RSS", gw.RSS, math.Hypot(1.5*0.24e3, 3*0.4e3), 1e-9)
+}

@@ -437,6 +437,9 @@ func jsonSheet(s *project.Sheet, opt Options) JSONSheet {
 			js.Functions = append(js.Functions, jsonFunction(st))
 			continue
 		}
+		if st.Kind == engine.Case || st.Kind == engine.Sweep || st.Kind == engine.Sampling {
+			continue // conditions have no value of their own
+		}
 		js.Statements = append(js.Statements, jsonStatement(s, st, digits))
 	}
 	return js
