@@ -398,3 +398,30 @@ func TestCurveGovernsNoCheck(t *testing.T) {
 		t.Errorf("the check as written must hold")
 	}
 }
+
+// A template's cases set its instance's inputs, so every sheet that uses
+// the template shares them: a package-wide set of supply cases.
+func TestCasesFromATemplate(t *testing.T) {
+	b := engine.SourceBlock{Fence: diag.Pos{File: "a.md", Line: 1, Col: 1}}
+	for i, l := range []string{"use dc = _templates/supply", "R = 11 ohm", "I = dc.U / R", "I_max = 21 A", "check I <= I_max"} {
+		b.Lines = append(b.Lines, engine.SourceLine{Text: l, Pos: diag.Pos{File: "a.md", Line: i + 2, Col: 1}})
+	}
+	tb := engine.SourceBlock{Fence: diag.Pos{File: "_templates/supply.md", Line: 4, Col: 1}}
+	for i, l := range []string{"U = 220 V ; supply ; source: spec", "case low-battery: U = 187 V", "case boost: U = 242 V"} {
+		tb.Lines = append(tb.Lines, engine.SourceLine{Text: l, Pos: diag.Pos{File: "_templates/supply.md", Line: i + 5, Col: 1}})
+	}
+	resolve := func(name, from string) (engine.SheetSource, string, error) {
+		return engine.SheetSource{Path: "_templates/supply.md", Blocks: []engine.SourceBlock{tb}}, "_templates/supply.md", nil
+	}
+	calc := engine.CompileWith(engine.SheetSource{Path: "a.md", Blocks: []engine.SourceBlock{b}}, engine.Options{Resolve: resolve})
+	calc.Evaluate()
+	mustClean(t, calc)
+	r := conditions.Run(calc)
+	if len(r.Cases) != 2 || r.Cases[1].Stmt.Name != "dc.boost" {
+		t.Fatalf("cases %+v, want the template's two, named for the instance", r.Cases)
+	}
+	g, ok := r.Governing(statement(t, calc, "I <= I_max"))
+	if !ok || g.Where != "case dc.boost" || g.Result.Status != engine.Fail {
+		t.Fatalf("governing %+v, want case dc.boost failing (242 V / 11 Ω = 22 A)", g)
+	}
+}

@@ -499,8 +499,8 @@ func (s *Calc) checkConditions() {
 	named := map[string]*Statement{}
 	var sampling *Statement
 	for _, st := range s.Statements {
-		if st.Verdict == Errored || st.Instance != "" {
-			continue
+		if st.Verdict == Errored || st.Instance != "" && st.Kind == Sampling {
+			continue // a template's sample count is the using sheet's to set
 		}
 		switch st.Kind {
 		case Case, Sweep:
@@ -519,7 +519,7 @@ func (s *Calc) checkConditions() {
 	}
 	cases, work := 0, 0
 	for _, st := range s.Statements {
-		if st.Verdict == Errored || st.Instance != "" {
+		if st.Verdict == Errored {
 			continue
 		}
 		var err *diag.Diagnostic
