@@ -134,6 +134,7 @@ type JSONTable struct {
 	Name    string       `json:"name"`
 	Caption string       `json:"caption"`
 	Pos     diag.Pos     `json:"pos"`
+	File    string       `json:"file,omitempty"` // the CSV file the rows were read from
 	Columns []JSONColumn `json:"columns"`
 	Error   *JSONDiag    `json:"error,omitempty"`
 }
@@ -421,7 +422,7 @@ func jsonSheet(s *project.Sheet, opt Options) JSONSheet {
 	digits := s.Digits(opt.Digits)
 	js := JSONSheet{Path: s.Path(), Page: s.Page, Title: s.Title(), Meta: s.Doc.Meta, Tables: []JSONTable{}, Statements: []JSONStatement{}}
 	for _, t := range s.Calc.Tables {
-		jt := JSONTable{Name: t.Name, Caption: t.Caption, Pos: t.Pos, Columns: []JSONColumn{}}
+		jt := JSONTable{Name: t.Name, Caption: t.Caption, Pos: t.Pos, File: t.File, Columns: []JSONColumn{}}
 		if t.Err != nil {
 			d := jsonDiag(*t.Err)
 			jt.Error = &d
