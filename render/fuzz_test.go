@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"testing"
 
+	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
 	"github.com/sheaf-calc/sheaf/render"
 )
@@ -78,6 +79,47 @@ func FuzzPipeline(f *testing.F) {
 		}
 		if len(pkg.Diags) > 0 && errs.Len() == 0 {
 			t.Fatal("diagnostics missing from the terminal")
+		}
+	})
+}
+
+// FuzzCSVTable reads arbitrary bytes as the CSV file a sheet's table
+// names. No file may make the pipeline panic; the pages, the JSON and the
+// terminal report are made whatever the file holds, and an error in the
+// file is reported in it.
+func FuzzCSVTable(f *testing.F) {
+	for _, seed := range []string{
+		"H [A/m],B [T]\n0,0\n250,0.40\n400,0.70\n",
+		"H [A/m],B [T]\n0,0\n250,x\n",
+		"H [A/m],B [Tx]\n0,0\n1,1\n",
+		"H [A/m],B [T]\n0,0\n1,\"2\n",
+		"H [A/m],B [T]\n0,0\n1,2,3\n",
+		"H [A/m]\n0\n1\n",
+		"\xef\xbb\xbf# demo\r\nH [A/m],B [T]\r\n0,0\r\n400,0.7\r\n",
+		"",
+	} {
+		f.Add([]byte(seed))
+	}
+	sheet := []byte("Table BH from data/bh.csv: curve\n\n```sheaf\nH = 300 A/m ; field ; source: demo\nB [T] = interp(BH.B, BH.H, H)\n```\n")
+	f.Fuzz(func(t *testing.T, data []byte) {
+		pkg := project.FromFiles("pkg", map[string][]byte{"s.md": sheet, "data/bh.csv": data})
+		opt := render.Options{Version: "fuzz"}
+		if _, err := render.HTML(pkg, opt); err != nil {
+			t.Fatalf("HTML: %v", err)
+		}
+		js, err := render.JSON(pkg, opt)
+		if err != nil || !json.Valid(js) {
+			t.Fatalf("JSON: %v", err)
+		}
+		var out, errs bytes.Buffer
+		render.Terminal(pkg, opt, &out, &errs)
+		for _, d := range pkg.Diags {
+			if d.Pos.File != "s.md" && d.Pos.File != "data/bh.csv" {
+				t.Fatalf("diagnostic in no file of the package: %s", d.Error())
+			}
+		}
+		if r := pkg.Sheets[0].Calc.Result(pkg.Sheets[0].Calc.Lookup("B")); r.Status == engine.OK && len(pkg.Diags) > 0 && pkg.Sheets[0].Calc.Tables[0].Err != nil {
+			t.Fatal("B evaluated from a table with an error")
 		}
 	})
 }
