@@ -76,7 +76,7 @@ func ReadCSV(path string, data []byte) (*CSVTable, *diag.Diagnostic) {
 					msg += fmt.Sprintf(" (the row starts on line %d)", pe.StartLine)
 				}
 				return nil, &diag.Diagnostic{Pos: at(pe.Line, charCol(pe.Line, pe.Column)), Message: msg,
-					Hint:    `separate cells with commas; a cell with a comma or a quote is written in double quotes, with "" for a quote inside`}
+					Hint: `separate cells with commas; a cell with a comma or a quote is written in double quotes, with "" for a quote inside`}
 			}
 			return nil, &diag.Diagnostic{Pos: at(1, 1), Message: "cannot read the file as CSV: " + err.Error()}
 		}
