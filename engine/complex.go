@@ -120,9 +120,13 @@ func inferPolar(n *Binary) *diag.Diagnostic {
 			return errAt(side.Pos(), polarHint(n, "write magnitude ∠ angle with two real values, such as 230 V ∠ -30 deg"),
 				"both sides of ∠ are real values; this is a phasor already")
 		}
-		if st.IsList() {
-			return errAt(side.Pos(), "name each phasor as its own statement", "a list of phasors is not supported")
+		if st.IsSeries() {
+			return errAt(side.Pos(), "write the magnitudes or the angles as a list", "a side of ∠ is a series; a series holds real values")
 		}
+	}
+	if x.IsList() && y.IsList() && x.Len != y.Len {
+		return errAt(n.Pos(), "give the magnitudes and the angles the same number of elements",
+			"cannot pair %d magnitudes with %d angles", x.Len, y.Len)
 	}
 	if x.Kind.IsAbsTemp() {
 		return errAt(n.X.Pos(), "write a temperature difference in K", "an absolute temperature cannot be a phasor's magnitude")
@@ -139,6 +143,10 @@ func inferPolar(n *Binary) *diag.Diagnostic {
 		return errAt(n.Y.Pos(), "check the powers of the angles after ∠", "the angle of a phasor is %s, not an angle", y.Kind)
 	}
 	*t = Type{Domain: Complex, Dim: x.Dim, Kind: x.Kind, Const: x.Const && y.Const}
+	if x.IsList() || y.IsList() {
+		// A list of magnitudes or of angles gives a list of phasors.
+		t.Shape, t.Len, t.Const = List, max(x.Len, y.Len), false
+	}
 	if t.Const {
 		z := cmplx.Rect(x.Val, y.Val)
 		t.Val, t.Im = real(z), imag(z)

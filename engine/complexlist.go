@@ -95,11 +95,14 @@ func compileComplexList(e Expr) evalFn {
 			za, zb := a.ready(v), b.ready(v)
 			for i := 0; i < n; i++ {
 				p, q := a.elem(v, i, za), b.elem(v, i, zb)
-				if op == "/" && q == 0 {
+				switch {
+				case op == "∠": // two real values: magnitude and angle
+					put(v, i, cmplx.Rect(real(p), real(q)))
+				case op == "/" && q == 0:
 					put(v, i, cmplx.NaN()) // diagnose says which element
-					continue
+				default:
+					put(v, i, foldComplex(op, p, q))
 				}
-				put(v, i, foldComplex(op, p, q))
 			}
 			return 0
 		}

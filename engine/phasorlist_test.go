@@ -78,6 +78,7 @@ func TestPhasorListsAgainstCmplx(t *testing.T) {
 		"a = z + z", "b = z - 1 V", "c = 2 * z", "d = z / Z", "e = Z * z / r", "f = -z", "g = r * 1 V - z",
 		"h = z * (1 ∠ 120 deg)", "m = abs(z)", "p [rad] = arg(z)", "re = Re(z)", "im = Im(z)", "w = conj(z)",
 		"s = sum(z)", "u = mean(z)", "n = count(z)", "x = z[2]", "y = z[k]", "q = abs(sum(z * conj(z)))",
+		"ang [deg] = [0 deg, -120 deg, 120 deg]", "t = 6.35 kV ∠ ang", "o = [1 V, 2 V] ∠ [10 deg, 20 deg]", "l = [1 V, 2 V] ∠ 0.5",
 	}
 	want := map[string][]complex128{
 		"a": each(func(_ int, x complex128) complex128 { return x + x }),
@@ -93,6 +94,8 @@ func TestPhasorListsAgainstCmplx(t *testing.T) {
 		"im": real(func(x complex128) float64 { return imagOrReal(x, true) }),
 		"w":  each(func(_ int, x complex128) complex128 { return cmplx.Conj(x) }),
 		"s":  {sum}, "u": {sum / 4}, "n": {4}, "x": {z[1]}, "y": {z[2]},
+		"t":  {cmplx.Rect(6350, 0), cmplx.Rect(6350, -120*deg), cmplx.Rect(6350, 120*deg)},
+		"o":  {cmplx.Rect(1, 10*deg), cmplx.Rect(2, 20*deg)}, "l": {cmplx.Rect(1, 0.5), cmplx.Rect(2, 0.5)},
 		"q": {func() complex128 {
 			var s float64
 			for _, x := range z {
@@ -195,7 +198,8 @@ func TestPhasorListErrors(t *testing.T) {
 			[]string{"U = [230 V ∠ 0 deg, 230 V ∠ -120 deg]", "a = max(U)", "b = min(U)", "c = U^2", "check U <= 1 V",
 				"d = [1 V + 1j V, 2 A]", "e = rms(U)", "f = U / [1, 0]", "g = U[3]", "h = sqrt(U)",
 				"s = series(U, [0 s, 1 s])", "m = max(abs(U))", "n = product(U)", "x = [1, 2] * 1 s", "y = series(Re(U), x)",
-				"k = 2", "i = U[k + 1]", "j = U + [1 V, 2 V, 3 V]"},
+				"k = 2", "i = U[k + 1]", "j = U + [1 V, 2 V, 3 V]", "o = [1 V, 2 V] ∠ [1 rad, 2 rad, 3 rad]",
+				"p = [1 V, 2 V] ∠ [1 m, 2 m]", "q = 1 V ∠ (2 * [1 Hz, 2 Hz] * 1 s)"},
 			map[string]string{
 				"U":              "ok [230.0, 230.0] V",
 				"a":              "error 3:9 max needs an order, and phasors have none",
@@ -213,6 +217,9 @@ func TestPhasorListErrors(t *testing.T) {
 				"y":              "error 16:5 a series of 2 samples is too short…",
 				"i":              "error 18:9 index 3 is out of range: the list has 2 elements",
 				"j":              "error 19:7 cannot add lists of different lengths: 2 and 3 elements",
+				"o":              "error 20:16 cannot pair 2 magnitudes with 3 angles",
+				"p":              "error 21:18 the angle of a phasor is length (m), not an angle",
+				"q":              "error 22:29 the angle of a phasor counts cycles, not radians: a factor 2π is missing",
 			}},
 	} {
 		c.run(t, engine.Options{})
