@@ -29,6 +29,7 @@ func FuzzPipeline(f *testing.F) {
 		"```sheaf\nc_1 = c_2\nc_2 = c_1\ncheck 1 < 2 < 3\n```\n",
 		"```sheaf\nx = 1e308 * 10\ny = -1e-320\nz = 0\ncheck z == 0\ncheck y >= -1 m\n```\n",
 		"Table T: turns\n\n| k [1] | phi [mWb] |\n|---:|---:|\n| 1 | 2.4 |\n| 2 | 2.3 |\n\n```sheaf\nphi_k = [2.41 mWb, 2.38 mWb,\n    2.30 mWb] ; flux per turn group ; source: field plot FP-3\nlambda = sum(phi_k) + sum(T.phi)\nth [deg] = 0 deg .. 360 deg by 10 deg\ne = cos(th) * lambda / 1 s\ncheck max(e) <= 1 V\nk = 1 when lambda > 1 Wb else phi_k[2] / lambda\n```\n",
+		"```sheaf\nV = 6.35 kV\nU = V ∠ [0 deg, -120 deg, 120 deg]\nS = sum(U)\nz = [1 V + 2j V, 3 V] / [1, 0]\nm = max(U)\nW = U * conj(U) - 1 V^2\nx = U[2] + mean(U)\na [deg] = arg(U)\n```\n",
 		"```sheaf\nk_p(nu) = sin(nu * y * pi / 2) ; pitch factor\ny = 7 / 9\nw = k_p([1, 5, 7])\nf(x) = f(x) + 1\nz = f(2)\n```\n",
 	} {
 		f.Add([]byte(seed))
