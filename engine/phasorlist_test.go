@@ -94,8 +94,8 @@ func TestPhasorListsAgainstCmplx(t *testing.T) {
 		"im": real(func(x complex128) float64 { return imagOrReal(x, true) }),
 		"w":  each(func(_ int, x complex128) complex128 { return cmplx.Conj(x) }),
 		"s":  {sum}, "u": {sum / 4}, "n": {4}, "x": {z[1]}, "y": {z[2]},
-		"t":  {cmplx.Rect(6350, 0), cmplx.Rect(6350, -120*deg), cmplx.Rect(6350, 120*deg)},
-		"o":  {cmplx.Rect(1, 10*deg), cmplx.Rect(2, 20*deg)}, "l": {cmplx.Rect(1, 0.5), cmplx.Rect(2, 0.5)},
+		"t": {cmplx.Rect(6350, 0), cmplx.Rect(6350, -120*deg), cmplx.Rect(6350, 120*deg)},
+		"o": {cmplx.Rect(1, 10*deg), cmplx.Rect(2, 20*deg)}, "l": {cmplx.Rect(1, 0.5), cmplx.Rect(2, 0.5)},
 		"q": {func() complex128 {
 			var s float64
 			for _, x := range z {
