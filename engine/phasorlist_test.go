@@ -62,7 +62,7 @@ func TestPhasorListsAgainstCmplx(t *testing.T) {
 		}
 		return out
 	}
-	real := func(f func(complex128) float64) []complex128 {
+	realOf := func(f func(complex128) float64) []complex128 {
 		return each(func(_ int, x complex128) complex128 { return complex(f(x), 0) })
 	}
 	var sum complex128
@@ -89,9 +89,9 @@ func TestPhasorListsAgainstCmplx(t *testing.T) {
 		"f": each(func(_ int, x complex128) complex128 { return -x }),
 		"g": each(func(i int, x complex128) complex128 { return complex(r[i], 0) - x }),
 		"h": each(func(_ int, x complex128) complex128 { return x * cmplx.Rect(1, 120*deg) }),
-		"m": real(cmplx.Abs), "p": real(cmplx.Phase),
-		"re": real(func(x complex128) float64 { return imagOrReal(x, false) }),
-		"im": real(func(x complex128) float64 { return imagOrReal(x, true) }),
+		"m": realOf(cmplx.Abs), "p": realOf(cmplx.Phase),
+		"re": realOf(func(x complex128) float64 { return real(x) }),
+		"im": realOf(func(x complex128) float64 { return imag(x) }),
 		"w":  each(func(_ int, x complex128) complex128 { return cmplx.Conj(x) }),
 		"s":  {sum}, "u": {sum / 4}, "n": {4}, "x": {z[1]}, "y": {z[2]},
 		"t": {cmplx.Rect(6350, 0), cmplx.Rect(6350, -120*deg), cmplx.Rect(6350, 120*deg)},
@@ -99,7 +99,7 @@ func TestPhasorListsAgainstCmplx(t *testing.T) {
 		"q": {func() complex128 {
 			var s float64
 			for _, x := range z {
-				s += real0(x * cmplx.Conj(x))
+				s += real(x * cmplx.Conj(x))
 			}
 			return complex(s, 0)
 		}()},
@@ -118,15 +118,6 @@ func TestPhasorListsAgainstCmplx(t *testing.T) {
 		}
 	}
 }
-
-func imagOrReal(x complex128, im bool) float64 {
-	if im {
-		return imag(x)
-	}
-	return real(x)
-}
-
-func real0(x complex128) float64 { return real(x) }
 
 // Three-phase sets. The phase voltages of a balanced set sum to zero
 // (common practice: three equal phasors 120° apart close a triangle).
