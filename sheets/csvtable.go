@@ -52,11 +52,15 @@ func ReadCSV(path string, data []byte) (*CSVTable, *diag.Diagnostic) {
 	}
 	// charCol turns the byte column encoding/csv gives into characters.
 	charCol := func(line, byteCol int) int {
-		text := lines.lineText(line)
-		if byteCol-1 > len(text) {
-			byteCol = len(text) + 1
+		if line < 1 || line > len(lines.starts) {
+			return 1
 		}
-		return utf8.RuneCountInString(text[:max(byteCol-1, 0)]) + 1
+		start, end := lines.starts[line-1], len(data)
+		if line < len(lines.starts) {
+			end = lines.starts[line] - 1
+		}
+		text := data[start:end]
+		return utf8.RuneCount(text[:min(max(byteCol-1, 0), len(text))]) + 1
 	}
 	r := csv.NewReader(bytes.NewReader(data))
 	r.FieldsPerRecord = -1 // the engine says which row has too few or too many cells

@@ -155,3 +155,20 @@ func FuzzCSV(f *testing.F) {
 		}
 	})
 }
+
+// BenchmarkReadCSV reads a table of the most rows a table may have,
+// 10,000 rows of two columns, as a long measured curve would be.
+func BenchmarkReadCSV(b *testing.B) {
+	var buf bytes.Buffer
+	buf.WriteString("# a measured curve\nH [A/m],B [T]\n")
+	for i := 0; i < sheets.MaxTableRows; i++ {
+		fmt.Fprintf(&buf, "%d,%.4f\n", 10*i, 2*float64(i)/sheets.MaxTableRows)
+	}
+	data := buf.Bytes()
+	b.SetBytes(int64(len(data)))
+	for b.Loop() {
+		if c, d := sheets.ReadCSV("f.csv", data); d != nil || len(c.Rows) != sheets.MaxTableRows {
+			b.Fatal(d)
+		}
+	}
+}
