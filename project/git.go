@@ -82,7 +82,7 @@ func pathspec(folder string) string {
 // the package). rel is the file's path inside the package, with forward
 // slashes.
 func Selected(rel string) bool {
-	if !IsSheet(rel) && !isData(rel) {
+	if !isSheet(rel) && !isData(rel) {
 		return false
 	}
 	parts := strings.Split(rel, "/")
@@ -94,8 +94,8 @@ func Selected(rel string) bool {
 	return true
 }
 
-// IsSheet reports whether a package file is a Markdown sheet by its name.
-func IsSheet(rel string) bool { return strings.EqualFold(path.Ext(rel), ".md") }
+// isSheet reports whether a package file is a Markdown sheet by its name.
+func isSheet(rel string) bool { return strings.EqualFold(path.Ext(rel), ".md") }
 
 // isData reports whether a package file is a CSV data file by its name.
 func isData(rel string) bool { return strings.EqualFold(path.Ext(rel), ".csv") }
@@ -103,7 +103,7 @@ func isData(rel string) bool { return strings.EqualFold(path.Ext(rel), ".csv") }
 // hasSheets reports whether the files hold at least one sheet.
 func hasSheets(files map[string][]byte) bool {
 	for p := range files {
-		if IsSheet(p) {
+		if isSheet(p) {
 			return true
 		}
 	}

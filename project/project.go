@@ -188,7 +188,7 @@ func loadOne(file string) (*Package, error) {
 func sheetPaths(files map[string][]byte) []string {
 	var out []string
 	for _, p := range mapKeys(files) {
-		if IsSheet(p) {
+		if isSheet(p) {
 			out = append(out, p)
 		}
 	}
@@ -403,7 +403,7 @@ func (r *resolver) doc(p string) (*sheets.Document, error) {
 		}
 		return doc, nil
 	}
-	if !Selected(p) || !IsSheet(p) {
+	if !Selected(p) || !isSheet(p) {
 		return nil, fmt.Errorf("no sheet %s in the package", p)
 	}
 	data, err := r.more.read(p)

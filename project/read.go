@@ -140,7 +140,7 @@ func distinctNames(paths []string) error {
 	for _, p := range paths {
 		// A sheet's page drops the extension; a data file keeps its name.
 		k := "data:" + strings.ToLower(p)
-		if IsSheet(p) {
+		if isSheet(p) {
 			k = strings.ToLower(strings.TrimSuffix(p, path.Ext(p)))
 		}
 		byKey[k] = append(byKey[k], p)

@@ -136,7 +136,7 @@ func (p *Package) reuse(files map[string][]byte, now []SourceFile) ([]*sheets.Do
 		if f.Path != p.Files[i].Path {
 			return nil, nil, false
 		}
-		if !IsSheet(f.Path) {
+		if !isSheet(f.Path) {
 			// A data file: the sheets whose tables read it are touched.
 			if f.SHA256 != p.Files[i].SHA256 {
 				changed[f.Path] = true
