@@ -38,15 +38,7 @@ func ReadCSV(path string, data []byte) (*CSVTable, *diag.Diagnostic) {
 	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
 	data = bytes.ReplaceAll(data, []byte("\r\n"), []byte("\n"))
 	lines := newLineIndex(data)
-	if !utf8.Valid(data) {
-		off := 0
-		for off < len(data) {
-			r, n := utf8.DecodeRune(data[off:])
-			if r == utf8.RuneError && n == 1 {
-				break
-			}
-			off += n
-		}
+	if off := firstInvalid(data); off >= 0 {
 		line, col := lines.pos(off)
 		return nil, &diag.Diagnostic{Pos: at(line, col), Message: fmt.Sprintf("byte 0x%02x is not valid UTF-8", data[off]), Hint: "save the file as UTF-8"}
 	}
@@ -104,4 +96,21 @@ func ReadCSV(path string, data []byte) (*CSVTable, *diag.Diagnostic) {
 			Hint: "write a header of names with units, such as H [A/m],B [T], and a row of numbers per line"}
 	}
 	return t, nil
+}
+
+// firstInvalid is the offset of the first byte that is not valid UTF-8,
+// or -1.
+func firstInvalid(data []byte) int {
+	if utf8.Valid(data) {
+		return -1
+	}
+	off := 0
+	for off < len(data) {
+		r, n := utf8.DecodeRune(data[off:])
+		if r == utf8.RuneError && n == 1 {
+			return off
+		}
+		off += n
+	}
+	return -1
 }
