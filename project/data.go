@@ -89,7 +89,7 @@ func (r *resolver) table(t *sheets.TableText, from string, used *usedFiles) engi
 		return fail(r.missingHint(p), "table %s reads %s, which the package does not have", t.Name, p)
 	}
 	if err != nil {
-		return fail("", "table %s cannot read %s: %v", t.Name, p, err)
+		return fail("check that the file is a plain file sheaf may read, inside the package", "table %s cannot read %s: %v", t.Name, p, err)
 	}
 	cells, d := sheets.ReadCSV(p, data)
 	if d != nil {
