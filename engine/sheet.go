@@ -428,12 +428,11 @@ func (s *Calc) check(st *Statement) {
 		st.fn, st.right = compile(cmp.X), compile(cmp.Y)
 	} else {
 		st.fn = compile(st.Expr)
-		if st.Type.IsList() {
+		if st.Type.IsComplex() { // a phasor, or a list of phasors
+			st.fn = complexStep(st.fn, st.Expr)
+		} else if st.Type.IsList() {
 			at, n := listAt(st.Expr)
 			st.fn = listStep(st.fn, at, n)
-		}
-		if st.Type.IsComplex() {
-			st.fn = complexStep(st.fn, int(st.Expr.base().at))
 		}
 	}
 	st.compiled = true
@@ -555,8 +554,7 @@ func (p *Program) Results(f *Frame) []Result {
 				}
 			}
 			if st.Type.IsComplex() {
-				ph := st.phasorIn(f.Values)
-				r.Phasor = &ph
+				r.setPhasor(st, f.Values) // a phasor, or a list of phasors
 			}
 			r.Shown = shownUnit(st, r.Value, out)
 			if sv := st.solve; sv != nil {

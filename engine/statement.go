@@ -249,6 +249,9 @@ type Result struct {
 	// Phasor holds a complex result's parts in SI, nil for a real one;
 	// Value is then its magnitude.
 	Phasor *Phasor
+	// Phasors holds the elements of a list of phasors, in SI, nil for any
+	// other value; List then holds their magnitudes.
+	Phasors []Phasor
 	// Over holds a series' x values in SI, nil for any other value; List
 	// then holds its y values.
 	Over []float64

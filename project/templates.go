@@ -19,7 +19,7 @@ type TemplateInput struct {
 
 // TemplateInputs lists the inputs of a parsed template, in the order written.
 func TemplateInputs(doc *sheets.Document) []TemplateInput {
-	calc := engine.Compile(sourceOf(doc))
+	calc := engine.Compile(sourceOf(doc, nil))
 	var out []TemplateInput
 	for _, st := range calc.Statements {
 		if st.Kind != engine.Param && !st.IsInput() {

@@ -45,6 +45,9 @@ func WriteDiagnostics(pkg *project.Package, errs io.Writer) {
 	for _, s := range pkg.Templates {
 		sources[s.Path] = s.Source
 	}
+	for _, d := range pkg.DataFiles() {
+		sources[d.Path] = d.Data
+	}
 	for _, d := range pkg.Diags {
 		fmt.Fprintln(errs, d.Error())
 		fmt.Fprint(errs, d.Snippet(sources[d.Pos.File]))

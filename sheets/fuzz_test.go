@@ -35,6 +35,7 @@ func FuzzSheet(f *testing.F) {
 		"---\n---\n",
 		"---\ntitle: Coil\n--- \n# S\n\n```sheaf\na = 1\n```\n",
 		"-----\ntitle: Coil\n---\n```sheaf\na = 1\n```\n",
+		"Table BH from data/bh.csv: DC curve\n\n```sheaf\nx = 1\n```\nTable T from : c\nTable U from x.csv\n| a | b |\n|---|---|\n| 1 | 2 |\n",
 	} {
 		f.Add([]byte(seed))
 	}
