@@ -388,11 +388,41 @@ func TestDemoConveyorBrakeRelease(t *testing.T) {
 	noCheck(t, s, "t_95 <= t_rel_max", "three time constants of an unfringed coil ignore pick-up, travel and eddy currents")
 }
 
+// demoCSV reads the rows of a table's CSV file as plain numbers, past its
+// comment lines and its header.
+func demoCSV(t *testing.T, path string) [][]float64 {
+	t.Helper()
+	data, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var rows [][]float64
+	for _, line := range strings.Split(strings.TrimSpace(string(data)), "\n") {
+		var row []float64
+		for _, cell := range strings.Split(line, ",") {
+			v, err := strconv.ParseFloat(strings.TrimSpace(cell), 64)
+			if err != nil {
+				row = nil // a comment or the header
+				break
+			}
+			row = append(row, v)
+		}
+		if row != nil {
+			rows = append(rows, row)
+		}
+	}
+	return rows
+}
+
 // demoTable reads the rows of a pipe table that follows the paragraph
 // "Table <name>:" in a demo sheet's Markdown, as plain numbers: the hand
 // calculations below start from the sheet's data, not from the engine.
 func demoTable(t *testing.T, text, name string) [][]float64 {
 	t.Helper()
+	if j := strings.Index(text, "Table "+name+" from "); j >= 0 {
+		file, _, _ := strings.Cut(text[j+len("Table "+name+" from "):], ":")
+		return demoCSV(t, filepath.Join("..", "examples", "tarnwick-weir", file))
+	}
 	i := strings.Index(text, "Table "+name+":")
 	if i < 0 {
 		t.Fatalf("no table %s", name)
