@@ -36,6 +36,9 @@ type Calc struct {
 	// unknown name needs them; suggested counts the looks for a close one.
 	names     []string
 	suggested int
+	// leftOut are the names of instances' statements left out for an
+	// optional parameter not set, for the error at a use of one.
+	leftOut map[string]*leftOutName
 	// traces are what each statement rests on, worked out once.
 	traceOnce sync.Once
 	traces    []trace
@@ -248,6 +251,9 @@ func (s *Calc) resolveColumn(r *Ref) *diag.Diagnostic {
 const maxSuggestions = 50
 
 func (s *Calc) unknownName(r *Ref) *diag.Diagnostic {
+	if d := s.leftOutError(r); d != nil {
+		return d
+	}
 	if s.names == nil {
 		s.names = make([]string, 0, len(s.byName)+len(units.Constants))
 		for n := range s.byName {
