@@ -320,7 +320,8 @@ func parallel(n int, f func(i int)) {
 
 // sourceOf gives the engine a sheet's formula blocks and assumptions.
 func sourceOf(doc *sheets.Document) engine.SheetSource {
-	src := engine.SheetSource{Path: doc.Path, Title: doc.Meta.Title, Caution: doc.Meta.Caution}
+	src := engine.SheetSource{Path: doc.Path, Title: doc.Meta.Title, Caution: doc.Meta.Caution,
+		Validity: doc.Meta.Validity, Sources: doc.Meta.Sources}
 	for _, a := range doc.Assumptions {
 		src.Assumptions = append(src.Assumptions, engine.AssumptionSource{ID: a.ID, Text: a.Text, Pos: a.Pos})
 	}
