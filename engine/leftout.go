@@ -113,9 +113,16 @@ func (x *expander) leaveOut(use *Statement, body []*Statement, top bool) []*Stat
 			groups = addLeftOut(groups, ps, st)
 		}
 	}
+	at := map[*Statement]int{}
+	for i, st := range body {
+		at[st] = i + 1 // parts of inner instances, not in body, stay first
+	}
+	for _, g := range groups {
+		slices.SortStableFunc(g.Statements, func(a, b *Statement) int { return at[a] - at[b] })
+	}
 	use.Parts.LeftOut = groups
 	if top {
-		x.recordLeftOut(use, seeds, groups)
+		x.recordLeftOut(use, seeds, rests)
 	}
 	return kept
 }
@@ -158,7 +165,7 @@ func (x *expander) leftOutSeeds(use *Statement, body []*Statement) (seeds []seed
 
 // recordLeftOut keeps the names of a use of the sheet itself that were
 // left out, for the error at a statement that names one.
-func (x *expander) recordLeftOut(use *Statement, seeds []seed, groups []LeftOut) {
+func (x *expander) recordLeftOut(use *Statement, seeds []seed, rests map[*Statement][]string) {
 	s := x.sheet
 	if s.leftOut == nil {
 		s.leftOut = map[string]*leftOutName{}
@@ -166,24 +173,50 @@ func (x *expander) recordLeftOut(use *Statement, seeds []seed, groups []LeftOut)
 	for _, sd := range seeds {
 		s.leftOut[sd.name] = &leftOutName{use, sd.params}
 	}
-	for _, g := range groups {
-		for _, st := range g.Statements {
-			if st.Name != "" {
-				s.leftOut[st.Name] = &leftOutName{use, g.Params}
-			}
+	for st, ps := range rests {
+		if st.Name != "" {
+			s.leftOut[st.Name] = &leftOutName{use, ps}
 		}
 	}
 }
 
-// addLeftOut files a statement under the part of its parameters.
+// addLeftOut files a statement under the part of its parameters. Parts
+// that share a parameter are one part: the no-load test of a motor is
+// one part, though its EMF rests on two of its inputs and its speed on
+// the third. Statements keep the order they are filed in.
 func addLeftOut(groups []LeftOut, params []string, st *Statement) []LeftOut {
-	for i := range groups {
-		if slices.Equal(groups[i].Params, params) {
-			groups[i].Statements = append(groups[i].Statements, st)
-			return groups
+	first := -1
+	for i := 0; i < len(groups); i++ {
+		if !sharesName(groups[i].Params, params) {
+			continue
+		}
+		if first < 0 {
+			first = i
+			continue
+		}
+		// st joins two parts into one.
+		g := &groups[first]
+		g.Params = mergeNames(g.Params, groups[i].Params)
+		g.Statements = append(g.Statements, groups[i].Statements...)
+		groups = slices.Delete(groups, i, i+1)
+		i--
+	}
+	if first < 0 {
+		return append(groups, LeftOut{Params: params, Statements: []*Statement{st}})
+	}
+	g := &groups[first]
+	g.Params = mergeNames(g.Params, params)
+	g.Statements = append(g.Statements, st)
+	return groups
+}
+
+func sharesName(a, b []string) bool {
+	for _, x := range a {
+		if slices.Contains(b, x) {
+			return true
 		}
 	}
-	return append(groups, LeftOut{Params: params, Statements: []*Statement{st}})
+	return false
 }
 
 // mergeNames returns the sorted union of two sorted lists of names.
@@ -201,10 +234,10 @@ func (s *Calc) leftOutError(r *Ref) *diag.Diagnostic {
 		return nil
 	}
 	with := strings.Join(lo.params, " = ..., ") + " = ..."
-	what := "optional input " + strings.Join(lo.params, ", ")
+	what := "optional input " + strings.Join(lo.params, ", ") + " of " + lo.use.Template + " is"
 	if len(lo.params) > 1 {
-		what = "optional inputs " + strings.Join(lo.params, ", ")
+		what = "optional inputs " + strings.Join(lo.params, ", ") + " of " + lo.use.Template + " are"
 	}
 	return errAt(r.Pos(), fmt.Sprintf("set it in the use statement at %d:%d, after with: %s", lo.use.Pos.Line, lo.use.Pos.Col, with),
-		"%s is not evaluated: instance %s leaves it out because the %s of %s is not set", r.Name, lo.use.Name, what, lo.use.Template)
+		"%s is not evaluated: instance %s leaves it out because the %s not set", r.Name, lo.use.Name, what)
 }

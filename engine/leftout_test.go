@@ -74,7 +74,8 @@ func TestOptionalParts(t *testing.T) {
 		{"neither set: only the check on no optional input runs", "use ins = t/parts with U = 2 kV",
 			map[string]string{"ins.U_pk": "ok 2.828 kV", "ins: check U_pk <= U_max": "pass 28.28 %"},
 			[]string{"ins.m", "ins.V_i", "ins.V_w", "ins: check m >= k", "ins: check k * U_pk <= V_w", "ins: check V_i <= V_w"},
-			[]string{"V_i: ins.m, check m >= k", "V_w: check k * U_pk <= V_w", "V_i+V_w: check V_i <= V_w"}, 1, 0,
+			// The check of both joins the parts of V_i and V_w into one.
+			[]string{"V_i+V_w: ins.m, check m >= k, check k * U_pk <= V_w, check V_i <= V_w"}, 1, 0,
 			// k rests only under left-out checks: it is not listed.
 			[]string{"ins.U_max"}, 0},
 		{"one set: the part of the other and the part of both are left out", "use ins = t/parts with U = 2 kV, V_i = 2 kV",
@@ -207,5 +208,30 @@ func TestOptionalParamSyntax(t *testing.T) {
 		if c.want == "" && got != "" || !strings.Contains(got, c.want) {
 			t.Errorf("%q: got %q, want %q", c.line, got, c.want)
 		}
+	}
+}
+
+// Parts that share no optional input stay apart, each named with the
+// inputs that would enable it; a result that rests on two unset inputs
+// names both.
+func TestOptionalPartsApart(t *testing.T) {
+	tpl := sheetOf("t/two.md",
+		"param A [V] optional ; first", "param B [V] optional ; second", "param C [V] optional ; third",
+		"x = 2 * A ; twice A", "check x <= 10 V ; x within its range",
+		"y = B + C ; B and C", "check y <= 5 V ; y within its range", "z = 1 V ; always there ; source: common practice")
+	res := engine.Options{Resolve: func(string, string) (engine.SheetSource, string, error) { return tpl, "t/two.md", nil }}
+	calc := engine.CompileWith(sheetOf("s.md", "use u = t/two with C = 1 V", "w = u.y + u.z"), res)
+	got := leftOut(calc.Statements[0])
+	want := []string{"A: u.x, check x <= 10 V", "B: u.y, check y <= 5 V"}
+	if !slices.Equal(got, want) {
+		t.Errorf("left out %q, want %q", got, want)
+	}
+	calc = engine.CompileWith(sheetOf("s.md", "use u = t/two", "w = u.y + u.z"), res)
+	if got, want := leftOut(calc.Statements[0]), []string{"A: u.x, check x <= 10 V", "B+C: u.y, check y <= 5 V"}; !slices.Equal(got, want) {
+		t.Errorf("left out %q, want %q", got, want)
+	}
+	if len(calc.Diags) != 1 || calc.Diags[0].Message != "u.y is not evaluated: instance u leaves it out because the optional inputs B, C of t/two are not set" ||
+		calc.Diags[0].Hint != "set it in the use statement at 2:1, after with: B = ..., C = ..." {
+		t.Errorf("got %v", calc.Diags)
 	}
 }
