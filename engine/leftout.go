@@ -234,10 +234,18 @@ func (s *Calc) leftOutError(r *Ref) *diag.Diagnostic {
 		return nil
 	}
 	with := strings.Join(lo.params, " = ..., ") + " = ..."
-	what := "optional input " + strings.Join(lo.params, ", ") + " of " + lo.use.Template + " is"
+	verb := "is"
 	if len(lo.params) > 1 {
-		what = "optional inputs " + strings.Join(lo.params, ", ") + " of " + lo.use.Template + " are"
+		verb = "are"
 	}
 	return errAt(r.Pos(), fmt.Sprintf("set it in the use statement at %d:%d, after with: %s", lo.use.Pos.Line, lo.use.Pos.Col, with),
-		"%s is not evaluated: instance %s leaves it out because the %s not set", r.Name, lo.use.Name, what)
+		"%s is not evaluated: instance %s leaves it out because %s %s not set", r.Name, lo.use.Name, lo.inputs(), verb)
+}
+
+// inputs names the unset inputs: "the optional input V_i of t/parts".
+func (lo *leftOutName) inputs() string {
+	if len(lo.params) == 1 {
+		return "the optional input " + lo.params[0] + " of " + lo.use.Template
+	}
+	return "the optional inputs " + strings.Join(lo.params, ", ") + " of " + lo.use.Template
 }

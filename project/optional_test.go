@@ -114,3 +114,33 @@ func TestBackEMFWithoutNoLoadTest(t *testing.T) {
 		t.Errorf("with I_a0 alone unset, the part waits for it: %+v", lo)
 	}
 }
+
+// A take from another sheet of a result that sheet's instance left out is
+// an error at the name, saying which input to set there.
+func TestTakeOfLeftOutResult(t *testing.T) {
+	pkg := project.FromFiles("job", map[string][]byte{
+		"01-ins.md": []byte("```sheaf\nuse ins = lib/insulation-margin with U_N = 0.4 kV, N_ph = 96, N_coil = 16, U_surge = 1.2 kV,\n" +
+			"    k_ph = 1 / sqrt(3), k_ef = 1, cls = 155, dT_R = 75 K, k_os = 1\n```\n"),
+		"02-pd.md": []byte("```sheaf\ntake m = ins.m_PD from 01-ins\ntake T = ins.T_hs from 01-ins\n```\n"),
+	})
+	var s *project.Sheet
+	for _, sh := range pkg.Sheets {
+		if strings.HasSuffix(sh.Path(), "02-pd.md") {
+			s = sh
+		}
+	}
+	if s == nil {
+		t.Fatal("no sheet 02-pd.md")
+	}
+	if len(s.Calc.Diags) != 1 {
+		t.Fatalf("want one error, got %v", s.Calc.Diags)
+	}
+	d := s.Calc.Diags[0]
+	if d.Pos.Line != 2 || d.Pos.Col != 10 || d.Message != "01-ins.md leaves ins.m_PD out: it rests on the optional input PDIV_pp of lib/insulation-margin, which its use statement does not set" ||
+		d.Hint != "set PDIV_pp in the use statement of 01-ins.md at 2:1" {
+		t.Errorf("got %v (hint %q)", d, d.Hint)
+	}
+	if r := s.Calc.Result(s.Calc.Lookup("T")); r.Status != engine.OK {
+		t.Errorf("the hot spot is taken all the same: %v", r.Status)
+	}
+}
