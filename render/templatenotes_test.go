@@ -99,3 +99,18 @@ func TestPageShowsTemplateNotes(t *testing.T) {
 		t.Errorf("b: left out %+v, defaults kept %+v", b.LeftOut, b.DefaultsKept)
 	}
 }
+
+// The terminal report says under a use what was left out.
+func TestTerminalShowsLeftOut(t *testing.T) {
+	pkg := project.FromFiles("pkg", map[string][]byte{
+		"_t/pd.md": []byte(pdTemplate),
+		"job.md":   []byte("```sheaf\nuse a = _t/pd with U = 2 kV\nuse b = _t/pd with U = 2 kV, V_i = 5 kV\n```\n"),
+	})
+	var out, errs strings.Builder
+	render.Terminal(pkg, render.Options{Digits: 4}, &out, &errs)
+	text := out.String()
+	want := "     2  use a = _t/pd with U = 2 kV\n          not evaluated, V_i not set: a.m, check m >= k\n"
+	if !strings.Contains(text, want) || strings.Count(text, "not evaluated,") != 1 || errs.Len() != 0 {
+		t.Errorf("want %q once in:\n%s%s", want, text, errs.String())
+	}
+}
