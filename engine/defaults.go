@@ -57,6 +57,25 @@ func (s *Calc) KeptDefaults() []KeptDefault {
 	return out
 }
 
+// KeptDefaultsOf is KeptDefaults for one use statement of the sheet,
+// worked out for every use at once the first time an evaluated sheet is
+// asked, so that a page of many instances costs one walk.
+func (s *Calc) KeptDefaultsOf(use *Statement) []KeptDefault {
+	s.keptMu.Lock()
+	defer s.keptMu.Unlock()
+	if s.kept != nil {
+		return s.kept[use]
+	}
+	byUse := map[*Statement][]KeptDefault{}
+	for _, k := range s.KeptDefaults() {
+		byUse[k.Use] = append(byUse[k.Use], k)
+	}
+	if s.results != nil {
+		s.kept = byUse // results are fixed once evaluated
+	}
+	return byUse[use]
+}
+
 // TopUse is the use statement of the sheet itself that brought a
 // template's statement in, through nested instances; nil for a statement
 // of the sheet's own.

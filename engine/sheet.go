@@ -39,6 +39,10 @@ type Calc struct {
 	// leftOut are the names of instances' statements left out for an
 	// optional parameter not set, for the error at a use of one.
 	leftOut map[string]*leftOutName
+	// kept are the defaults kept that checks rest on, by use, worked out
+	// once the sheet is evaluated.
+	keptMu sync.Mutex
+	kept   map[*Statement][]KeptDefault
 	// traces are what each statement rests on, worked out once.
 	traceOnce sync.Once
 	traces    []trace

@@ -54,10 +54,8 @@ func jsonUseParts(calc *engine.Calc, use *engine.Statement, j *JSONStatement) {
 		}
 		j.LeftOut = append(j.LeftOut, jl)
 	}
-	for _, k := range calc.KeptDefaults() {
-		if k.Use == use {
-			j.DefaultsKept = append(j.DefaultsKept, JSONKeptDefault{Name: k.Default.Name, Value: exprText(k.Default.Expr),
-				Source: k.Default.Source, FirstCheck: checkName(k.First), Checks: k.Checks})
-		}
+	for _, k := range calc.KeptDefaultsOf(use) {
+		j.DefaultsKept = append(j.DefaultsKept, JSONKeptDefault{Name: k.Default.Name, Value: exprText(k.Default.Expr),
+			Source: k.Default.Source, FirstCheck: checkName(k.First), Checks: k.Checks})
 	}
 }

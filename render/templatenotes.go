@@ -17,11 +17,7 @@ func writeTemplateNotes(w sink, calc *engine.Calc, use *engine.Statement) {
 	top := use.Instance == ""
 	var kept []engine.KeptDefault
 	if top {
-		for _, k := range calc.KeptDefaults() {
-			if k.Use == use {
-				kept = append(kept, k)
-			}
-		}
+		kept = calc.KeptDefaultsOf(use)
 	}
 	if p == nil || len(p.Validity) == 0 && len(p.Sources) == 0 && (!top || len(p.LeftOut) == 0) && len(kept) == 0 {
 		return
