@@ -56,48 +56,10 @@ type leftOutName struct {
 func (x *expander) leaveOut(use *Statement, body []*Statement, top bool) []*Statement {
 	seeds, inner := x.leftOutSeeds(use, body)
 	if len(seeds) == 0 {
+		use.Parts.LeftOut = inner // checks alone left out inside, if any
 		return body
 	}
-	// Who names what, once: a statement is reached through the names it
-	// uses, so a long chain costs its length.
-	users := map[string][]*Statement{}
-	for _, st := range body {
-		if st.Overridden && st.Use == use {
-			// The using sheet wrote this formula: a left-out name in it
-			// is an error there, not a part to leave out.
-			continue
-		}
-		var seen []string
-		Walk(st.Expr, func(e Expr) {
-			var n string
-			switch v := e.(type) {
-			case *Ref:
-				n = v.Name
-			case *Apply:
-				n = v.Name
-			}
-			if n != "" && !slices.Contains(seen, n) {
-				seen = append(seen, n)
-				users[n] = append(users[n], st)
-			}
-		})
-	}
-	rests := map[*Statement][]string{} // what each dropped statement waits for
-	queue := seeds
-	for len(queue) > 0 {
-		sd := queue[0]
-		queue = queue[1:]
-		for _, u := range users[sd.name] {
-			merged := mergeNames(rests[u], sd.params)
-			if len(merged) == len(rests[u]) {
-				continue // nothing new: each statement grows at most once per parameter
-			}
-			rests[u] = merged
-			if u.Name != "" {
-				queue = append(queue, seed{u.Name, merged})
-			}
-		}
-	}
+	rests := spread(seeds, nameUsers(use, body))
 	var kept []*Statement
 	groups := inner
 	for _, st := range body {
@@ -125,6 +87,58 @@ func (x *expander) leaveOut(use *Statement, body []*Statement, top bool) []*Stat
 		x.recordLeftOut(use, seeds, rests)
 	}
 	return kept
+}
+
+// nameUsers maps each name that the template's own formulas use to the
+// statements that use it.
+func nameUsers(use *Statement, body []*Statement) map[string][]*Statement {
+	users := map[string][]*Statement{}
+	for _, st := range body {
+		if st.Overridden && st.Use == use {
+			// The using sheet wrote this formula: a left-out name in it
+			// is an error there, not a part to leave out.
+			continue
+		}
+		var seen []string
+		Walk(st.Expr, func(e Expr) {
+			var n string
+			switch v := e.(type) {
+			case *Ref:
+				n = v.Name
+			case *Apply:
+				n = v.Name
+			}
+			if n != "" && !slices.Contains(seen, n) {
+				seen = append(seen, n)
+				users[n] = append(users[n], st)
+			}
+		})
+	}
+	return users
+}
+
+// spread follows the seeds through the statements that use them, and
+// returns every statement reached with the parameters it waits for. A
+// statement is visited again only when what it waits for grows, at most
+// once per parameter, so a long chain costs its length.
+func spread(seeds []seed, users map[string][]*Statement) map[*Statement][]string {
+	rests := map[*Statement][]string{}
+	queue := seeds
+	for len(queue) > 0 {
+		sd := queue[0]
+		queue = queue[1:]
+		for _, u := range users[sd.name] {
+			merged := mergeNames(rests[u], sd.params)
+			if len(merged) == len(rests[u]) {
+				continue
+			}
+			rests[u] = merged
+			if u.Name != "" {
+				queue = append(queue, seed{u.Name, merged})
+			}
+		}
+	}
+	return rests
 }
 
 // seed is a name left out, with the parameters it waits for.

@@ -185,6 +185,14 @@ func TestOptionalPartsNested(t *testing.T) {
 	}
 	checkerCase{"nested, unset", []string{"use o = t/outer"},
 		map[string]string{"o.pd: check k * U_pk <= V_w": "pass 19.64 %", "o: check pd.U_pk <= 2 kV": "pass 70.71 %"}}.run(t, engine.Options{Resolve: res})
+	// An inner part of checks alone, for an input the outer template
+	// leaves unset, is named on the sheet's use with the inner name.
+	outer2 := sheetOf("t/outer2.md", "use pd = t/parts with U = 1 kV, V_i = 3 kV", "r = pd.m / 2 ; half the margin")
+	res2 := partsResolver(map[string]engine.SheetSource{"t/outer2": outer2})
+	calc = engine.CompileWith(sheetOf("s.md", "use o = t/outer2"), engine.Options{Resolve: res2})
+	if got, want := leftOut(calc.Statements[0]), []string{"pd.V_w: check k * U_pk <= V_w, check V_i <= V_w"}; !slices.Equal(got, want) || len(calc.Diags) != 0 {
+		t.Errorf("left out %q, want %q; %v", got, want, calc.Diags)
+	}
 	// Set, the same parts run: m = 5 / 1.414 = 3.536, r = 1.768.
 	checkerCase{"nested, set", []string{"use o = t/outer with V_i = 5 kV"},
 		map[string]string{"o.r": "ok 1.768 1", "o.pd: check m >= k": "pass 35.36 %"}}.run(t, engine.Options{Resolve: res})
