@@ -44,6 +44,7 @@ func FuzzStatement(f *testing.F) {
 		"p = 5 V ∠ 3 m\nc = 1j ∠ 2\nk(x) = x * 2\nm = k(1j)\ny = 1j when 1 < 2 else 2j\nt = 4jx + 4 j",
 		"th = 0 deg .. 360 deg by 30 deg\ns = series(sin(th) * 1 Wb, th)\ne = -314 rad/s * deriv(s)\nE = rms(e)\nA = harmonic(e, 5)\nd = thd(e)\nv = valueat(s, 400 deg)",
 		"x = [0 s, 1 s, 1 s, 2 s]\ns = series([1 V, 2 V, 3 V, 4 V], x)\ni = integral(s)\np = peak(s) + s\nq = harmonicphase(s, 0)\nr = s + s\nc = 1 when 1 < 2 else s",
+		"param V [kV] optional ; a template's\nparam W [V] optional x\nx = 2 * V\ncheck x <= 1 kV",
 	} {
 		f.Add(seed)
 	}
