@@ -37,6 +37,13 @@ type Calc struct {
 	names      []string
 	suggested  int
 	tolerances int // toleranced inputs checked so far
+	// leftOut are the names of instances' statements left out for an
+	// optional parameter not set, for the error at a use of one.
+	leftOut map[string]*leftOutName
+	// kept are the defaults kept that checks rest on, by use, worked out
+	// once the sheet is evaluated.
+	keptMu sync.Mutex
+	kept   map[*Statement][]KeptDefault
 	// traces are what each statement rests on, worked out once.
 	traceOnce sync.Once
 	traces    []trace
@@ -251,6 +258,9 @@ func (s *Calc) resolveColumn(r *Ref) *diag.Diagnostic {
 const maxSuggestions = 50
 
 func (s *Calc) unknownName(r *Ref) *diag.Diagnostic {
+	if d := s.leftOutError(r); d != nil {
+		return d
+	}
 	if s.names == nil {
 		s.names = make([]string, 0, len(s.byName)+len(units.Constants))
 		for n := range s.byName {

@@ -312,6 +312,13 @@ func TestDemoTarnwickInsulation(t *testing.T) {
 	noCheck(t, s, "k_m * ins.U_tt <= U_w_tt", "a power-frequency stress against an impulse withstand")
 	// Turn voltage under the surge for 7-turn coils: 0.55 · 2.4 kV / 7.
 	closeTo(t, "ins.U_tt_s", libraryValue(t, s, "ins.U_tt_s"), 0.55*2400/7, 1e-12)
+	// A Type II (mica) winding: the partial-discharge check of IEC TS
+	// 60034-18-41 for Type I windings does not apply (IEC TS 60034-18-42,
+	// from memory), so the sheet leaves PDIV_pp unset and the check out.
+	noCheck(t, s, "m_PD >= EF", "the Type I partial-discharge check does not apply to a Type II winding")
+	if lo := s.Calc.Lookup("ins.U_pg").Use.Parts.LeftOut; len(lo) != 1 || strings.Join(lo[0].Params, ",") != "PDIV_pp" || lo[0].Checks() != 1 {
+		t.Errorf("sheet 05 should leave the partial-discharge part out for PDIV_pp: %+v", lo)
+	}
 	if !strings.Contains(sheetText(t, "tarnwick-weir", "05-stator-insulation.md"), "Caution") {
 		t.Error("sheet 05 lost its caution")
 	}

@@ -354,7 +354,8 @@ func parallel(n int, f func(i int)) {
 // tables; a table read from a file has its rows from read, or, when read
 // is nil, none and an error that says they were not read.
 func sourceOf(doc *sheets.Document, read func(t *sheets.TableText, from string) engine.TableSource) engine.SheetSource {
-	src := engine.SheetSource{Path: doc.Path, Title: doc.Meta.Title, Caution: doc.Meta.Caution}
+	src := engine.SheetSource{Path: doc.Path, Title: doc.Meta.Title, Caution: doc.Meta.Caution,
+		Validity: doc.Meta.Validity, Sources: doc.Meta.Sources}
 	for _, a := range doc.Assumptions {
 		src.Assumptions = append(src.Assumptions, engine.AssumptionSource{ID: a.ID, Text: a.Text, Pos: a.Pos})
 	}

@@ -188,6 +188,14 @@ type JSONStatement struct {
 	Instance   string    `json:"instance,omitempty"`
 	Overridden bool      `json:"overridden,omitempty"`
 	Default    string    `json:"default,omitempty"`
+	// On a use statement, from the template's front matter: where it
+	// holds and what it rests on; on a use of the sheet itself, also the
+	// parts left out for optional inputs not set and the defaults kept
+	// that checks rest on.
+	Validity        []string          `json:"validity,omitempty"`
+	TemplateSources []string          `json:"template_sources,omitempty"`
+	LeftOut         []JSONLeftOut     `json:"left_out,omitempty"`
+	DefaultsKept    []JSONKeptDefault `json:"defaults_kept,omitempty"`
 }
 
 // JSONTrace lists the inputs and assumptions a result ultimately rests on.
@@ -524,6 +532,7 @@ func jsonStatement(s *project.Sheet, st *engine.Statement, digits int) JSONState
 		for _, o := range st.Overrides {
 			j.Sets = append(j.Sets, JSONSet{Name: o.Name, Formula: o.Formula})
 		}
+		jsonUseParts(calc, st, &j)
 		j.RestsOn = nil
 	case engine.Param:
 		j.Kind = "param"

@@ -270,6 +270,11 @@ func (s seen) walk(doc map[string]any) {
 			if _, ok := m["name"]; !ok && m["kind"] == "definition" {
 				s["definition without a name"] = true
 			}
+			for _, k := range []string{"left_out", "validity", "template_sources", "defaults_kept"} {
+				if _, ok := m[k]; ok {
+					s["use with "+k] = true
+				}
+			}
 		}
 		if meta := sh.(map[string]any)["meta"].(map[string]any); len(meta) == 0 {
 			s["empty meta"] = true
@@ -501,6 +506,7 @@ func TestRealOutputValidates(t *testing.T) {
 		"kind angle", "kind cycles", "kind absolute temperature",
 		"severity error", "severity warning", "accepted yes", "accepted no",
 		"check without utilisation", "definition without a name", "empty meta", "no audit", "no build date",
+		"use with left_out", "use with validity", "use with template_sources", "use with defaults_kept",
 	} {
 		if !all[want] {
 			t.Errorf("no document exercised %q: the positive tests miss a branch of the schema", want)
