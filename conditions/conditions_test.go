@@ -1,6 +1,7 @@
 package conditions_test
 
 import (
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -423,5 +424,36 @@ func TestCasesFromATemplate(t *testing.T) {
 	g, ok := r.Governing(statement(t, calc, "I <= I_max"))
 	if !ok || g.Where != "case dc.boost" || g.Result.Status != engine.Fail {
 		t.Fatalf("governing %+v, want case dc.boost failing (242 V / 11 Ω = 22 A)", g)
+	}
+}
+
+// The limits of one sheet's conditions: toleranced inputs, and the work
+// of its sweeps and samples, each a located error that leaves the rest.
+func TestConditionLimits(t *testing.T) {
+	var lines []string
+	for i := range engine.MaxTolerances + 1 {
+		lines = append(lines, fmt.Sprintf("x_%d = 1 m ± 1 mm", i))
+	}
+	calc := compile(t, lines...)
+	if len(calc.Diags) != 1 || calc.Diags[0].Pos.Line != engine.MaxTolerances+2 || !strings.Contains(calc.Diags[0].Message, "more than 64 toleranced inputs") {
+		t.Errorf("want one error at the 65th tolerance, got %v", calc.Diags)
+	}
+	// 2,000 statements swept over 100,000 points twice and more: past
+	// 500 million evaluations.
+	lines = []string{"a = 1 m"}
+	for i := range 2000 {
+		lines = append(lines, fmt.Sprintf("b_%d = a * %d", i, i+2))
+	}
+	lines = append(lines, "sweep s1: a over 1 m .. 100000 m by 1 m", "sweep s2: a over 1 m .. 100000 m by 1 m", "sweep s3: a over 1 m .. 100000 m by 1 m", "sample 300000 times")
+	calc = compile(t, lines...)
+	var msgs []string
+	for _, d := range calc.Diags {
+		msgs = append(msgs, fmt.Sprintf("%d: %s", d.Pos.Line, d.Message))
+	}
+	if len(msgs) != 2 || !strings.Contains(msgs[0], "sweeps evaluate more than 500000000") || !strings.Contains(msgs[1], "300000 samples of 2005 statements") {
+		t.Errorf("want the third sweep and the sample count refused, got %v", msgs)
+	}
+	if r := calc.Result(calc.Lookup("b_7")); r.Status != engine.OK {
+		t.Errorf("b_7 is independent of the limits but came out %v", r.Status)
 	}
 }

@@ -424,9 +424,15 @@ func constValue(e Expr, what string) (*Type, *diag.Diagnostic) {
 
 // checkTolerance checks an input's tolerance against the input and works
 // out its limits: a tolerance belongs on a value written down, in the
-// input's dimension (or in % of it).
-func checkTolerance(st *Statement) *diag.Diagnostic {
+// input's dimension (or in % of it), and a sheet holds a bounded number.
+func (s *Calc) checkTolerance(st *Statement) *diag.Diagnostic {
 	tol := st.Tol
+	if tol == nil {
+		return nil
+	}
+	if s.tolerances++; s.tolerances > MaxTolerances {
+		return errAt(tol.Pos, "give tolerances to the inputs that matter most, or split the sheet", "the sheet has more than %d toleranced inputs, the limit for one sheet", MaxTolerances)
+	}
 	if !st.IsInput() {
 		return errAt(tol.Pos, "give the tolerances to the inputs "+st.Name+" is worked out from: its spread follows from theirs",
 			"a tolerance on a computed value: %s is a result, not an input", st.Name)

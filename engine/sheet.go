@@ -380,17 +380,7 @@ func (s *Calc) check(st *Statement) {
 		}
 	}
 	if st.solve != nil {
-		if err := s.checkSolveBounds(st); err != nil {
-			s.fail(st, err)
-			return
-		}
-		if st.Display != nil {
-			if msg, hint := displayProblem(st.Name, st.Formula, st.Type, *st.Display); msg != "" {
-				s.fail(st, errAt(st.DisplayPos, hint, "%s", msg))
-				return
-			}
-		}
-		st.compiled = true
+		s.checkSolve(st)
 		return
 	}
 	if err := infer(st.Expr); err != nil {
@@ -412,15 +402,9 @@ func (s *Calc) check(st *Statement) {
 		s.fail(st, err)
 		return
 	}
-	if st.Tol != nil {
-		if s.tolerances++; s.tolerances > MaxTolerances {
-			s.fail(st, errAt(st.Tol.Pos, "give tolerances to the inputs that matter most, or split the sheet", "the sheet has more than %d toleranced inputs, the limit for one sheet", MaxTolerances))
-			return
-		}
-		if err := checkTolerance(st); err != nil {
-			s.fail(st, err)
-			return
-		}
+	if err := s.checkTolerance(st); err != nil {
+		s.fail(st, err)
+		return
 	}
 	if st.Display != nil {
 		if msg, hint := displayProblem(name, formula, st.Type, *st.Display); msg != "" {
@@ -433,6 +417,28 @@ func (s *Calc) check(st *Statement) {
 		s.fail(st, err)
 		return
 	}
+	s.compileChecked(st)
+}
+
+// checkSolve readies x = solve(...): its bounds and its display unit.
+func (s *Calc) checkSolve(st *Statement) {
+	if err := s.checkSolveBounds(st); err != nil {
+		s.fail(st, err)
+		return
+	}
+	if st.Display != nil {
+		if msg, hint := displayProblem(st.Name, st.Formula, st.Type, *st.Display); msg != "" {
+			s.fail(st, errAt(st.DisplayPos, hint, "%s", msg))
+			return
+		}
+	}
+	st.compiled = true
+}
+
+// compileChecked compiles a statement the checker found sound: a check's
+// two sides, or a definition's value with the step that places a list or
+// a phasor in the frame.
+func (s *Calc) compileChecked(st *Statement) {
 	if st.Kind == Check {
 		cmp := st.Compare()
 		st.fn, st.right = compile(cmp.X), compile(cmp.Y)
