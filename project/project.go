@@ -85,9 +85,18 @@ func (s *Sheet) Band(st *engine.Statement) (band.Band, bool) {
 func govern(calc *engine.Calc) *conditions.Report {
 	r := conditions.Run(calc)
 	for _, st := range calc.Statements {
-		if g, ok := r.Governing(st); ok {
-			calc.Govern(st, g.Result)
+		g, ok := r.Governing(st)
+		if !ok {
+			continue
 		}
+		res := g.Result
+		if res.Err != nil && g.Where != "as written" {
+			// The error is the condition's: say which, where it shows.
+			d := *res.Err
+			d.Message = g.Where + ": " + d.Message
+			res.Err = &d
+		}
+		calc.Govern(st, res)
 	}
 	return r
 }

@@ -1,0 +1,25 @@
+package project_test
+
+import (
+	"strings"
+	"testing"
+
+	"github.com/sheaf-calc/sheaf/engine"
+	"github.com/sheaf-calc/sheaf/project"
+)
+
+// A check that a load case cannot work out shows the case's error, named
+// for the case, where the check stands.
+func TestCaseErrorNamesTheCase(t *testing.T) {
+	pkg := project.FromFiles("p", map[string][]byte{"a.md": []byte("```sheaf\nV = 10 V\nV_0 = 2 V\nI = sqrt((V - V_0) * V_0) / 5 ohm\ncheck I <= 2 A\ncase cold: V = 1 V\n```\n")})
+	s := pkg.Sheets[0]
+	for _, st := range s.Calc.Statements {
+		if st.Kind != engine.Check {
+			continue
+		}
+		r := s.Calc.Result(st)
+		if r.Status != engine.Errored && r.Status != engine.Blocked || r.Err == nil || !strings.HasPrefix(r.Err.Message, "case cold: ") {
+			t.Errorf("check shows %v %+v, want the error of case cold, named", r.Status, r.Err)
+		}
+	}
+}
