@@ -207,18 +207,8 @@ func benchListNative(b *testing.B, name string) {
 // BENCHMARKS.md.
 func BenchmarkPhasorExcitation(b *testing.B) {
 	b.Run("sheaf", func(b *testing.B) {
-		var lines []SourceLine
-		for i, l := range []string{"V = 6.35 kV", "phi = 30 deg", "I_a = 525 A", "R = 0.04 Ω", "X = 11.5 Ω",
-			"E = V + (I_a ∠ -phi) * (R + 1j * X)", "E_f = abs(E)", "delta = arg(E)"} {
-			lines = append(lines, SourceLine{Text: l, Pos: diag.Pos{File: "p.md", Line: i + 1, Col: 1}})
-		}
-		s := Compile(SheetSource{Path: "p.md", Blocks: []SourceBlock{{Lines: lines}}})
-		if len(s.Diags) != 0 {
-			b.Fatal(s.Diags[0].Error())
-		}
-		p := s.Program()
-		f := p.NewFrame()
-		p.Run(f, nil)
+		s, p, f := benchProgram(b, "V = 6.35 kV", "phi = 30 deg", "I_a = 525 A", "R = 0.04 Ω", "X = 11.5 Ω",
+			"E = V + (I_a ∠ -phi) * (R + 1j * X)", "E_f = abs(E)", "delta = arg(E)")
 		slot, _ := p.Input("phi")
 		sets := []Set{{Slot: slot, SI: 0.5}}
 		b.ResetTimer()
@@ -285,18 +275,8 @@ func BenchmarkHarmonics4096(b *testing.B) {
 func BenchmarkPhasorList(b *testing.B) {
 	const n = 3600
 	b.Run("sheaf", func(b *testing.B) {
-		var lines []SourceLine
-		for i, l := range []string{"V = 6.35 kV", "th = 0 deg .. 359.9 deg by 0.1 deg", "Z = 0.04 Ω + 11.5j Ω",
-			"U = V ∠ th", "I = U / Z", "S = sum(I)"} {
-			lines = append(lines, SourceLine{Text: l, Pos: diag.Pos{File: "p.md", Line: i + 1, Col: 1}})
-		}
-		s := Compile(SheetSource{Path: "p.md", Blocks: []SourceBlock{{Lines: lines}}})
-		if len(s.Diags) != 0 {
-			b.Fatal(s.Diags[0].Error())
-		}
-		p := s.Program()
-		f := p.NewFrame()
-		p.Run(f, nil)
+		s, p, f := benchProgram(b, "V = 6.35 kV", "th = 0 deg .. 359.9 deg by 0.1 deg", "Z = 0.04 Ω + 11.5j Ω",
+			"U = V ∠ th", "I = U / Z", "S = sum(I)")
 		slot, _ := p.Input("V")
 		sets := []Set{{Slot: slot, SI: 6600}}
 		b.ReportAllocs()
@@ -330,4 +310,21 @@ func BenchmarkPhasorList(b *testing.B) {
 			b.Fatal("no result")
 		}
 	})
+}
+
+// benchProgram compiles lines as a one-block sheet and runs its program
+// once, for a benchmark of the runs after.
+func benchProgram(b *testing.B, lines ...string) (*Calc, *Program, *Frame) {
+	var src []SourceLine
+	for i, l := range lines {
+		src = append(src, SourceLine{Text: l, Pos: diag.Pos{File: "p.md", Line: i + 1, Col: 1}})
+	}
+	s := Compile(SheetSource{Path: "p.md", Blocks: []SourceBlock{{Lines: src}}})
+	if len(s.Diags) != 0 {
+		b.Fatal(s.Diags[0].Error())
+	}
+	p := s.Program()
+	f := p.NewFrame()
+	p.Run(f, nil)
+	return s, p, f
 }

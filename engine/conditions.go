@@ -239,19 +239,7 @@ func qualifiedName(r []rune, i int) (string, int) {
 // topLevelWord returns the offset of the word w in r[from:end] outside
 // parentheses and brackets, or end.
 func topLevelWord(r []rune, from, end int, w string) int {
-	depth := 0
-	for i := from; i < end; i++ {
-		switch r[i] {
-		case '(', '[':
-			depth++
-		case ')', ']':
-			depth--
-		}
-		if depth == 0 && wordAt(r, i, end, w) {
-			return i
-		}
-	}
-	return end
+	return topLevel(r, from, end, func(k int) bool { return wordAt(r, k, end, w) })
 }
 
 // wordAt reports whether the word w stands at r[i], not inside a name.
@@ -295,22 +283,9 @@ func parseSampling(st *Statement, t *text, i, end int) *diag.Diagnostic {
 // at ± (or +/-) or the word in, outside parentheses; end when there is
 // none.
 func splitTolerance(r []rune, i, end int) int {
-	depth := 0
-	for k := i; k < end; k++ {
-		switch r[k] {
-		case '(', '[':
-			depth++
-		case ')', ']':
-			depth--
-		}
-		if depth != 0 {
-			continue
-		}
-		if r[k] == '±' || k+2 < end && string(r[k:k+3]) == "+/-" || wordAt(r, k, end, "in") {
-			return k
-		}
-	}
-	return end
+	return topLevel(r, i, end, func(k int) bool {
+		return r[k] == '±' || k+2 < end && string(r[k:k+3]) == "+/-" || wordAt(r, k, end, "in")
+	})
 }
 
 const toleranceExample = "write for example: g = 4.0 mm ± 0.2 mm, mu_r = 1300 ± 15 %, g = 4.0 mm in 3.8 mm .. 4.3 mm, or E = 200 GPa ± σ 5 GPa"

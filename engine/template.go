@@ -167,17 +167,22 @@ func parseOverrides(st *Statement, t *text, j, end int) *diag.Diagnostic {
 // topLevelComma returns the offset of the first comma in r[from:end]
 // outside parentheses and list brackets, or end.
 func topLevelComma(r []rune, from, end int) int {
+	return topLevel(r, from, end, func(k int) bool { return r[k] == ',' })
+}
+
+// topLevel returns the offset of the first place in r[from:end], outside
+// parentheses and list brackets, where at holds; end when there is none.
+func topLevel(r []rune, from, end int, at func(k int) bool) int {
 	depth := 0
-	for i := from; i < end; i++ {
-		switch r[i] {
+	for k := from; k < end; k++ {
+		switch r[k] {
 		case '(', '[':
 			depth++
 		case ')', ']':
 			depth--
-		case ',':
-			if depth == 0 {
-				return i
-			}
+		}
+		if depth == 0 && at(k) {
+			return k
 		}
 	}
 	return end
