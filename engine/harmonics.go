@@ -226,3 +226,35 @@ func explainHarmonic(n *Call, v []float64) *diag.Diagnostic {
 	}
 	return nil
 }
+
+// Harmonics returns the amplitudes A_1 … A_k of a series result's first
+// k harmonics, in SI of its y, as harmonic(s, n) gives each: fewer when
+// the sampling resolves fewer. It refuses a result that is not a series,
+// is sampled too coarsely or unevenly, or does not hold one period.
+func (r Result) Harmonics(k int) ([]float64, error) {
+	per := len(r.Over) - 1
+	switch {
+	case r.Over == nil || len(r.List) != len(r.Over):
+		return nil, errHarmonics("the value is not a series")
+	case per < MinPeriodSamples:
+		return nil, errHarmonics("the series has %d samples per period; harmonics need at least %d", per, MinPeriodSamples)
+	case unevenAt(r.Over) > 0:
+		return nil, errHarmonics("the samples are uneven; harmonics need even samples")
+	case notPeriodic(r.List):
+		return nil, errHarmonics("the series is not periodic over its span: its last sample differs from its first")
+	case k < 1:
+		return nil, errHarmonics("ask for at least the fundamental")
+	}
+	c := make([]complex128, per/2+1)
+	fourier.NewFFT(per).Coefficients(c, r.List[:per])
+	k = min(k, (per-1)/2)
+	out := make([]float64, k)
+	for i := range out {
+		out[i] = harmonicAmplitude(c, i+1, per, 0, 0)
+	}
+	return out, nil
+}
+
+func errHarmonics(format string, args ...any) error {
+	return fmt.Errorf("harmonics: "+format, args...)
+}

@@ -288,7 +288,7 @@ func joinNote(a, b string) string {
 }
 
 // noteKeys are the annotation keys sheaf understands.
-var noteKeys = map[string]bool{"source": true, "assume": true, "assumes": true, "accept": true, "example": true}
+var noteKeys = map[string]bool{"source": true, "assume": true, "assumes": true, "accept": true, "example": true, "draw": true}
 
 // noteOf reads "key: value" or "accept code: reason"; ok is false for text
 // that is not an annotation sheaf knows.

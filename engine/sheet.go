@@ -121,6 +121,7 @@ func CompileWith(src SheetSource, opt Options) *Calc {
 	s.checkSolveRelations()
 	s.linkAssumptions(append(src.Assumptions, x.assumptions...))
 	s.checkConditions() // after the assumptions: a sweep's check reads the traces
+	s.checkDrawings()
 	s.Diags.Sort()
 	return s
 }
