@@ -125,6 +125,10 @@ func TestCasesGovern(t *testing.T) {
 	if !near(g.Result.Utilisation, 28/2.9/9, 1e-9) {
 		t.Errorf("utilisation %g, want %g", g.Result.Utilisation, 28/2.9/9)
 	}
+	// The sheet as written stays beside the governing case: 24 V / 3 Ω.
+	if w := g.AsWritten; w.Status != engine.Pass || !near(w.Left, 8, 1e-12) || !near(w.Right, 9, 1e-12) {
+		t.Errorf("as written = %v: %g A against %g A, want pass: 8 A against 9 A", w.Status, w.Left, w.Right)
+	}
 }
 
 // The Monte Carlo mean and standard deviation of a sum and a product of
