@@ -103,7 +103,11 @@ func Run(calc *engine.Calc) *Report {
 	for _, st := range calc.Statements {
 		if st.Kind == engine.Check && settled(calc.Result(st).Status) && (len(cases) > 0 || reachedBySweep(calc, st, sweeps)) {
 			res := calc.Result(st)
-			r.govern[st] = Governing{Where: "as written", Result: res, AsWritten: res, Evaluated: 1}
+			g := Governing{Where: "as written", Result: res, AsWritten: res, Evaluated: 1}
+			if res.Status == engine.Fail {
+				g.Failing = []string{"as written"}
+			}
+			r.govern[st] = g
 		}
 	}
 	for _, c := range cases {
