@@ -164,3 +164,34 @@ func diffText(si float64, u units.Unit, digits int) string {
 func percentText(share float64) string {
 	return units.FormatNumber(share*100, 2) + " %"
 }
+
+// conditionLine is a case, sweep or sample statement as a line of text,
+// for the terminal and the dependency graph; ok is false for any other
+// statement.
+func conditionLine(st *engine.Statement, r engine.Result) (line string, ok bool) {
+	if !isCondition(st) || r.Status != engine.OK || st.Cond == nil {
+		return "", false
+	}
+	formula := strings.Join(strings.Fields(st.Formula), " ")
+	switch st.Kind {
+	case engine.Case:
+		return "case " + st.Name + ": " + formula, true
+	case engine.Sweep:
+		return "sweep " + st.Name + ": " + formula + " (" + strconv.Itoa(len(st.Cond.Points)) + " points)", true
+	}
+	return "Monte Carlo: " + samplingText(st.Cond.Samples, st.Cond.Seed, " "), true
+}
+
+// conditionsNote is what a statement's terminal line adds: an input's
+// tolerance as written, "  ± 5 %"; for a check that a case or a sweep
+// governs, " — governs: case high".
+func conditionsNote(s *project.Sheet, st *engine.Statement) string {
+	if st.Tol != nil && st.IsInput() && s.Calc.Result(st).Status == engine.OK {
+		return "  " + strings.Join(strings.Fields(st.Tol.Text), " ")
+	}
+	g, ok := s.Conditions.Governing(st)
+	if !ok || g.Case == nil && g.Sweep == nil {
+		return ""
+	}
+	return " — governs: " + g.Where
+}

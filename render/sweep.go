@@ -52,8 +52,12 @@ func sweepSentence(s *project.Sheet, st *engine.Statement, digits int) string {
 	c := st.Cond
 	u := s.Calc.Result(c.Input).Shown
 	n := len(c.Points)
-	out := "<span class=\"kw\">sweep</span> <strong>" + esc(st.Name) + "</strong>: " + `<a href="#` + anchor(c.Input) + `">` + symbolHTML(c.Input.Name) + "</a> from " +
-		esc(ValueText(c.Points[0], u, digits)) + " to " + esc(ValueText(c.Points[n-1], u, digits)) + ", " + strconv.Itoa(n) + " points"
+	out := "<span class=\"kw\">sweep</span> <strong>" + esc(st.Name) + "</strong>: " + `<a href="#` + anchor(c.Input) + `">` + symbolHTML(c.Input.Name) + "</a> "
+	if monotonic(c.Points) {
+		out += "from " + esc(ValueText(c.Points[0], u, digits)) + " to " + esc(ValueText(c.Points[n-1], u, digits)) + ", " + strconv.Itoa(n) + " points"
+	} else {
+		out += "between " + esc(ValueText(slices.Min(c.Points), u, digits)) + " and " + esc(ValueText(slices.Max(c.Points), u, digits)) + ", " + strconv.Itoa(n) + " points in the order written"
+	}
 	if c.In != nil {
 		out += `, in <a href="#` + anchor(c.In) + `">case ` + esc(c.In.Name) + "</a>"
 	}
@@ -67,6 +71,15 @@ func sweepSentence(s *project.Sheet, st *engine.Statement, digits int) string {
 		}
 	}
 	return out
+}
+
+// monotonic reports whether points rise, or fall, all the way.
+func monotonic(x []float64) bool {
+	up, down := true, true
+	for i := 1; i < len(x); i++ {
+		up, down = up && x[i] > x[i-1], down && x[i] < x[i-1]
+	}
+	return up || down
 }
 
 // writeSweepCheckNote says where a check resting on the swept input comes

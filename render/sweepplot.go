@@ -1,7 +1,9 @@
 package render
 
 import (
+	"cmp"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -18,13 +20,19 @@ import (
 // with the input, and each check's worst point marked.
 func writeSweepPlot(w sink, s *project.Sheet, sw *conditions.SweepRun, digits int) {
 	marked := map[*engine.Statement]bool{}
+	// A sweep over a list in no order is drawn in the order of its input.
+	order := make([]int, len(sw.X))
+	for i := range order {
+		order[i] = i
+	}
+	slices.SortStableFunc(order, func(a, b int) int { return cmp.Compare(sw.X[a], sw.X[b]) })
 	for gi, group := range curveGroups(sw) {
 		spec := chart.LineSpec{X: chart.Axis{Quantity: SymbolText(sw.Input.Name), Unit: sw.XShown.Symbol}}
 		var names []string
 		for _, cv := range group {
 			c := chart.Curve{Name: SymbolText(cv.Stmt.Name)}
-			for i, y := range cv.Y {
-				if !math.IsNaN(y) {
+			for _, i := range order {
+				if y := cv.Y[i]; !math.IsNaN(y) {
 					c.X = append(c.X, sw.XShown.FromSI(sw.X[i]))
 					c.Y = append(c.Y, cv.Shown.FromSI(y))
 				}
