@@ -72,9 +72,12 @@ func writeCaseTable(w sink, s *project.Sheet, st *engine.Statement, digits int) 
 	shown := cols[0].res.Shown
 	if st.Kind != engine.Check {
 		caseRow(w, symbolHTML(st.Name), cols, func(r engine.Result) string {
-			if r.Phasor != nil {
-				r.Shown = shown
+			r.Shown = shown
+			switch {
+			case r.Phasor != nil:
 				return PhasorText(r, digits)
+			case r.List != nil:
+				return ListText(r, digits)
 			}
 			return ValueText(r.Value, shown, r.Digits(digits))
 		})
