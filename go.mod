@@ -14,6 +14,7 @@ require (
 	go.abhg.dev/goldmark/frontmatter v0.2.0
 	golang.org/x/sys v0.50.0
 	gonum.org/v1/gonum v0.17.0
+	gonum.org/v1/plot v0.17.0
 	gopkg.in/yaml.v3 v3.0.1
 )
 
@@ -35,5 +36,4 @@ require (
 	golang.org/x/crypto v0.54.0 // indirect
 	golang.org/x/image v0.44.0 // indirect
 	golang.org/x/text v0.40.0 // indirect
-	gonum.org/v1/plot v0.17.0 // indirect
 )

@@ -46,6 +46,8 @@ var Rules = []Rule{
 	{"thin-margin", "check within 5 % of its limit", "a pass with a utilisation above 95 % leaves little margin for the uncertainty of the inputs; confirm the margin is enough. A side of a tolerance band is judged by the band: within 5 % of the band's width from the edge it guards"},
 	{"fixed-check", "check that cannot fail", "a check whose outcome did not move when every input it rests on was varied (an identity, a fixed ratio such as 4.44 against √2·π) proves nothing about the design; it is shown apart and not counted as a pass. Show it as a result, or check against an independent quantity"},
 	{"recalled-default", "check resting on a template default recalled from memory", "a check turns on a template default whose source says it is recalled from memory; confirm the value for this job against the source and set it in the use statement, with its source"},
+	{"fails-within-tolerance", "check that fails within its inputs' tolerances", "a check that holds as written but fails at the worst combination of the tolerances of the inputs it rests on: the parts as made need not keep the pass. Tighten the tolerances that move it most, give the design more margin, or accept it with the reason (a probability of failure the client accepts)"},
+	{"case-not-evaluated", "check not worked out in a load case", "a check that could not be worked out in one of the sheet's load cases: its governing case may be the one not seen. Fix what the case makes fail, or take the case out"},
 	{"no-checker", "sheet without a checker or revision", "the title block should name the revision and who checked the sheet"},
 	{"unknown-acceptance", "acceptance of a finding that is not there", "an `accept` names a code that does not occur at that place; remove it or fix the code"},
 	{"acceptance-without-reason", "acceptance without a reason", "an accepted finding must say why it is acceptable"},
@@ -172,6 +174,8 @@ func sheetFindings(s *project.Sheet) []Finding {
 	out = append(out, fixedChecks(s)...)
 	out = append(out, bandMargins(s)...)
 	out = append(out, recalledDefaults(s)...)
+	out = append(out, toleranceFailures(s)...)
+	out = append(out, unevaluatedCases(s)...)
 	return out
 }
 

@@ -27,6 +27,17 @@ type Manifest struct {
 	Pages     []Page               `json:"pages"`
 	// JSON is the JSON document when the build wrote it into the package.
 	JSON *Page `json:"json,omitempty"`
+	// Sampling lists the Monte Carlo count and seed of each sheet with
+	// tolerances, so that a reader can repeat the figures.
+	Sampling []Sampling `json:"sampling,omitempty"`
+}
+
+// Sampling is the Monte Carlo count and seed one sheet's tolerances were
+// sampled with.
+type Sampling struct {
+	Sheet   string `json:"sheet"`
+	Samples int    `json:"samples"`
+	Seed    uint64 `json:"seed"`
 }
 
 // Page is one output file with its hash; Path is inside the package, with
@@ -42,7 +53,19 @@ func NewManifest(res *Result, pages []Page) Manifest {
 	return Manifest{
 		Tool: "sheaf " + opt.Version, Version: opt.Version, Stamp: project.StampOf(res.Package.Files, opt.Version),
 		BuildDate: opt.BuildDate, Digits: opt.Digits, Graphs: !opt.NoGraphs, Sources: res.Package.Files, Pages: pages,
+		Sampling: samplingOf(res.Package),
 	}
+}
+
+// samplingOf lists the sheets sampled, in the package's order.
+func samplingOf(pkg *project.Package) []Sampling {
+	var out []Sampling
+	for _, s := range pkg.Sheets {
+		if sp := s.Conditions.SpreadOf(); sp != nil {
+			out = append(out, Sampling{Sheet: s.Path(), Samples: sp.Samples, Seed: sp.Seed})
+		}
+	}
+	return out
 }
 
 // PageOf hashes an output file for the manifest.

@@ -1,6 +1,7 @@
 package chart
 
 import (
+	"math"
 	"strconv"
 
 	"gonum.org/v1/plot/plotter"
@@ -72,9 +73,9 @@ func (spec BarSpec) validate() error {
 	case len(spec.Values) > 1000:
 		return specError("%d harmonics; one spectrum shows at most 1000", len(spec.Values))
 	case firstNotFinite(spec.Values) >= 0:
-		return specError("the value of harmonic %d is not a finite number", spec.Orders[firstNotFinite(spec.Values)])
+		return specError("the value of harmonic %d is not a finite number within ±1e300", spec.Orders[firstNotFinite(spec.Values)])
 	case !finite(spec.LabelFrom):
-		return specError("the smallest labelled bar is not a finite number")
+		return specError("the smallest labelled bar is not a finite number within ±1e300")
 	}
 	for i, k := range spec.Orders {
 		if k < 1 || i > 0 && k <= spec.Orders[i-1] {
@@ -104,7 +105,7 @@ func barLabels(spec BarSpec) *plotter.Labels {
 			continue
 		}
 		pts = append(pts, plotter.XY{X: float64(i), Y: v})
-		labels = append(labels, strconv.FormatFloat(v, 'g', digits, 64))
+		labels = append(labels, sigText(v, digits))
 	}
 	lb, _ := plotter.NewLabels(plotter.XYLabels{XYs: pts, Labels: labels})
 	sty := textStyle(7, ink)
@@ -114,4 +115,14 @@ func barLabels(spec BarSpec) *plotter.Labels {
 	}
 	lb.Offset.Y = vg.Points(1.5)
 	return lb
+}
+
+// sigText writes v to d significant figures without an exponent: 100,
+// not 1e+02.
+func sigText(v float64, d int) string {
+	if v == 0 {
+		return "0"
+	}
+	p := math.Pow(10, float64(d-1)-math.Floor(math.Log10(math.Abs(v))))
+	return strconv.FormatFloat(math.Round(v*p)/p, 'f', -1, 64)
 }

@@ -83,25 +83,31 @@ func (a Axis) Label() string {
 	return a.Quantity + " / " + u
 }
 
-// errSpec wraps every problem with a spec, so callers can tell a bad
-// input from a failure to draw.
-var errSpec = errors.New("chart")
+// ErrSpec wraps every problem with a spec (errors.Is), so callers can
+// tell a bad input from a failure to draw.
+var ErrSpec = errors.New("chart")
 
 func specError(format string, args ...any) error {
-	return fmt.Errorf("%w: %s", errSpec, fmt.Sprintf(format, args...))
+	return fmt.Errorf("%w: %s", ErrSpec, fmt.Sprintf(format, args...))
 }
 
-// finite reports the first value that is NaN or infinite, or -1.
+// MaxMagnitude is the largest value a figure draws: spans of values
+// beyond it overflow float64, and the axes with them.
+const MaxMagnitude = 1e300
+
+// firstNotFinite reports the first value that is NaN, infinite or beyond
+// MaxMagnitude, or -1.
 func firstNotFinite(vs []float64) int {
 	for i, v := range vs {
-		if math.IsNaN(v) || math.IsInf(v, 0) {
+		if !finite(v) {
 			return i
 		}
 	}
 	return -1
 }
 
-func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
+// finite reports whether v is a number a figure can draw.
+func finite(v float64) bool { return !math.IsNaN(v) && math.Abs(v) <= MaxMagnitude }
 
 // size returns the figure's size in points, the defaults for zeros.
 func size(w, h float64) (vg.Length, vg.Length, error) {
@@ -146,7 +152,7 @@ func newPlot(x, y string) *plot.Plot {
 	return p
 }
 
-// grid is a faint grid at the major ticks, in the page's rule colour.
+// grid is a faint grid at the major ticks, in the page's band colour.
 func grid() *gridLines {
 	return &gridLines{sty: draw.LineStyle{Color: band, Width: vg.Points(0.5)}}
 }

@@ -209,7 +209,7 @@ func TestBadSpecsAreErrors(t *testing.T) {
 		"too many":    {Curves: []Curve{{X: make([]float64, MaxPoints+1), Y: make([]float64, MaxPoints+1)}}},
 	}
 	for name, spec := range lines {
-		if _, err := Line(spec); !errors.Is(err, errSpec) {
+		if _, err := Line(spec); !errors.Is(err, ErrSpec) {
 			t.Errorf("Line, %s: error %v, want a spec error", name, err)
 		}
 	}
@@ -222,7 +222,7 @@ func TestBadSpecsAreErrors(t *testing.T) {
 		"out of turn": {Orders: []int{1, 3, 2}, Values: []float64{1, 1, 1}},
 	}
 	for name, spec := range bars {
-		if _, err := Bars(spec); !errors.Is(err, errSpec) {
+		if _, err := Bars(spec); !errors.Is(err, ErrSpec) {
 			t.Errorf("Bars, %s: error %v, want a spec error", name, err)
 		}
 	}
@@ -233,7 +233,7 @@ func TestBadSpecsAreErrors(t *testing.T) {
 		"NaN tail": {Arrows: []Arrow{{Value: 1, Tail: complex(0, math.Inf(-1))}}},
 	}
 	for name, spec := range phasors {
-		if _, err := Phasors(spec); !errors.Is(err, errSpec) {
+		if _, err := Phasors(spec); !errors.Is(err, ErrSpec) {
 			t.Errorf("Phasors, %s: error %v, want a spec error", name, err)
 		}
 	}
@@ -254,4 +254,35 @@ func TestEdgeFiguresDraw(t *testing.T) {
 	if _, err := Phasors(PhasorSpec{Arrows: []Arrow{{Label: "V", Value: 230}}}); err != nil {
 		t.Error("one phasor:", err)
 	}
+}
+
+// A long curve is thinned to keep the figure small, and keeps its peaks:
+// 100,000 samples of a sine with one spike still reach the spike.
+func TestLongCurveStaysSmallAndKeepsPeaks(t *testing.T) {
+	n := 100_000
+	x, y := make([]float64, n), make([]float64, n)
+	for i := range x {
+		x[i] = float64(i) / float64(n-1) * 360
+		y[i] = math.Sin(x[i] * math.Pi / 180)
+	}
+	y[51_237] = 3 // the spike
+	pts := thin(xys(x, y))
+	if len(pts) > 4*thinBuckets {
+		t.Errorf("thinned to %d points, want at most %d", len(pts), 4*thinBuckets)
+	}
+	top := 0.0
+	for _, p := range pts {
+		top = math.Max(top, p.Y)
+	}
+	if top != 3 {
+		t.Errorf("the thinned curve peaks at %g, want the spike's 3", top)
+	}
+	b, err := Line(LineSpec{X: Axis{"θ", "°"}, Y: Axis{"y", "1"}, Curves: []Curve{{X: x, Y: y}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(b) > 40_000 {
+		t.Errorf("%d bytes for 100,000 samples, want at most 40 kB", len(b))
+	}
+	t.Logf("100,000 samples: %d bytes", len(b))
 }

@@ -2,6 +2,7 @@ package chart
 
 import (
 	"math"
+	"slices"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -67,7 +68,7 @@ func lineFigure(spec LineSpec) (figure, error) {
 	p.Add(grid())
 	x0, x1, y0, y1 := spec.extent()
 	for i, cv := range spec.Curves {
-		l, err := plotter.NewLine(xys(cv.X, cv.Y))
+		l, err := plotter.NewLine(thin(xys(cv.X, cv.Y)))
 		if err != nil {
 			return figure{}, specError("curve %d: %v", i+1, err)
 		}
@@ -106,9 +107,9 @@ func (spec LineSpec) validate() error {
 		case len(cv.X) < 2:
 			return specError("curve %d has %d points; a curve needs at least 2", i+1, len(cv.X))
 		case firstNotFinite(cv.X) >= 0:
-			return specError("curve %d: x value %d is not a finite number", i+1, firstNotFinite(cv.X)+1)
+			return specError("curve %d: x value %d is not a finite number within ±1e300", i+1, firstNotFinite(cv.X)+1)
 		case firstNotFinite(cv.Y) >= 0:
-			return specError("curve %d: y value %d is not a finite number", i+1, firstNotFinite(cv.Y)+1)
+			return specError("curve %d: y value %d is not a finite number within ±1e300", i+1, firstNotFinite(cv.Y)+1)
 		}
 		n += len(cv.X)
 	}
@@ -117,12 +118,12 @@ func (spec LineSpec) validate() error {
 	}
 	for _, l := range append(append([]Limit(nil), spec.YLimits...), spec.XLimits...) {
 		if !finite(l.Value) {
-			return specError("limit %q is not a finite number", l.Label)
+			return specError("limit %q is not a finite number within ±1e300", l.Label)
 		}
 	}
 	for _, m := range spec.Marks {
 		if !finite(m.X) || !finite(m.Y) {
-			return specError("mark %q is not at a finite point", m.Label)
+			return specError("mark %q is not at a finite point within ±1e300", m.Label)
 		}
 	}
 	return nil
@@ -152,6 +153,43 @@ func (spec LineSpec) extent() (x0, x1, y0, y1 float64) {
 		x0, x1 = math.Min(x0, l.Value), math.Max(x1, l.Value)
 	}
 	return x0, x1, y0, y1
+}
+
+// thinFrom is the most points a curve is drawn with as given; a longer
+// one keeps, in each of thinBuckets runs of points, the first, the lowest,
+// the highest and the last, so that its peaks stay where they are and the
+// figure stays small.
+const (
+	thinFrom    = 1500
+	thinBuckets = 400
+)
+
+func thin(pts plotter.XYs) plotter.XYs {
+	if len(pts) <= thinFrom {
+		return pts
+	}
+	out := make(plotter.XYs, 0, 4*thinBuckets)
+	for b := range thinBuckets {
+		lo, hi := b*len(pts)/thinBuckets, (b+1)*len(pts)/thinBuckets
+		keep := []int{lo, hi - 1}
+		mn, mx := lo, lo
+		for i := lo; i < hi; i++ {
+			if pts[i].Y < pts[mn].Y {
+				mn = i
+			}
+			if pts[i].Y > pts[mx].Y {
+				mx = i
+			}
+		}
+		keep = append(keep, min(mn, mx), max(mn, mx))
+		slices.Sort(keep)
+		for i, k := range keep {
+			if i == 0 || k != keep[i-1] {
+				out = append(out, pts[k])
+			}
+		}
+	}
+	return out
 }
 
 func xys(x, y []float64) plotter.XYs {

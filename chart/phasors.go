@@ -52,35 +52,132 @@ func phasorFigure(spec PhasorSpec) (figure, error) {
 	return figure{w, h, func(c draw.Canvas) { paintPhasors(c, spec) }}, nil
 }
 
-// paintPhasors draws the diagram: a box that holds the origin and every
-// tip, at one scale both ways, with room for the labels at the tips.
+// paintPhasors draws the diagram: the origin, every tip and every label
+// inside the figure, at one scale both ways.
 func paintPhasors(c draw.Canvas, spec PhasorSpec) {
 	w, h := c.Max.X-c.Min.X, c.Max.Y-c.Min.Y
 	c.SetColor(paper)
 	c.Fill(c.Rectangle.Path())
+	labels := placeLabels(spec)
 	lo, hi := spec.extent()
-	margin := vg.Points(34)
-	scale := math.Min(float64(w-2*margin)/(real(hi)-real(lo)), float64(h-2*margin)/(imag(hi)-imag(lo)))
-	mid := (lo + hi) / 2
+	scale := fitScale(labels, lo, hi, float64(w)-16, float64(h)-28)
+	// Centre what is drawn, labels included.
+	x0, x1, y0, y1 := bounds(labels, lo, hi, scale)
+	dx, dy := (float64(w)-(x1-x0))/2-x0, (float64(h)-(y1-y0))/2-y0+6
 	at := func(z complex128) vg.Point {
-		return vg.Point{X: w/2 + vg.Length(scale*real(z-mid)), Y: h/2 + vg.Length(scale*imag(z-mid))}
+		return vg.Point{X: vg.Length(scale*real(z) + dx), Y: vg.Length(scale*imag(z) + dy)}
 	}
 	drawAxes(&c, at(0), w, h)
-	var tips []vg.Point
 	for i, a := range spec.Arrows {
 		col := curveColours[i%len(curveColours)]
-		tail, tip := at(a.Tail), at(a.Tail+a.Value)
-		drawArrow(&c, tail, tip, col, a.Result)
-		if near(tip, tips) {
-			// A tip another label holds already (the sum closing a
-			// chain): the label goes beside the middle of the shaft.
-			drawTipLabel(&c, vg.Point{X: (tail.X + tip.X) / 2, Y: (tail.Y + tip.Y) / 2}, a.Value*1i, a.Label, col, vg.Points(6))
-		} else {
-			drawTipLabel(&c, tip, a.Value, a.Label, col, vg.Points(4))
+		drawArrow(&c, at(a.Tail), at(a.Tail+a.Value), col, a.Result)
+		if l := labels[i]; l.text != "" {
+			l.sty.Color = col
+			p := at(l.anchor)
+			c.FillText(l.sty, vg.Point{X: p.X + vg.Length(l.off[0]), Y: p.Y + vg.Length(l.off[1])}, l.text)
 		}
-		tips = append(tips, tip)
 	}
 	drawScaleBar(&c, (real(hi)-real(lo))/4, scale, spec.Unit)
+}
+
+// label is a tip's label: anchored at a point of the diagram, offset in
+// points, its box in points about the anchor.
+type label struct {
+	text   string
+	sty    text.Style
+	anchor complex128
+	off    [2]float64
+	box    [4]float64 // left, right, bottom, top, relative to the anchor
+}
+
+// placeLabels puts each label beyond its tip, on the side the phasor
+// points to; a tip that an earlier label holds already (the sum closing
+// a chain) has its label beside the middle of its shaft instead.
+func placeLabels(spec PhasorSpec) []label {
+	lo, hi := spec.extent()
+	close := 0.03 * cmplx.Abs(hi-lo)
+	out := make([]label, len(spec.Arrows))
+	for i, a := range spec.Arrows {
+		tip, dir, gap := a.Tail+a.Value, a.Value, 4.0
+		for _, b := range spec.Arrows[:i] {
+			if cmplx.Abs(b.Tail+b.Value-tip) < close {
+				tip, dir, gap = a.Tail+a.Value/2, a.Value*1i, 6
+				break
+			}
+		}
+		out[i] = newLabel(a.Label, tip, dir, gap)
+	}
+	return out
+}
+
+func newLabel(txt string, anchor, dir complex128, gap float64) label {
+	l := label{text: txt, sty: textStyle(8, ink), anchor: anchor}
+	if txt == "" {
+		return l
+	}
+	ang := cmplx.Phase(dir)
+	ux, uy := math.Cos(ang), math.Sin(ang)
+	tw, th := float64(l.sty.Width(txt)), float64(l.sty.Height(txt))
+	l.off = [2]float64{gap * ux, gap * uy}
+	var left, bottom float64
+	switch {
+	case ux > 0.3:
+		l.sty.XAlign, left = text.XLeft, 0
+	case ux < -0.3:
+		l.sty.XAlign, left = text.XRight, -tw
+	default:
+		l.sty.XAlign, left = text.XCenter, -tw/2
+	}
+	switch {
+	case uy > 0.3:
+		l.sty.YAlign, bottom = text.YBottom, 0
+	case uy < -0.3:
+		l.sty.YAlign, bottom = text.YTop, -th
+	default:
+		l.sty.YAlign, bottom = text.YCenter, -th/2
+	}
+	l.box = [4]float64{l.off[0] + left, l.off[0] + left + tw, l.off[1] + bottom, l.off[1] + bottom + th}
+	return l
+}
+
+// bounds is the extent in points, at the given scale, of the box lo..hi
+// and of every label.
+func bounds(labels []label, lo, hi complex128, scale float64) (x0, x1, y0, y1 float64) {
+	x0, x1 = scale*real(lo), scale*real(hi)
+	y0, y1 = scale*imag(lo), scale*imag(hi)
+	for _, l := range labels {
+		if l.text == "" {
+			continue
+		}
+		ax, ay := scale*real(l.anchor), scale*imag(l.anchor)
+		x0, x1 = math.Min(x0, ax+l.box[0]), math.Max(x1, ax+l.box[1])
+		y0, y1 = math.Min(y0, ay+l.box[2]), math.Max(y1, ay+l.box[3])
+	}
+	return x0, x1, y0, y1
+}
+
+// fitScale is the largest scale, in points per unit, at which the
+// diagram and its labels fit w by h. The width needed grows with the
+// scale (a maximum of lines in it), so halving the interval finds it.
+func fitScale(labels []label, lo, hi complex128, w, h float64) float64 {
+	fits := func(s float64) bool {
+		x0, x1, y0, y1 := bounds(labels, lo, hi, s)
+		return x1-x0 <= w && y1-y0 <= h
+	}
+	top := math.Min(w/(real(hi)-real(lo)), h/(imag(hi)-imag(lo)))
+	bottom := top / 1e3
+	if !fits(bottom) {
+		return bottom // labels wider than the figure: draw small rather than not at all
+	}
+	for range 40 {
+		mid := (bottom + top) / 2
+		if fits(mid) {
+			bottom = mid
+		} else {
+			top = mid
+		}
+	}
+	return bottom
 }
 
 func (spec PhasorSpec) validate() error {
@@ -94,7 +191,7 @@ func (spec PhasorSpec) validate() error {
 	for i, a := range spec.Arrows {
 		for _, v := range []float64{real(a.Tail), imag(a.Tail), real(a.Value), imag(a.Value)} {
 			if !finite(v) {
-				return specError("phasor %d (%s) is not a finite number", i+1, a.Label)
+				return specError("phasor %d (%s) is not a finite number within ±1e300", i+1, a.Label)
 			}
 		}
 		big = math.Max(big, cmplx.Abs(a.Value))
@@ -156,34 +253,6 @@ func drawArrow(c *draw.Canvas, a, b vg.Point, col color.Color, heavy bool) {
 	c.FillPolygon(col, []vg.Point{b, base.Add(side), base.Sub(side)})
 }
 
-// drawTipLabel writes the label just beyond the tip, on the side the
-// phasor points to, so it clears its own arrow.
-func drawTipLabel(c *draw.Canvas, tip vg.Point, v complex128, label string, col color.Color, gap vg.Length) {
-	if label == "" {
-		return
-	}
-	ts := textStyle(8, col)
-	ang := cmplx.Phase(v)
-	ux, uy := math.Cos(ang), math.Sin(ang)
-	switch {
-	case ux > 0.3:
-		ts.XAlign = text.XLeft
-	case ux < -0.3:
-		ts.XAlign = text.XRight
-	default:
-		ts.XAlign = text.XCenter
-	}
-	switch {
-	case uy > 0.3:
-		ts.YAlign = text.YBottom
-	case uy < -0.3:
-		ts.YAlign = text.YTop
-	default:
-		ts.YAlign = text.YCenter
-	}
-	c.FillText(ts, vg.Point{X: tip.X + gap*vg.Length(ux), Y: tip.Y + gap*vg.Length(uy)}, label)
-}
-
 // drawScaleBar draws a bar of a round length near span at the foot of
 // the diagram: equal scales need one, since there are no tick marks.
 func drawScaleBar(c *draw.Canvas, span, scale float64, unit string) {
@@ -201,16 +270,6 @@ func drawScaleBar(c *draw.Canvas, span, scale float64, unit string) {
 		lab += " " + unit
 	}
 	c.FillText(ts, vg.Point{X: x0 + l/2, Y: y + vg.Points(2.5)}, lab)
-}
-
-// near reports whether p lies within a label's height of any of pts.
-func near(p vg.Point, pts []vg.Point) bool {
-	for _, q := range pts {
-		if math.Hypot(float64(p.X-q.X), float64(p.Y-q.Y)) < 10 {
-			return true
-		}
-	}
-	return false
 }
 
 // roundDown is the largest 1, 2 or 5 times a power of ten not above v.

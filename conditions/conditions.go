@@ -60,6 +60,15 @@ func (r *Report) Governing(st *engine.Statement) (Governing, bool) {
 	return g, ok
 }
 
+// SpreadOf returns the tolerance figures, nil for a sheet without
+// tolerances.
+func (r *Report) SpreadOf() *Spread {
+	if r == nil {
+		return nil
+	}
+	return r.Spread
+}
+
 // Case returns a case's results, by the case statement.
 func (r *Report) Case(st *engine.Statement) *CaseRun {
 	if r == nil {
@@ -144,7 +153,7 @@ func reachedBySweep(calc *engine.Calc, st *engine.Statement, sweeps []*engine.St
 	ins, _ := calc.RestsOn(st)
 	for _, s := range sweeps {
 		for _, in := range ins {
-			if in == s.Cond.Input {
+			if in == s.Cond.Input && s.Cond.Governs {
 				return true
 			}
 		}

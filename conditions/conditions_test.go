@@ -345,3 +345,108 @@ func TestBadConditions(t *testing.T) {
 		}
 	}
 }
+
+// A sweep point and a Monte Carlo sample allocate nothing: the
+// allocations of a run do not grow with its points or samples.
+func TestNoAllocationPerPoint(t *testing.T) {
+	allocs := func(lines ...string) float64 {
+		calc := compile(t, lines...)
+		mustClean(t, calc)
+		return testing.AllocsPerRun(3, func() { conditions.Run(calc) })
+	}
+	base := []string{"U = 24 V", "R = 3 ohm", "I = U / R", "P = U * I", "check P <= 300 W"}
+	few := allocs(append(base, "sweep s: U over 1 V .. 100 V by 1 V show I, P")...)
+	many := allocs(append(base, "sweep s: U over 1 V .. 10000 V by 1 V show I, P")...)
+	// The curves' and checks' slices grow with the points; nothing else
+	// may.
+	if many-few > 8 {
+		t.Errorf("a sweep of 10000 points allocates %.0f times, one of 100 points %.0f: a point allocates", many, few)
+	}
+	tol := []string{"U = 24 V ± 5 %", "R = 3 ohm ± σ 0.05 ohm", "I = U / R", "P = U * I", "check P <= 220 W"}
+	small := allocs(append(tol, "sample 4096 times")...)
+	large := allocs(append(tol, "sample 40960 times")...)
+	// Each chunk of 4096 samples has its stream and tallies: ten chunks
+	// may allocate a few dozen times more, not once per sample.
+	if large-small > 200 {
+		t.Errorf("40960 samples allocate %.0f times, 4096 samples %.0f: a sample allocates", large, small)
+	}
+}
+
+// FuzzConditions compiles a sheet with cases, sweeps and tolerances from
+// the fuzz string and runs it over them: whatever the input, nothing
+// panics, and every governing condition is one the sheet declares.
+func FuzzConditions(f *testing.F) {
+	for _, seed := range []string{
+		"U = 24 V ± 5 %\nR = 3 ohm in 2.9 ohm .. 3.2 ohm\nI = U / R\ncheck I <= 9 A\ncase low: U = 20 V\ncase high: U = 28 V, R = 2.9 ohm\nsweep s: U over 18 V .. 30 V by 1 V show I\nsample 500 times, seed 4",
+		"x = 1 ± 0.5 triangular\ny = (x - 1)^2\ncheck y <= 0.3\ncheck 0.05 <= y\nz = 2 ± σ 0.1\nw = x * z\nsample 100 times",
+		"a = 1 m ± σ -1 m\nb = a in 2 m .. 1 m\ncase c: a = 1 s\nsweep d: b over 1 m .. 1 m by 1 m\nsweep e: a over [1 m, 2 m] in nope show b\nsample 0 times",
+		"t = 40 degC ± 5 K\nu = t + 10 K\ncheck u <= 60 degC\ncase hot: t = 50 degC\nsweep w: t over 20 degC .. 60 degC by 10 K show u",
+	} {
+		f.Add(seed)
+	}
+	f.Fuzz(func(t *testing.T, src string) {
+		lines := strings.Split(src, "\n")
+		if len(lines) > 40 || strings.Contains(src, "sample") && strings.ContainsAny(src, "0123456789") && len(src) > 400 {
+			return // keep each run short: the limits are tested on their own
+		}
+		calc := compile(t, lines...)
+		r := conditions.Run(calc)
+		for _, st := range calc.Statements {
+			g, ok := r.Governing(st)
+			if !ok {
+				continue
+			}
+			if g.Case == nil && g.Sweep == nil && g.Where != "as written" {
+				t.Fatalf("governing condition %q is neither as written, a case nor a sweep", g.Where)
+			}
+		}
+	})
+}
+
+// A curve draws results against an input and governs no check: its
+// checks' worst point is reported for the table, and the check keeps
+// its verdict as written.
+func TestCurveGovernsNoCheck(t *testing.T) {
+	calc := compile(t,
+		"I = 2 A", "R = 5 ohm", "U = I * R", "U_max = 30 V", "check U <= U_max",
+		"curve vi: I over 0 A .. 10 A by 1 A show U",
+	)
+	mustClean(t, calc)
+	r := conditions.Run(calc)
+	if _, ok := r.Governing(statement(t, calc, "U <= U_max")); ok {
+		t.Error("a curve governs a check")
+	}
+	if c := r.Sweeps[0].Checks; len(c) != 1 || c[0].Worst != 10 || c[0].Fails != 4 {
+		t.Errorf("curve's checks %+v, want the worst at 10 A and 4 points above 30 V", c)
+	}
+	if st := statement(t, calc, "U <= U_max"); calc.Result(st).Status != engine.Pass {
+		t.Errorf("the check as written must hold")
+	}
+}
+
+// A template's cases set its instance's inputs, so every sheet that uses
+// the template shares them: a package-wide set of supply cases.
+func TestCasesFromATemplate(t *testing.T) {
+	b := engine.SourceBlock{Fence: diag.Pos{File: "a.md", Line: 1, Col: 1}}
+	for i, l := range []string{"use dc = _templates/supply", "R = 11 ohm", "I = dc.U / R", "I_max = 21 A", "check I <= I_max"} {
+		b.Lines = append(b.Lines, engine.SourceLine{Text: l, Pos: diag.Pos{File: "a.md", Line: i + 2, Col: 1}})
+	}
+	tb := engine.SourceBlock{Fence: diag.Pos{File: "_templates/supply.md", Line: 4, Col: 1}}
+	for i, l := range []string{"U = 220 V ; supply ; source: spec", "case low-battery: U = 187 V", "case boost: U = 242 V"} {
+		tb.Lines = append(tb.Lines, engine.SourceLine{Text: l, Pos: diag.Pos{File: "_templates/supply.md", Line: i + 5, Col: 1}})
+	}
+	resolve := func(name, from string) (engine.SheetSource, string, error) {
+		return engine.SheetSource{Path: "_templates/supply.md", Blocks: []engine.SourceBlock{tb}}, "_templates/supply.md", nil
+	}
+	calc := engine.CompileWith(engine.SheetSource{Path: "a.md", Blocks: []engine.SourceBlock{b}}, engine.Options{Resolve: resolve})
+	calc.Evaluate()
+	mustClean(t, calc)
+	r := conditions.Run(calc)
+	if len(r.Cases) != 2 || r.Cases[1].Stmt.Name != "dc.boost" {
+		t.Fatalf("cases %+v, want the template's two, named for the instance", r.Cases)
+	}
+	g, ok := r.Governing(statement(t, calc, "I <= I_max"))
+	if !ok || g.Where != "case dc.boost" || g.Result.Status != engine.Fail {
+		t.Fatalf("governing %+v, want case dc.boost failing (242 V / 11 Ω = 22 A)", g)
+	}
+}

@@ -19,6 +19,10 @@ type Spread struct {
 	Seed    uint64
 	Checks  []CheckSpread
 	Results []ResultSpread
+	// Partial is set when the worst cases of some statements were found by
+	// sensitivities, or some results left out, to keep within the sheet's
+	// work limit.
+	Partial bool
 }
 
 // CheckSpread is one check under the tolerances of the inputs it rests
@@ -77,8 +81,24 @@ type ResultSpread struct {
 	Ranking  []Sensitivity
 }
 
-// maxCorners bounds the corners enumerated for one check: 2^10 runs.
-const maxCorners = 10
+// maxCorners bounds the inputs whose corners are enumerated for one
+// statement, 2^10 runs, and maxCombinations the combinations tried with
+// the interior points.
+const (
+	maxCorners      = 10
+	maxCombinations = 4096
+)
+
+// combos counts the combinations of the candidates.
+func combos(cands [][]float64) int {
+	n := 1
+	for _, c := range cands {
+		if n *= len(c); n > maxCombinations {
+			return n
+		}
+	}
+	return n
+}
 
 // runSpread works out the tolerances' effects.
 func runSpread(calc *engine.Calc, p *engine.Program, inputs []*engine.Statement, sampling *engine.Statement) *Spread {
@@ -91,6 +111,7 @@ func runSpread(calc *engine.Calc, p *engine.Program, inputs []*engine.Statement,
 		index[in] = i
 	}
 	ev := newEvaluator(p, inputs)
+	ev.budget = (engine.MaxConditionWork - sp.Samples*p.Steps()) / max(1, p.Steps())
 	for _, st := range calc.Statements {
 		res := calc.Result(st)
 		ins := tolerated(calc, st, index)
@@ -99,11 +120,20 @@ func runSpread(calc *engine.Calc, p *engine.Program, inputs []*engine.Statement,
 		}
 		switch {
 		case st.Kind == engine.Check && settled(res.Status) && st.Compare().Op != "==":
+			if ev.runs+2*len(ins)+2 > ev.budget {
+				ev.partial = true
+				continue
+			}
 			sp.Checks = append(sp.Checks, ev.check(st, ins))
 		case st.Kind == engine.Definition && res.Status == engine.OK && !st.IsInput() && !st.Type.IsList() && !st.Type.IsComplex():
+			if ev.runs+(2*len(ins)+2)*(interiorSteps+2) > ev.budget {
+				ev.partial = true
+				continue
+			}
 			sp.Results = append(sp.Results, ev.result(st, ins))
 		}
 	}
+	sp.Partial = ev.partial
 	sp.sample(p)
 	return sp
 }
@@ -133,6 +163,11 @@ type evaluator struct {
 	inputs []*engine.Statement
 	nom    []float64
 	sets   []engine.Set
+	// runs counts the runs made, budget the runs allowed; partial is set
+	// once a statement's worst case fell back to sensitivities for the
+	// budget.
+	runs, budget int
+	partial      bool
 }
 
 func newEvaluator(p *engine.Program, inputs []*engine.Statement) *evaluator {
@@ -155,6 +190,7 @@ func (ev *evaluator) at(st *engine.Statement, ins []int, x []float64) (v float64
 	for k, i := range ins {
 		ev.sets[i].SI = x[k]
 	}
+	ev.runs++
 	ev.p.Run(ev.f, ev.sets)
 	return read(st, ev.f)
 }
@@ -251,22 +287,16 @@ func (ev *evaluator) result(st *engine.Statement, ins []int) ResultSpread {
 // effect is not monotonic; by the sensitivities' signs for a statement on
 // more inputs than the corners can be enumerated for.
 func (ev *evaluator) extreme(st *engine.Statement, ins []int, sens []Sensitivity, dir float64) ([]float64, string) {
-	if len(ins) > maxCorners {
-		x := ev.nominal(ins)
-		for k, i := range ins {
-			for _, s := range sens {
-				if s.Input == ev.inputs[i] {
-					if s.Slope*dir > 0 {
-						x[k] = ev.inputs[i].Tol.Hi
-					} else {
-						x[k] = ev.inputs[i].Tol.Lo
-					}
-				}
-			}
-		}
-		return x, "sensitivities"
+	if len(ins) <= maxCorners && ev.runs+(1<<len(ins))+len(ins)*(interiorSteps+1) > ev.budget {
+		ev.partial = true
+	}
+	if len(ins) > maxCorners || ev.partial {
+		return ev.bySigns(ins, sens, dir), "sensitivities"
 	}
 	cands, interior := ev.candidates(st, ins, dir)
+	if combos(cands) > maxCombinations {
+		return ev.bySigns(ins, sens, dir), "sensitivities"
+	}
 	best, bestV := []float64(nil), math.Inf(-1)
 	x := make([]float64, len(ins))
 	var walk func(k int)
@@ -354,4 +384,23 @@ func quantile(t *engine.Tolerance, nominal float64) func(u float64) float64 {
 		return distuv.NewTriangle(t.Lo, t.Hi, nominal, nil).Quantile
 	}
 	return distuv.Uniform{Min: t.Lo, Max: t.Hi}.Quantile
+}
+
+// bySigns puts each input at the limit its slope says moves the value in
+// direction dir.
+func (ev *evaluator) bySigns(ins []int, sens []Sensitivity, dir float64) []float64 {
+	x := ev.nominal(ins)
+	for k, i := range ins {
+		for _, s := range sens {
+			if s.Input != ev.inputs[i] {
+				continue
+			}
+			if s.Slope*dir > 0 {
+				x[k] = ev.inputs[i].Tol.Hi
+			} else {
+				x[k] = ev.inputs[i].Tol.Lo
+			}
+		}
+	}
+	return x
 }

@@ -123,7 +123,7 @@ func (c *SweepCheck) read(f *engine.Frame, i int) {
 func (r *Report) considerSweep(calc *engine.Calc, p *engine.Program, sw *SweepRun) {
 	c := sw.Stmt.Cond
 	for _, chk := range sw.Checks {
-		if _, ok := r.govern[chk.Stmt]; !ok || chk.Worst < 0 {
+		if _, ok := r.govern[chk.Stmt]; !ok || chk.Worst < 0 || !c.Governs {
 			continue
 		}
 		f := p.NewFrame()

@@ -1,6 +1,7 @@
 package engine
 
 import (
+	"fmt"
 	"math"
 	"strconv"
 	"strings"
@@ -26,6 +27,11 @@ const (
 	// no sample statement.
 	DefaultSamples = 10_000
 	DefaultSeed    = 1
+	// MaxTolerances bounds the toleranced inputs of one sheet, and
+	// MaxConditionWork the statements evaluated over all its cases, sweep
+	// points and samples: about ten seconds of work.
+	MaxTolerances    = 64
+	MaxConditionWork = 500_000_000
 )
 
 // Condition is what a case, sweep or sample statement declares, once
@@ -43,10 +49,14 @@ type Condition struct {
 	Points            []float64
 	In                *Statement
 	Show              []*Statement
-	showNames         []string
-	showPos           []diag.Pos
-	points            Expr
-	pointsPos         diag.Pos
+	// Governs is set for a sweep, whose checks must hold at every point,
+	// and not for a curve, which only draws its results against the
+	// input (a characteristic, such as the open-circuit one).
+	Governs   bool
+	showNames []string
+	showPos   []diag.Pos
+	points    Expr
+	pointsPos diag.Pos
 
 	// Samples and Seed are a sample statement's Monte Carlo count and seed.
 	Samples int
@@ -117,7 +127,7 @@ func caseName(r []rune, i int) (string, int) {
 // the word, a name and a colon.
 func conditionHead(r []rune, i, end int) bool {
 	w, j := word(r, i)
-	if (w != "case" && w != "sweep") || j >= end || !unicode.IsSpace(r[j]) {
+	if (w != "case" && w != "sweep" && w != "curve") || j >= end || !unicode.IsSpace(r[j]) {
 		return false
 	}
 	_, k := caseName(r, skipSpace(r, j))
@@ -141,7 +151,8 @@ func parseCase(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	return parseOverrides(st, t, j, end)
 }
 
-// parseSweep reads `sweep name: input over points [in case] [show a, b]`.
+// parseSweep reads `sweep name: input over points [in case] [show a, b]`,
+// or the same with curve for a characteristic that governs no check.
 func parseSweep(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	r := t.runes
 	st.Kind = Sweep
@@ -152,7 +163,8 @@ func parseSweep(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	st.Name, j = caseName(r, j)
 	j = skipSpace(r, j) + 1
 	st.Formula = strings.TrimSpace(string(r[j:end]))
-	c := &Condition{}
+	w, _ := word(r, i)
+	c := &Condition{Governs: w == "sweep"}
 	st.Cond = c
 	j = skipSpace(r, j)
 	c.InputName, j = qualifiedName(r, j)
@@ -323,12 +335,10 @@ func parseTolerance(st *Statement, t *text, k, end int) *diag.Diagnostic {
 		tol.form, tol.Dist, from = "σ", Normal, j
 	}
 	stop := end
-	for _, d := range []Distribution{Uniform, Triangular, Normal} {
-		if at := topLevelWord(r, from, end, d.String()); at < stop && tol.form == "±" {
-			stop, tol.Dist = at, d
-			if skipSpace(r[:end], at+len(d.String())) != end {
-				return errAt(t.pos(at), toleranceExample, "unexpected text after %s", d)
-			}
+	if tol.form == "±" {
+		var err *diag.Diagnostic
+		if stop, err = distributionWord(tol, t, from, end); err != nil {
+			return err
 		}
 	}
 	e, err := toleranceValue(t, from, stop)
@@ -354,9 +364,29 @@ func parseLimits(tol *Tolerance, t *text, from, end int) *diag.Diagnostic {
 	if err != nil {
 		return err
 	}
-	b, err := toleranceValue(t, dots+2, end)
+	stop, err := distributionWord(tol, t, dots+2, end)
+	if err != nil {
+		return err
+	}
+	b, err := toleranceValue(t, dots+2, stop)
 	tol.a, tol.b = a, b
 	return err
+}
+
+// distributionWord finds a distribution written after a tolerance's
+// value in r[from:end], sets it, and returns where the value ends.
+func distributionWord(tol *Tolerance, t *text, from, end int) (int, *diag.Diagnostic) {
+	r := t.runes
+	stop := end
+	for _, d := range []Distribution{Uniform, Triangular, Normal} {
+		if at := topLevelWord(r, from, end, d.String()); at < stop {
+			stop, tol.Dist = at, d
+			if skipSpace(r[:end], at+len(d.String())) != end {
+				return stop, errAt(t.pos(at), toleranceExample, "unexpected text after %s", d)
+			}
+		}
+	}
+	return stop, nil
 }
 
 // toleranceValue parses one value of a tolerance.
@@ -432,6 +462,9 @@ func checkTolerance(st *Statement) *diag.Diagnostic {
 			return errAt(tol.a.Pos(), "write the limits lower .. upper, around the value written", "the limits do not enclose the input's value")
 		}
 		tol.Lo, tol.Hi = a, b
+		if tol.Dist == Normal {
+			tol.Sigma = (b - a) / 6 // the limits are ∓3σ about their middle
+		}
 	}
 	return nil
 }
@@ -466,8 +499,8 @@ func (s *Calc) checkConditions() {
 	named := map[string]*Statement{}
 	var sampling *Statement
 	for _, st := range s.Statements {
-		if st.Verdict == Errored || st.Instance != "" {
-			continue
+		if st.Verdict == Errored || st.Instance != "" && st.Kind == Sampling {
+			continue // a template's sample count is the using sheet's to set
 		}
 		switch st.Kind {
 		case Case, Sweep:
@@ -484,9 +517,9 @@ func (s *Calc) checkConditions() {
 			sampling = st
 		}
 	}
-	cases := 0
+	cases, work := 0, 0
 	for _, st := range s.Statements {
-		if st.Verdict == Errored || st.Instance != "" {
+		if st.Verdict == Errored {
 			continue
 		}
 		var err *diag.Diagnostic
@@ -497,10 +530,16 @@ func (s *Calc) checkConditions() {
 			} else {
 				err = s.checkCase(st)
 			}
+			work += len(s.Statements)
 		case Sweep:
-			err = s.checkSweep(st, named)
+			if err = s.checkSweep(st, named); err == nil {
+				work += len(st.Cond.Points) * len(s.Statements)
+			}
 		default:
 			continue
+		}
+		if err == nil && work > MaxConditionWork {
+			err = errAt(st.NamePos, "use fewer points or cases, or split the sheet", "the sheet's cases and sweeps evaluate more than %d statements in all, the limit for one sheet", MaxConditionWork)
 		}
 		if err != nil {
 			s.fail(st, err)
@@ -508,9 +547,21 @@ func (s *Calc) checkConditions() {
 			st.Verdict = OK
 		}
 	}
-	if sampling != nil {
-		sampling.Verdict = OK
+	s.checkSampling(sampling)
+}
+
+// checkSampling bounds the Monte Carlo work of the sheet: its samples
+// times its statements.
+func (s *Calc) checkSampling(st *Statement) {
+	if st == nil {
+		return
 	}
+	if n := st.Cond.Samples; n*len(s.Statements) > MaxConditionWork {
+		s.fail(st, errAt(st.Pos, fmt.Sprintf("sample at most %d times on a sheet of %d statements, or split the sheet", MaxConditionWork/len(s.Statements), len(s.Statements)),
+			"%d samples of %d statements are more than %d evaluations, the limit for one sheet", n, len(s.Statements), MaxConditionWork))
+		return
+	}
+	st.Verdict = OK
 }
 
 func kindWord(k StmtKind) string {

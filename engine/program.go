@@ -102,6 +102,10 @@ func (s *Calc) buildProgram() *Program {
 	return p
 }
 
+// Steps returns the number of statements a first run evaluates: the
+// measure of one run's work.
+func (p *Program) Steps() int { return len(p.steps) }
+
 // Input returns the slot of the input with this name.
 func (p *Program) Input(name string) (int, bool) {
 	slot, ok := p.inputs[name]

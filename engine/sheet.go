@@ -34,8 +34,9 @@ type Calc struct {
 	results []Result // by slot, from Evaluate
 	// names are the sheet's names and the constants, sorted, once an
 	// unknown name needs them; suggested counts the looks for a close one.
-	names     []string
-	suggested int
+	names      []string
+	suggested  int
+	tolerances int // toleranced inputs checked so far
 	// traces are what each statement rests on, worked out once.
 	traceOnce sync.Once
 	traces    []trace
@@ -402,6 +403,10 @@ func (s *Calc) check(st *Statement) {
 		return
 	}
 	if st.Tol != nil {
+		if s.tolerances++; s.tolerances > MaxTolerances {
+			s.fail(st, errAt(st.Tol.Pos, "give tolerances to the inputs that matter most, or split the sheet", "the sheet has more than %d toleranced inputs, the limit for one sheet", MaxTolerances))
+			return
+		}
 		if err := checkTolerance(st); err != nil {
 			s.fail(st, err)
 			return

@@ -382,6 +382,7 @@ func nameInstance(use *Statement, body []*Statement, mine map[*Statement]bool, t
 		if st.Name != "" {
 			st.Name = prefix + st.Name
 		}
+		renameCondition(st, rename, prefix)
 		for i, id := range st.Assumes {
 			st.Assumes[i] = prefix + id
 		}
@@ -392,6 +393,27 @@ func nameInstance(use *Statement, body []*Statement, mine map[*Statement]bool, t
 			st.Instance = prefix + st.Instance
 		}
 		st.Block = use.Block
+	}
+}
+
+// renameCondition gives a case's or a sweep's names the instance's: a
+// template's cases set the instance's inputs, so that every sheet using
+// the template shares its cases.
+func renameCondition(st *Statement, rename func(string) string, prefix string) {
+	switch st.Kind {
+	case Case:
+		for i := range st.Overrides {
+			st.Overrides[i].Name = rename(st.Overrides[i].Name)
+		}
+	case Sweep:
+		c := st.Cond
+		c.InputName = rename(c.InputName)
+		if c.InName != "" {
+			c.InName = prefix + c.InName
+		}
+		for i, n := range c.showNames {
+			c.showNames[i] = rename(n)
+		}
 	}
 }
 

@@ -76,7 +76,7 @@ func TestIncrementalEqualsFullBuild(t *testing.T) {
 		{"the formula fixed", "04-pump-motor-back-emf.md", "R_a = 0.28 ohm *", "R_a = 0.28 ohm", []string{"04-pump-motor-back-emf.md"}},
 		// A later date in one sheet moves the build date every page
 		// states: one sheet evaluated again, every page rendered again.
-		{"a later date", "04-pump-motor-back-emf.md", "date: 2026-11-30", "date: 2026-12-03", []string{"04-pump-motor-back-emf.md"}},
+		{"a later date", "04-pump-motor-back-emf.md", "date: 2026-12-02", "date: 2026-12-05", []string{"04-pump-motor-back-emf.md"}},
 		{"a new sheet", "", "", "", append(all, "06-spare.md")},
 	} {
 		t.Run(tc.name, func(t *testing.T) {

@@ -9,6 +9,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/sheaf-calc/sheaf/conditions"
 	"github.com/sheaf-calc/sheaf/engine"
 	"github.com/sheaf-calc/sheaf/project"
 )
@@ -38,6 +39,50 @@ func checkPasses(t *testing.T, s *project.Sheet, formula string) {
 		}
 	}
 	t.Errorf("%s has no check %s", s.Path(), formula)
+}
+
+// governing returns where a check of the sheet governs.
+func governing(t *testing.T, s *project.Sheet, formula string) conditions.Governing {
+	t.Helper()
+	for _, st := range s.Calc.Statements {
+		if st.Kind == engine.Check && st.Formula == formula {
+			g, ok := s.Conditions.Governing(st)
+			if !ok {
+				t.Fatalf("%v: check %s has no governing condition", st.Pos, formula)
+			}
+			return g
+		}
+	}
+	t.Fatalf("%s has no check %s", s.Path(), formula)
+	return conditions.Governing{}
+}
+
+// caseValue returns a result's SI value in a load case of the sheet.
+func caseValue(t *testing.T, s *project.Sheet, name, result string) float64 {
+	t.Helper()
+	for _, c := range s.Conditions.Cases {
+		if c.Stmt.Name == name {
+			r := c.Results[s.Calc.Lookup(result).Index]
+			if r.Status != engine.OK {
+				t.Fatalf("%s in case %s: %v", result, name, r.Status)
+			}
+			return r.Value
+		}
+	}
+	t.Fatalf("%s has no case %s", s.Path(), name)
+	return 0
+}
+
+// sweepOf returns a sweep or curve of the sheet.
+func sweepOf(t *testing.T, s *project.Sheet, name string) conditions.SweepRun {
+	t.Helper()
+	for _, sw := range s.Conditions.Sweeps {
+		if sw.Stmt.Name == name {
+			return sw
+		}
+	}
+	t.Fatalf("%s has no sweep %s", s.Path(), name)
+	return conditions.SweepRun{}
 }
 
 // noCheck fails if the sheet still has a check with this formula.
@@ -119,8 +164,36 @@ func TestDemoTarnwickPoleBody(t *testing.T) {
 	if bPB >= 1.50 {
 		t.Errorf("pole body at %.3f T is above the knee 1.50 T of the plate's DC curve", bPB)
 	}
+	// Field forcing at 1.6 times the rated-load field current (72.8 A)
+	// is a load case of the same statements, and governs the pole body:
+	// the leakage grows with the field current, the gap flux is held at
+	// its rated-load value.
 	checkPasses(t, s, "B_pb <= B_i_knee")
-	checkPasses(t, s, "B_pb_ceil <= B_i_knee")
+	bCeil := (ed*phi0 + 0.11*phi0*72.8/24) / (0.150 * 0.320)
+	g := governing(t, s, "B_pb <= B_i_knee")
+	if g.Where != "case ceiling" {
+		t.Errorf("the pole body check governs at %q, want case ceiling", g.Where)
+	}
+	closeTo(t, "B_pb at ceiling", g.Result.Left, bCeil, 1e-9)
+	if g.Evaluated != 3 {
+		t.Errorf("the pole body check is worked out in %d conditions, want 3 (as written, no-load, ceiling)", g.Evaluated)
+	}
+	// At no load the gap carries the no-load flux and the armature none.
+	noLoad := caseValue(t, s, "no-load", "B_pb")
+	closeTo(t, "B_pb at no load", noLoad, (phi0+0.11*phi0)/(0.150*0.320), 1e-9)
+	// The magnetisation characteristic is solved at each of its 19
+	// points; at the open-circuit test's 24 A it is the saturating
+	// circuit's no-load flux.
+	occ := sweepOf(t, s, "occ")
+	if len(occ.X) != 19 || occ.Curves[0].Failed != 0 {
+		t.Fatalf("occ has %d points, %d without a value", len(occ.X), occ.Curves[0].Failed)
+	}
+	closeTo(t, "occ at 24 A", occ.Curves[0].Y[5], libraryValue(t, s, "sat.Phi"), 1e-9)
+	// Saturation: the curve's flux falls below the linear circuit's as the
+	// field current rises.
+	if last := len(occ.X) - 1; occ.Curves[0].Y[last] >= occ.Curves[1].Y[last] {
+		t.Errorf("at %g A the curve's flux %g Wb is not below the linear %g Wb", occ.X[last], occ.Curves[0].Y[last], occ.Curves[1].Y[last])
+	}
 	// The linear μ_r agrees with the whole DC curve of the pole plate
 	// within 1 % at no load: a cross-check that can fail.
 	if d := math.Abs(phi0/libraryValue(t, s, "sat.Phi") - 1); d > 0.01 || d == 0 {
@@ -205,11 +278,21 @@ func TestDemoTarnwickPumpMotor(t *testing.T) {
 			hi = mid
 		}
 	}
-	closeTo(t, "n_low", libraryValue(t, s, "n_low"), (lo+hi)/2, 1e-6)
+	// The lowest battery voltage is a load case of the operating point,
+	// and governs the speed check.
+	closeTo(t, "n_op at low battery", caseValue(t, s, "low-battery", "n_op"), (lo+hi)/2, 1e-6)
 	if (lo+hi)/2*60 < 1150 {
 		t.Errorf("pump at %.0f rpm at the lowest voltage, below the 1150 rpm it needs", (lo+hi)/2*60)
 	}
-	checkPasses(t, s, "n_low >= n_req")
+	checkPasses(t, s, "n_op >= n_req")
+	if g := governing(t, s, "n_op >= n_req"); g.Where != "case low-battery" {
+		t.Errorf("the speed check governs at %q, want case low-battery", g.Where)
+	}
+	// In service the current is the higher: the current check governs as
+	// written.
+	if g := governing(t, s, "I_op <= I_a"); g.Where != "as written" || g.Result.Status != engine.Pass {
+		t.Errorf("the current check governs at %q (%v), want as written, holding", g.Where, g.Result.Status)
+	}
 }
 
 func TestDemoTarnwickInsulation(t *testing.T) {
@@ -454,4 +537,44 @@ func TestDemoTarnwickWaveformAndExcitation(t *testing.T) {
 	if !strings.Contains(text, "Caution") {
 		t.Error("sheet 06 lost its caution")
 	}
+}
+
+// Sheet 05 carries the tolerances of its insulation inputs, and each
+// margin check reports its probability of failure.
+func TestDemoTarnwickInsulationTolerances(t *testing.T) {
+	s := loadDemo(t, "tarnwick-weir")["05-stator-insulation.md"]
+	sp := s.Conditions.SpreadOf()
+	if sp == nil || sp.Samples != 20000 || sp.Seed != 2417 {
+		t.Fatalf("sheet 05's spread %+v, want 20000 samples with seed 2417", sp)
+	}
+	byFormula := map[string]conditions.CheckSpread{}
+	for _, c := range sp.Checks {
+		byFormula[c.Stmt.Formula] = c
+	}
+	for _, f := range []string{"k_m * ins.U_tt <= sqrt(2) * U_w_tt_ac", "k_m * ins.U_tt_s <= U_w_tt", "k_m * U_s <= U_w_gw"} {
+		if _, ok := byFormula[f]; !ok {
+			t.Errorf("margin check %s has no probability of failure", f)
+		}
+	}
+	// The earth-fault stress rests on the rated voltage, the voltage
+	// factor of the grid agreement and the test rule, none of which
+	// spreads: it has no figures under tolerances.
+	if _, ok := byFormula["k_m * ins.U_pg <= ins.U_test"]; ok {
+		t.Error("the earth-fault check rests on no toleranced input, yet has tolerance figures")
+	}
+	gw := byFormula["k_m * U_s <= U_w_gw"]
+	// Worst corner: the surge at the top of the study's ± 10 %, the
+	// withstand at its mean less 3σ.
+	closeTo(t, "worst surge", gw.Worst.Left, 1.5*2.4e3*1.1, 1e-12)
+	closeTo(t, "worst withstand", gw.Worst.Right, 9.5e3-3*0.4e3, 1e-12)
+	// 3.96 kV against a withstand of 9.5 kV with σ = 0.4 kV: no sample
+	// fails, and the 95 % Wilson bound of 0 in n is z²/(n + z²) (Wilson,
+	// J. Am. Stat. Assoc. 22, 1927; from memory).
+	z := 1.959963984540054
+	if gw.Fail != 0 || math.Abs(gw.FailHi-z*z/(20000+z*z)) > 1e-12 {
+		t.Errorf("ground wall P(fail) %g, upper bound %g; want 0 and %g", gw.Fail, gw.FailHi, z*z/(20000+z*z))
+	}
+	// The RSS of a margin with two inputs: the surge's half-band times
+	// k_m, and the withstand's 3σ.
+	closeTo(t, "RSS", gw.RSS, math.Hypot(1.5*0.24e3, 3*0.4e3), 1e-9)
 }

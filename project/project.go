@@ -17,9 +17,9 @@ import (
 	"sync"
 
 	"github.com/sheaf-calc/sheaf/band"
+	"github.com/sheaf-calc/sheaf/conditions"
 	"github.com/sheaf-calc/sheaf/diag"
 	"github.com/sheaf-calc/sheaf/engine"
-	"github.com/sheaf-calc/sheaf/conditions"
 	"github.com/sheaf-calc/sheaf/fixity"
 	"github.com/sheaf-calc/sheaf/sheets"
 )

@@ -20,6 +20,8 @@ var diffLabels = map[revdiff.Kind]string{
 	revdiff.ResultMoved: "result moved", revdiff.CheckFlipped: "check flipped", revdiff.CheckAdded: "check added",
 	revdiff.CheckRemoved: "check removed", revdiff.StatusChanged: "now fails to evaluate",
 	revdiff.InstanceAdded: "instance added", revdiff.InstanceRemoved: "instance removed", revdiff.TemplateChanged: "template changed",
+	revdiff.CaseAdded: "case added", revdiff.CaseRemoved: "case removed", revdiff.CaseChanged: "case changed",
+	revdiff.ToleranceChanged: "tolerance changed",
 }
 
 // DiffLabel names a kind of change.
@@ -67,14 +69,47 @@ func relText(rel float64) string {
 }
 
 func diffSubject(c revdiff.Change) string {
+	s := subjectOf(c)
+	if c.Case != "" {
+		s += " in case " + c.Case
+	}
+	return s
+}
+
+func subjectOf(c revdiff.Change) string {
 	if c.Name == "" {
 		return ""
+	}
+	switch c.Kind {
+	case revdiff.CaseAdded, revdiff.CaseRemoved, revdiff.CaseChanged:
+		return "case " + c.Name
 	}
 	if c.Kind == revdiff.CheckFlipped || c.Kind == revdiff.CheckAdded || c.Kind == revdiff.CheckRemoved ||
 		(c.New != nil && c.New.Kind == engine.Check) || (c.Old != nil && c.Old.Kind == engine.Check) {
 		return "check " + c.Name
 	}
 	return SymbolText(c.Name)
+}
+
+// conditionSides is what a changed case or tolerance reads on either
+// side; ok is false for other changes.
+func conditionSides(c revdiff.Change) (before, after string, ok bool) {
+	side := func(st *engine.Statement) string {
+		switch {
+		case st == nil:
+			return "—"
+		case c.Kind != revdiff.ToleranceChanged:
+			return st.Formula
+		case st.Tol == nil:
+			return st.Formula + ", no tolerance"
+		}
+		return st.Formula + " " + st.Tol.Text
+	}
+	switch c.Kind {
+	case revdiff.CaseAdded, revdiff.CaseRemoved, revdiff.CaseChanged, revdiff.ToleranceChanged:
+		return side(c.Old), side(c.New), true
+	}
+	return "", "", false
 }
 
 // formulaOf is what a changed formula reads on one side.
@@ -107,6 +142,9 @@ func DiffTerminal(r revdiff.Report, oldPkg, newPkg *project.Package, oldName, ne
 		line := fmt.Sprintf("  %-16s %s", DiffLabel(c.Kind), diffSubject(c))
 		d := digitsOf(c.Sheet)
 		switch c.Kind {
+		case revdiff.CaseAdded, revdiff.CaseRemoved, revdiff.CaseChanged, revdiff.ToleranceChanged:
+			b, a, _ := conditionSides(c)
+			line += fmt.Sprintf(": %s → %s", b, a)
 		case revdiff.FormulaChanged:
 			line += fmt.Sprintf(": %s → %s", formulaOf(c.Old), formulaOf(c.New))
 			if c.Old != nil && c.New != nil && c.Old.Kind == engine.Definition {
@@ -189,6 +227,9 @@ func DiffHTML(r revdiff.Report, oldPkg, newPkg *project.Package, oldName, newNam
 		before, after := outcomeText(c.Old, c.OldResult, d), outcomeText(c.New, c.NewResult, d)
 		if c.Kind == revdiff.FormulaChanged {
 			before, after = formulaOf(c.Old)+" = "+before, formulaOf(c.New)+" = "+after
+		}
+		if b, a, ok := conditionSides(c); ok {
+			before, after = b, a
 		}
 		moved := ""
 		if c.Rel != 0 {

@@ -66,6 +66,7 @@ func writeStatement(w sink, s *project.Sheet, st *engine.Statement, digits int) 
 	}
 	writeSteps(w, steps)
 	writeListTable(w, st, res, digits)
+	writeFigures(w, s, st, res, digits)
 	writeSpreadNote(w, s, st, digits)
 	writeCaseTable(w, s, st, digits)
 	writeNote(w, calc, st)

@@ -119,6 +119,9 @@ p.caption{font-weight:600;margin-bottom:.2rem}
 .graph figure{margin:.5rem 0;overflow-x:auto;border:1px solid var(--rule);padding:.5rem;background:#fff}
 .graph svg{display:block;max-width:none;height:auto}
 .graph a{text-decoration:none}
+.fig{margin:.4rem 0 .2rem;max-width:27rem}
+.fig svg.plot{display:block;width:100%;height:auto;border:1px solid var(--band)}
+.fig figcaption{font-size:.76rem;color:var(--muted);font-family:system-ui,-apple-system,"Segoe UI",Roboto,"Noto Sans",sans-serif}
 footer{margin-top:2rem;border-top:1px solid var(--rule);padding-top:.5rem;font-size:.76rem;color:var(--muted)}
 @media (max-width:34rem){
  body{padding:.75rem .6rem 2rem;font-size:15px}
@@ -144,6 +147,8 @@ footer{margin-top:2rem;border-top:1px solid var(--rule);padding-top:.5rem;font-s
  body:has(#print-graph:checked) section.graph{display:block!important;break-before:page}
  section.graph figure{border:0;padding:0;margin:0}
  .graph svg{max-width:100%;max-height:215mm;width:auto}
+ .fig{break-inside:avoid;max-width:120mm}
+ .fig svg.plot{-webkit-print-color-adjust:exact;print-color-adjust:exact}
  .row.use{break-inside:auto}
  .use .usehead{break-after:avoid}
  table.frame{display:table;width:100%;border-collapse:collapse;table-layout:fixed}

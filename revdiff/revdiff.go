@@ -38,11 +38,18 @@ const (
 	InstanceRemoved Kind = "instance-removed"
 	// TemplateChanged is a use statement that names another template.
 	TemplateChanged Kind = "template-changed"
+	// A load case added, removed, or setting other inputs or values.
+	CaseAdded   Kind = "case-added"
+	CaseRemoved Kind = "case-removed"
+	CaseChanged Kind = "case-changed"
+	// ToleranceChanged is an input whose tolerance changed.
+	ToleranceChanged Kind = "tolerance-changed"
 )
 
 var kindOrder = map[Kind]int{SheetAdded: 0, SheetRemoved: 1, InputChanged: 2, InputAdded: 3, InputRemoved: 4,
 	FormulaChanged: 5, ResultAdded: 6, ResultRemoved: 7, ResultMoved: 8, CheckFlipped: 9, CheckAdded: 10,
-	CheckRemoved: 11, StatusChanged: 12, InstanceAdded: 13, InstanceRemoved: 14, TemplateChanged: 15}
+	CheckRemoved: 11, StatusChanged: 12, InstanceAdded: 13, InstanceRemoved: 14, TemplateChanged: 15,
+	CaseAdded: 16, CaseRemoved: 17, CaseChanged: 18, ToleranceChanged: 2}
 
 // Change is one difference between the revisions. Old and New are the
 // statements on either side (nil where there is none), with their results.
@@ -56,6 +63,9 @@ type Change struct {
 	OldResult, NewResult engine.Result
 	// Rel is the relative change of a moved result, (new-old)/|old|.
 	Rel float64
+	// Case is the load case a result moved or a check flipped in, "" for
+	// the sheet as written.
+	Case string
 }
 
 // Pos is where the change is in the new revision, else in the old.
@@ -132,6 +142,7 @@ func compareSheet(o, n *project.Sheet, threshold float64) []Change {
 	d.instances()
 	d.definitions()
 	d.checks()
+	d.cases()
 	return d.out
 }
 
@@ -142,6 +153,9 @@ type differ struct {
 	path      string
 	skip      map[string]bool // instances present on one side only
 	out       []Change
+	// defs and chks pair the definitions and checks both revisions have,
+	// for the comparison case by case.
+	defs, chks [][2]*engine.Statement
 }
 
 func (d *differ) add(k Kind, name string, a, b *engine.Statement, rel float64) {
@@ -212,6 +226,7 @@ func (d *differ) definitions() {
 		seen[b.Name] = true
 		if a, ok := oldDefs[b.Name]; ok {
 			d.definition(a, b)
+			d.defs = append(d.defs, [2]*engine.Statement{a, b})
 		} else if b.IsInput() {
 			d.add(InputAdded, b.Name, nil, b, 0)
 		} else {
@@ -239,6 +254,9 @@ func (d *differ) definition(a, b *engine.Statement) {
 		if norm(a.Formula) != norm(b.Formula) {
 			d.add(InputChanged, b.Name, a, b, relative(ra, rb))
 		}
+		if toleranceOf(a) != toleranceOf(b) {
+			d.add(ToleranceChanged, b.Name, a, b, 0)
+		}
 	case norm(a.Formula) != norm(b.Formula) || displayOf(a) != displayOf(b):
 		d.add(FormulaChanged, b.Name, a, b, relative(ra, rb))
 	case ra.Status == engine.OK && rb.Status == engine.OK:
@@ -262,6 +280,7 @@ func (d *differ) checks() {
 			continue
 		}
 		used[a] = true
+		d.chks = append(d.chks, [2]*engine.Statement{a, b})
 		if norm(a.Formula) != norm(b.Formula) {
 			d.add(FormulaChanged, b.Formula, a, b, 0)
 		}
@@ -379,4 +398,11 @@ func relative(a, b engine.Result) float64 {
 		return math.Inf(int(math.Copysign(1, b.Value)))
 	}
 	return (b.Value - a.Value) / math.Abs(a.Value)
+}
+
+func toleranceOf(st *engine.Statement) string {
+	if st.Tol == nil {
+		return ""
+	}
+	return norm(st.Tol.Text)
 }

@@ -185,7 +185,7 @@ func (l *lexer) refuse(i int) *Error {
 	one := func(hint, format string, args ...any) *Error { return errAt(i, i+1, hint, format, args...) }
 	switch {
 	case c == '±':
-		return one("write the value without its tolerance", "± is reserved for tolerances, which sheaf does not support yet")
+		return one("a tolerance follows an input's value at the end of its definition: g = 4.0 mm ± 0.2 mm", "± belongs to an input's tolerance, not inside a formula")
 	case c == '%':
 		return one("write percent after a number, as 5 %", "%% must follow a number")
 	case c == '"' || c == '\'' || c == '`':

@@ -177,7 +177,7 @@ func TestParseErrors(t *testing.T) {
 		{"a when b < c", "a condition needs else and the value when it does not hold", "value when condition else other value", 12, 13},
 		{"a else b", "else belongs to a conditional value", "", 2, 6},
 		{"1 .. ", "formula ends too early", "", 2, 4},
-		{"5 V ± 1 V", "reserved for tolerances", "", 4, 5},
+		{"5 V ± 1 V", "belongs to an input's tolerance", "", 4, 5},
 		{"10 V ∠ 30 deg ∠ 5 deg", "a phasor has one ∠", "magnitude ∠ angle", 14, 15},
 		{"10 V ∠", "formula ends too early", "after ∠", 5, 6},
 		{"4jx", `malformed number "4jx"`, "", 0, 3},

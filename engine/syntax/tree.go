@@ -28,8 +28,8 @@
 // no space between. A "j" directly after a number's digits makes
 // it imaginary (4j A, IEC 60027-1's imaginary unit); "∠", or "/_" in
 // ASCII, writes a phasor as its magnitude and its angle (230 V ∠ -30 deg).
-// Reserved for a later version, and refused with a message today: "±"
-// (tolerances).
+// "±" is refused inside a formula: the engine reads an input's tolerance
+// after its formula, before this parser sees it.
 package syntax
 
 import "github.com/sheaf-calc/sheaf/units"
