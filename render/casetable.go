@@ -129,8 +129,8 @@ func caseRow(w sink, head string, cols []caseColumn, cell func(engine.Result) st
 // in, and those it fails in.
 func writeGoverning(w sink, s *project.Sheet, st *engine.Statement) {
 	g, ok := s.Conditions.Governing(st)
-	if !ok {
-		return
+	if !ok || g.Case == nil && g.Sweep == nil && !movedByConditions(s, st) {
+		return // a check no condition moves: as written is all there is to say
 	}
 	w.WriteString("<p class=\"governs\"><span class=\"kw\">governs:</span> " + governLink(g) + " · worked out in " + Count(g.Evaluated, "condition") + " · ")
 	if len(g.Failing) == 0 {
@@ -150,4 +150,20 @@ func governLink(g conditions.Governing) string {
 		return `<a href="#` + anchor(g.Sweep.Stmt) + `">` + esc(g.Where) + "</a>"
 	}
 	return esc(g.Where)
+}
+
+// movedByConditions reports whether a check comes out otherwise in a case
+// or rests on a swept input.
+func movedByConditions(s *project.Sheet, st *engine.Statement) bool {
+	if caseColumns(s, st) != nil {
+		return true
+	}
+	for i := range s.Conditions.Sweeps {
+		for _, chk := range s.Conditions.Sweeps[i].Checks {
+			if chk.Stmt == st {
+				return true
+			}
+		}
+	}
+	return false
 }

@@ -401,3 +401,25 @@ func TestConditionsRenderDeterministically(t *testing.T) {
 		t.Error("the JSON or the terminal report differs between two builds")
 	}
 }
+
+// A check that no case moves says nothing of conditions; one that a
+// case moves but that governs as written says so.
+func TestGoverningLineOnlyWhereConditionsMoveTheCheck(t *testing.T) {
+	sheet := strings.Replace(conditionsSheet, "check I_f <= I_fmax ; the coil carries its current\n",
+		"check I_f <= I_fmax ; the coil carries its current\ncheck I_fmax <= 60 A ; the rating is within the exciter's\n", 1)
+	// Hot at 95 °C instead of cold: 2.42 Ω × (234.5 + 95)/(234.5 + 75) = 2.58 Ω.
+	sheet = strings.Replace(sheet, "case cold: R_f = 1.99 ohm ; the coil at 20 °C, just switched on", "case hot: R_f = 2.58 ohm ; the coil at 95 °C, after a heat run", 1)
+	pkg, s := conditionsPackage(t, sheet)
+	html := pages(t, pkg)[s.Page]
+	row := func(st *engine.Statement) string {
+		i := strings.Index(html, `id="`+anchorOf(st)+`"`)
+		return text(html[i : i+strings.Index(html[i:], `<div class="note">`)])
+	}
+	if r := row(stmt(t, s, "I_fmax <= 60 A")); strings.Contains(r, "governs") {
+		t.Errorf("a check no condition moves has a governing line:\n%s", r)
+	}
+	// Hot, the coil draws less: the sweep's 121 V governs.
+	if r := row(stmt(t, s, "I_f <= I_fmax")); !strings.Contains(r, "governs: sweep su at U_s = 121.0 V") {
+		t.Errorf("the check does not say the sweep governs:\n%s", r)
+	}
+}
