@@ -423,3 +423,39 @@ func TestGoverningLineOnlyWhereConditionsMoveTheCheck(t *testing.T) {
 		t.Errorf("the check does not say the sweep governs:\n%s", r)
 	}
 }
+
+// A template's cases come with its instance, named for it: the page's
+// table heads and the JSON's keys carry the instance's name, and the
+// document still validates (a 220 V supply with a 242 V boost, over
+// 11 Ω: 22 A against 21 A).
+func TestCasesOfATemplate(t *testing.T) {
+	pkg := project.FromFiles("pkg", map[string][]byte{
+		"a.md":                 []byte("# Load\n\n```sheaf\nuse dc = _templates/supply\nR = 11 ohm ; load ; source: invented\nI = dc.U / R ; load current\nI_max = 21 A ; rating ; source: invented\ncheck I <= I_max\n```\n"),
+		"_templates/supply.md": []byte("---\ntitle: Station supply\n---\n\n```sheaf\nU = 220 V ; supply ; source: invented\ncase low-battery: U = 187 V ; end of discharge\ncase boost: U = 242 V ; boost charge\n```\n"),
+	})
+	if len(pkg.Diags) != 0 {
+		t.Fatalf("sheet errors: %v", pkg.Diags)
+	}
+	s := pkg.Sheets[0]
+	page := text(pages(t, pkg)[s.Page])
+	if !strings.Contains(page, "governs: case dc.boost") || !strings.Contains(page, "case dc.boost") {
+		t.Errorf("the page does not name the template's case dc.boost:\n%s", page)
+	}
+	data := withAudit(t, pkg)
+	if err := compileSchema(t).Validate(decode(t, data)); err != nil {
+		t.Fatalf("the document does not match the schema:\n%v", err)
+	}
+	var doc render.JSONDoc
+	if err := json.Unmarshal(data, &doc); err != nil {
+		t.Fatal(err)
+	}
+	for _, st := range doc.Sheets[0].Statements {
+		if st.Name == "I" {
+			if c := st.Cases["dc.boost"]; c.SI == nil || math.Abs(c.SI.Value-22) > 1e-12 {
+				t.Errorf("I in case dc.boost = %+v, want 22 A", c.SI)
+			}
+			return
+		}
+	}
+	t.Error("no statement I")
+}
