@@ -2,7 +2,6 @@ package audit
 
 import (
 	"fmt"
-	"slices"
 	"strings"
 
 	"github.com/sheaf-calc/sheaf/engine"
@@ -36,46 +35,24 @@ func fixedChecks(s *project.Sheet) []Finding {
 // use statement of the sheet that brought them in, one finding per use
 // naming every such default and the first check resting on it.
 func recalledDefaults(s *project.Sheet) []Finding {
-	type recalled struct {
-		def    *engine.Statement
-		first  *engine.Statement // the first check resting on it
-		checks int
-	}
-	byUse := map[*engine.Statement][]*recalled{}
-	var uses []*engine.Statement
-	for _, st := range s.Calc.Statements {
-		if st.Kind != engine.Check {
-			continue
-		}
-		if r := s.Calc.Result(st); r.Status != engine.Pass && r.Status != engine.Fail {
-			continue
-		}
-		inputs, _ := s.Calc.RestsOn(st)
-		for _, in := range inputs {
-			use := topUse(in)
-			if use == nil || in.Overridden || !fromMemory(in.Source) {
+	var out []Finding
+	kept := s.Calc.KeptDefaults()
+	for i := 0; i < len(kept); {
+		use := kept[i].Use
+		var parts []string
+		for ; i < len(kept) && kept[i].Use == use; i++ {
+			k := kept[i]
+			if !fromMemory(k.Default.Source) {
 				continue
 			}
-			if _, seen := byUse[use]; !seen {
-				uses = append(uses, use)
-			}
-			i := slices.IndexFunc(byUse[use], func(r *recalled) bool { return r.def == in })
-			if i < 0 {
-				byUse[use] = append(byUse[use], &recalled{def: in, first: st})
-				i = len(byUse[use]) - 1
-			}
-			byUse[use][i].checks++
-		}
-	}
-	var out []Finding
-	for _, use := range uses {
-		var parts []string
-		for _, r := range byUse[use] {
 			also := ""
-			if r.checks > 1 {
-				also = " and " + plural(r.checks-1, "other check")
+			if k.Checks > 1 {
+				also = " and " + plural(k.Checks-1, "other check")
 			}
-			parts = append(parts, fmt.Sprintf("%s = %s (source %q; under check %s%s)", r.def.Name, literalText(r.def.Expr), r.def.Source, instanceName(r.first), also))
+			parts = append(parts, fmt.Sprintf("%s = %s (source %q; under check %s%s)", k.Default.Name, literalText(k.Default.Expr), k.Default.Source, instanceName(k.First), also))
+		}
+		if len(parts) == 0 {
+			continue
 		}
 		out = append(out, finding("recalled-default", use.Pos, use.Name,
 			"checks rest on defaults of %s recalled from memory: %s; confirm each for this job and set it in the use statement, with its source",
@@ -87,16 +64,6 @@ func recalledDefaults(s *project.Sheet) []Finding {
 // fromMemory reports whether a source says its value is recalled.
 func fromMemory(source string) bool {
 	return strings.Contains(strings.ToLower(source), "from memory")
-}
-
-// topUse is the use statement of the sheet itself that brought a
-// template's statement in, through nested instances.
-func topUse(st *engine.Statement) *engine.Statement {
-	u := st.Use
-	for u != nil && u.Use != nil {
-		u = u.Use
-	}
-	return u
 }
 
 func instanceName(st *engine.Statement) string {

@@ -25,8 +25,8 @@ func (t *Type) IsComplex() bool { return t.Domain == Complex }
 // the statements' slots: a list's elements, a phasor's two parts.
 func (t *Type) places() int {
 	switch {
-	case t.IsSeries():
-		return 2 * t.Len
+	case t.IsSeries(), t.IsList() && t.IsComplex():
+		return 2 * t.Len // x beside y; or each phasor's two parts
 	case t.IsList():
 		return t.Len
 	case t.IsComplex():
@@ -50,16 +50,12 @@ func (st *Statement) phasorIn(v []float64) Phasor {
 	return Phasor{v[at], v[at+1]}
 }
 
-// complexProblem refuses what a phasor cannot be: a list element, a side
-// of a comparison, a power's base or exponent.
+// complexProblem refuses what a phasor cannot be: a side of a
+// comparison, a power's base or exponent, a part of a series.
 func complexProblem(n *Binary) *diag.Diagnostic {
 	x, y := n.X.Type(), n.Y.Type()
 	if !x.IsComplex() && !y.IsComplex() {
 		return nil
-	}
-	side := n.X
-	if !x.IsComplex() {
-		side = n.Y
 	}
 	switch {
 	case isComparison(n.Op):
@@ -68,8 +64,9 @@ func complexProblem(n *Binary) *diag.Diagnostic {
 	case n.Op == "^":
 		return errAt(n.Pos(), "multiply the phasor by itself, or raise its magnitude: abs(E)^2",
 			"sheaf does not raise phasors to powers")
-	case x.IsList() || y.IsList():
-		return errAt(side.Pos(), "name each phasor as its own statement", "a list of phasors is not supported")
+	case x.IsSeries() || y.IsSeries():
+		return errAt(n.Pos(), "build the series from real values: series(abs(z), x) or series(Re(z), x)",
+			"a series holds real values; it cannot be combined with a phasor")
 	}
 	return nil
 }
@@ -85,7 +82,7 @@ func inferComplexBinary(n *Binary) *diag.Diagnostic {
 	if !x.IsComplex() && !y.IsComplex() {
 		return nil
 	}
-	t.Domain, t.Count, t.Const = Complex, false, x.Const && y.Const
+	t.Domain, t.Count, t.Const = Complex, false, x.Const && y.Const && !x.IsList() && !y.IsList()
 	if t.Const {
 		z := foldComplex(n.Op, cvalue(x), cvalue(y))
 		t.Val, t.Im = real(z), imag(z)
@@ -123,9 +120,13 @@ func inferPolar(n *Binary) *diag.Diagnostic {
 			return errAt(side.Pos(), polarHint(n, "write magnitude ∠ angle with two real values, such as 230 V ∠ -30 deg"),
 				"both sides of ∠ are real values; this is a phasor already")
 		}
-		if st.IsList() {
-			return errAt(side.Pos(), "name each phasor as its own statement", "a list of phasors is not supported")
+		if st.IsSeries() {
+			return errAt(side.Pos(), "write the magnitudes or the angles as a list", "a side of ∠ is a series; a series holds real values")
 		}
+	}
+	if x.IsList() && y.IsList() && x.Len != y.Len {
+		return errAt(n.Pos(), "give the magnitudes and the angles the same number of elements",
+			"cannot pair %d magnitudes with %d angles", x.Len, y.Len)
 	}
 	if x.Kind.IsAbsTemp() {
 		return errAt(n.X.Pos(), "write a temperature difference in K", "an absolute temperature cannot be a phasor's magnitude")
@@ -142,6 +143,10 @@ func inferPolar(n *Binary) *diag.Diagnostic {
 		return errAt(n.Y.Pos(), "check the powers of the angles after ∠", "the angle of a phasor is %s, not an angle", y.Kind)
 	}
 	*t = Type{Domain: Complex, Dim: x.Dim, Kind: x.Kind, Const: x.Const && y.Const}
+	if x.IsList() || y.IsList() {
+		// A list of magnitudes or of angles gives a list of phasors.
+		t.Shape, t.Len, t.Const = List, max(x.Len, y.Len), false
+	}
 	if t.Const {
 		z := cmplx.Rect(x.Val, y.Val)
 		t.Val, t.Im = real(z), imag(z)
@@ -170,9 +175,6 @@ func inferComplexCall(n *Call) *diag.Diagnostic {
 		return errAt(n.Args[0].Pos(), "write a phasor as magnitude ∠ angle or as a sum such as 3 A + 4j A",
 			"%s takes a phasor, but its argument is a real value", n.Name)
 	}
-	if a.IsList() {
-		return errAt(n.Args[0].Pos(), "name each phasor as its own statement", "a list of phasors is not supported")
-	}
 	t := n.Type()
 	switch n.Name {
 	case "conj":
@@ -182,6 +184,11 @@ func inferComplexCall(n *Call) *diag.Diagnostic {
 		*t = Type{Dim: units.Dimensionless, Kind: units.Angle}
 	default: // abs, Re, Im
 		*t = Type{Dim: a.Dim, Kind: a.Kind}
+	}
+	if a.IsList() {
+		// Of a list of phasors, one value for each element.
+		t.Shape, t.Len, t.Const = List, a.Len, false
+		return nil
 	}
 	if a.Const && n.Name != "conj" {
 		t.Const, t.Val = true, phasorPart(n.Name, complex(a.Val, a.Im))
@@ -209,6 +216,17 @@ func takesComplex(f *Function) bool { return f.phasor || f.Name == "abs" }
 func complexArgProblem(n *Call) *diag.Diagnostic {
 	if takesComplex(n.Func) {
 		return nil
+	}
+	if a := n.Args[0].Type(); len(n.Args) == 1 && a.IsComplex() && a.IsList() && n.Func.reduce != nil {
+		switch n.Name {
+		case "sum", "mean", "count":
+			return nil
+		case "min", "max":
+			return errAt(n.Args[0].Pos(), "compare a real value of each: "+n.Name+"(abs(z)), "+n.Name+"(Re(z))",
+				"%s needs an order, and phasors have none", n.Name)
+		}
+		return errAt(n.Args[0].Pos(), "take a real value of each element first: "+n.Name+"(abs(z))",
+			"%s of a list of phasors is not supported; sum, mean and count are", n.Name)
 	}
 	for _, a := range n.Args {
 		if a.Type().IsComplex() {
@@ -247,8 +265,14 @@ func (s cside) get(v []float64) complex128 {
 
 // compileComplex builds the closure of a node that holds a phasor.
 func compileComplex(e Expr) evalFn {
+	if e.Type().IsList() {
+		return compileComplexList(e)
+	}
 	at := int(e.base().at)
 	put := func(v []float64, z complex128) float64 { v[at], v[at+1] = real(z), imag(z); return 0 }
+	if fn, ok := compileComplexElement(e, put); ok {
+		return fn
+	}
 	if t := e.Type(); t.Const && finite(t.Val) && finite(t.Im) {
 		re, im := t.Val, t.Im
 		return func(v []float64) float64 { v[at], v[at+1] = re, im; return 0 }
@@ -304,9 +328,19 @@ func compilePhasorPart(n *Call) evalFn {
 }
 
 // complexStep is a phasor statement's step: its value slot holds the
-// magnitude, and a part that is not a finite number makes it NaN, so that
-// the statement fails with the reason.
-func complexStep(root evalFn, at int) evalFn {
+// magnitude (of a list of phasors, the length), and a part that is not a
+// finite number makes it NaN, so that the statement fails with the reason.
+func complexStep(root evalFn, e Expr) evalFn {
+	at := int(e.base().at)
+	if n := e.Type().Len; e.Type().IsList() {
+		return func(v []float64) float64 {
+			root(v)
+			if !complexListFinite(v, at, n) {
+				return math.NaN()
+			}
+			return float64(n)
+		}
+	}
 	return func(v []float64) float64 {
 		root(v)
 		re, im := v[at], v[at+1]
@@ -322,12 +356,15 @@ func complexStep(root evalFn, at int) evalFn {
 func complexOK(e Expr, v []float64) bool {
 	fnOf(e)(v)
 	at := int(e.base().at)
-	return finite(v[at]) && finite(v[at+1])
+	return allFinite(v[at : at+e.Type().places()])
 }
 
 // diagnoseComplex says why an operation on phasors whose operands are
 // sound gave a part that is not a finite number.
 func diagnoseComplex(e Expr, v []float64) *diag.Diagnostic {
+	if x, ok := e.(*Index); ok {
+		return indexProblem(x, v)
+	}
 	if b, ok := e.(*Binary); ok && b.Op == "/" && csideOf(b.Y).get(v) == 0 {
 		return errAt(b.Pos(), "check the value of the divisor", "division by a phasor of zero")
 	}

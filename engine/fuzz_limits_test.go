@@ -55,6 +55,8 @@ func FuzzTemplateUse(f *testing.F) {
 		{"use a = t0 with N = a.v", "param N [1]\nv = N"},
 		{"use a = t0\ny = a.BH.B", "B_c = interp(BH.B, BH.H, 50 A/m)"},
 		{"use a = t9\nuse b = t10", "param N [1]"},
+		{"use a = t0 with N = 2\nx = a.m\nuse b = t0 with N = 1, V = 3 V", "param N [1]\nparam V [V] optional ; volts\nm = V * N\ncheck m <= 5 V\ncheck N <= 4\nuse c = NEXT with V = V, N = 1\nw = c.m / 2"},
+		{"use a = t0 with V = 1 V optional", "param V [V]   optional   optional\nparam W [V] optional x\nparam X optional"},
 	} {
 		f.Add(seed[0], seed[1])
 	}

@@ -46,6 +46,8 @@ func FuzzStatement(f *testing.F) {
 		"x = [0 s, 1 s, 1 s, 2 s]\ns = series([1 V, 2 V, 3 V, 4 V], x)\ni = integral(s)\np = peak(s) + s\nq = harmonicphase(s, 0)\nr = s + s\nc = 1 when 1 < 2 else s",
 		"U = 24 V ± 5 %\nR = 3 ohm in 2.9 ohm .. 3.2 ohm triangular\nI = U / R\ncase low: U = 20 V\ncase hi-1: U = 28 V, R = 2.9 ohm\nsweep s: U over 18 V .. 30 V by 1 V in low show I\nsample 500 times, seed 4",
 		"x = 2 * y ± 1\ny = 1 ± σ -2\ncase c: y = 1 m\ncase c: y = 2\nsweep c: y over [1, 2]\nsweep d: x over 1 .. 1\nsample 9999999 times\nsample 1 times, seed x\nz = 3 ± 2 normal extra\nw = 1 in 2 .. 0",
+		"V = 6.35 kV\nU = V ∠ [0 deg, -120 deg, 120 deg]\nS = sum(U)\nm = max(U)\nz = [1 V + 2j V, 3 V] / [1, 0]\nw = abs(U) * arg(U)\nk = U[4]\nc = U ∠ 1\nq = [1 V, 2 V] ∠ [1, 2, 3]\nr = series(Re(U), [1 s, 2 s, 3 s])",
+		"param V [kV] optional ; a template's\nparam W [V] optional x\nx = 2 * V\ncheck x <= 1 kV",
 	} {
 		f.Add(seed)
 	}

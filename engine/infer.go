@@ -424,6 +424,9 @@ func inferReduce(n *Call) *diag.Diagnostic {
 	}
 	t := n.Type()
 	*t = Type{Dim: a.Dim, Kind: a.Kind, Count: a.Count && n.Name != "mean" && n.Name != "rms"}
+	if a.IsComplex() && n.Name != "count" {
+		t.Domain = Complex // the sum or the mean of phasors (complexArgProblem refuses the others)
+	}
 	if a.Kind.IsAbsTemp() && (n.Name == "sum" || n.Name == "product" || n.Name == "rms") {
 		return errAt(n.Args[0].Pos(), "work with temperature differences in K", "cannot take the %s of absolute temperatures (°C or °F)", n.Name)
 	}

@@ -96,7 +96,9 @@ func (a *arena) layout(e Expr) *diag.Diagnostic {
 	return err
 }
 
-// inferList checks a list literal: single values of one dimension.
+// inferList checks a list literal: single values of one dimension. A
+// list with a phasor among its elements is a list of phasors, the real
+// elements among them phasors on the real axis.
 func inferList(n *ListLit) *diag.Diagnostic {
 	if len(n.Elems) > MaxListLength {
 		return errAt(n.Pos(), "split the list", "the list has %d elements; the limit is %d", len(n.Elems), MaxListLength)
@@ -107,7 +109,7 @@ func inferList(n *ListLit) *diag.Diagnostic {
 	for i, e := range n.Elems {
 		et := e.Type()
 		if et.IsComplex() {
-			return errAt(e.Pos(), "name each phasor as its own statement", "a list of phasors is not supported")
+			t.Domain, t.Count = Complex, false
 		}
 		if et.IsList() {
 			return errAt(e.Pos(), "write the elements of the inner list into this one, or name it and use its elements",
@@ -197,7 +199,7 @@ func inferIndex(n *Index) *diag.Diagnostic {
 	if i.Const && (i.Val != math.Trunc(i.Val) || i.Val < 1 || i.Val > float64(x.Len)) {
 		return errAt(n.I.Pos(), fmt.Sprintf("elements are numbered from 1 to %d", x.Len), "index %g is out of range: the list has %d elements", i.Val, x.Len)
 	}
-	*n.Type() = Type{Dim: x.Dim, Kind: x.Kind, Count: x.Count}
+	*n.Type() = Type{Domain: x.Domain, Dim: x.Dim, Kind: x.Kind, Count: x.Count}
 	return nil
 }
 
@@ -286,6 +288,9 @@ func valueOK(e Expr, v []float64) bool {
 // diagnoseList says which element of a list operation went bad, and
 // why; its operands are sound.
 func diagnoseList(e Expr, v []float64) *diag.Diagnostic {
+	if e.Type().IsComplex() {
+		return diagnoseComplexList(e, v)
+	}
 	at, n := listAt(e)
 	k := 0
 	for k < n && finite(v[at+k]) {

@@ -43,6 +43,9 @@ func compileList(e Expr) evalFn {
 		if e.Func.build != nil {
 			return e.Func.build(e)
 		}
+		if e.Args[0].Type().IsComplex() { // abs, arg, Re or Im of each phasor
+			return compileComplexListPart(e)
+		}
 		return mapList(fnOf(e.Args[0]), int(e.Args[0].base().at), at, n, e.Func.f1)
 	}
 	return func([]float64) float64 { return math.NaN() }

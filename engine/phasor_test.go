@@ -105,7 +105,7 @@ func TestPhasorErrors(t *testing.T) {
 				"e":                      "error 11:11 the angle of a phasor is length (m), not an angle",
 				"f":                      "error 12:18 the angle of a phasor counts cycles, not radians: a factor 2π is missing",
 				"g":                      "error 13:5 both sides of ∠ are real values; this is a phasor already",
-				"h":                      "error 14:6 a list of phasors is not supported",
+				"h":                      "ok [6.900, 6.350] kV",
 				"i":                      "error 15:5 a conditional value of phasors is not supported",
 				"j":                      "error 16:5 an absolute temperature cannot be imaginary",
 				"k":                      "error 17:9 min takes real values, but this is a phasor",

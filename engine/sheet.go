@@ -37,6 +37,13 @@ type Calc struct {
 	names      []string
 	suggested  int
 	tolerances int // toleranced inputs checked so far
+	// leftOut are the names of instances' statements left out for an
+	// optional parameter not set, for the error at a use of one.
+	leftOut map[string]*leftOutName
+	// kept are the defaults kept that checks rest on, by use, worked out
+	// once the sheet is evaluated.
+	keptMu sync.Mutex
+	kept   map[*Statement][]KeptDefault
 	// traces are what each statement rests on, worked out once.
 	traceOnce sync.Once
 	traces    []trace
@@ -251,6 +258,9 @@ func (s *Calc) resolveColumn(r *Ref) *diag.Diagnostic {
 const maxSuggestions = 50
 
 func (s *Calc) unknownName(r *Ref) *diag.Diagnostic {
+	if d := s.leftOutError(r); d != nil {
+		return d
+	}
 	if s.names == nil {
 		s.names = make([]string, 0, len(s.byName)+len(units.Constants))
 		for n := range s.byName {
@@ -428,12 +438,11 @@ func (s *Calc) check(st *Statement) {
 		st.fn, st.right = compile(cmp.X), compile(cmp.Y)
 	} else {
 		st.fn = compile(st.Expr)
-		if st.Type.IsList() {
+		if st.Type.IsComplex() { // a phasor, or a list of phasors
+			st.fn = complexStep(st.fn, st.Expr)
+		} else if st.Type.IsList() {
 			at, n := listAt(st.Expr)
 			st.fn = listStep(st.fn, at, n)
-		}
-		if st.Type.IsComplex() {
-			st.fn = complexStep(st.fn, int(st.Expr.base().at))
 		}
 	}
 	st.compiled = true
@@ -555,8 +564,7 @@ func (p *Program) Results(f *Frame) []Result {
 				}
 			}
 			if st.Type.IsComplex() {
-				ph := st.phasorIn(f.Values)
-				r.Phasor = &ph
+				r.setPhasor(st, f.Values) // a phasor, or a list of phasors
 			}
 			r.Shown = shownUnit(st, r.Value, out)
 			if sv := st.solve; sv != nil {

@@ -27,9 +27,12 @@ type SheetSource struct {
 	// Title and Caution come from the front matter; when the sheet is used
 	// as a template they go to the use statement, for the page to show.
 	Title, Caution string
-	Blocks         []SourceBlock
-	Assumptions    []AssumptionSource // prose assumptions, in the order written
-	Tables         []TableSource      // named tables, in the order written
+	// Validity and Sources come from the front matter too: where the
+	// template holds, and the published references it rests on.
+	Validity, Sources []string
+	Blocks            []SourceBlock
+	Assumptions       []AssumptionSource // prose assumptions, in the order written
+	Tables            []TableSource      // named tables, in the order written
 }
 
 // MaxStatementLength bounds one statement, in characters. A formula longer

@@ -123,6 +123,12 @@ type Statement struct {
 	Overridden                     bool
 	Default                        Expr
 	Declared                       *units.Unit
+	// Optional marks a param the using sheet may leave unset; what rests
+	// on it is then left out of the instance.
+	// Parts is, on a use, the rest of what the page shows of the template: its
+	// limits of validity, its sources and the parts left out.
+	Optional bool
+	Parts    *InstanceParts
 
 	// A result taken from another sheet: From is the sheet as written and
 	// Remote the name there, each with where it is written.
@@ -249,6 +255,9 @@ type Result struct {
 	// Phasor holds a complex result's parts in SI, nil for a real one;
 	// Value is then its magnitude.
 	Phasor *Phasor
+	// Phasors holds the elements of a list of phasors, in SI, nil for any
+	// other value; List then holds their magnitudes.
+	Phasors []Phasor
 	// Over holds a series' x values in SI, nil for any other value; List
 	// then holds its y values.
 	Over []float64

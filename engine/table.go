@@ -27,6 +27,10 @@ type TableSource struct {
 	Pos     diag.Pos
 	Header  []CellSource
 	Rows    [][]CellSource
+	// File is the package file the rows were read from ("" for a pipe
+	// table), and Err why it could not be read, for the table to carry.
+	File string
+	Err  *diag.Diagnostic
 }
 
 // LookupTable is named data that formulas read through interp, spline and pick.
@@ -36,6 +40,8 @@ type LookupTable struct {
 	Pos     diag.Pos
 	Columns []*Column
 	Err     *diag.Diagnostic // set when the table cannot be read
+	// File is the CSV file of the package the rows come from, or "".
+	File string
 }
 
 // Column is one column of a table: its values in coherent SI.
@@ -51,18 +57,25 @@ type Column struct {
 // readTable turns a table's cells into columns of numbers, checking the
 // units in the header and every cell.
 func readTable(src TableSource, name string) *LookupTable {
-	t := &LookupTable{Name: name, Caption: src.Caption, Pos: src.Pos}
+	t := &LookupTable{Name: name, Caption: src.Caption, Pos: src.Pos, File: src.File}
 	fail := func(d *diag.Diagnostic) *LookupTable {
 		if t.Err == nil {
 			t.Err = d
 		}
 		return t
 	}
+	if src.Err != nil {
+		return fail(src.Err)
+	}
 	if len(src.Header) == 0 || len(src.Rows) < 2 {
 		return fail(errAt(src.Pos, "give the table a header row and at least two rows of values", "table %s has too few rows", name))
 	}
 	if len(src.Rows) > MaxTableRows {
-		return fail(errAt(src.Pos, "keep long data in several tables, or thin it to the points the calculation needs",
+		at := src.Pos
+		if src.File != "" && len(src.Rows[MaxTableRows]) > 0 {
+			at = src.Rows[MaxTableRows][0].Pos // the first row past the limit, in the file
+		}
+		return fail(errAt(at, "keep long data in several tables, or thin it to the points the calculation needs",
 			"table %s has more than %d rows, the limit for one table", name, MaxTableRows))
 	}
 	seen := map[string]bool{}

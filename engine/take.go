@@ -2,6 +2,7 @@ package engine
 
 import (
 	"errors"
+	"fmt"
 	"strings"
 
 	"github.com/sheaf-calc/sheaf/diag"
@@ -120,6 +121,11 @@ func (s *Calc) resolveTakes(find func(ref, from string) (*Calc, string, error)) 
 			continue
 		}
 		target := other.Lookup(st.Remote)
+		if lo := other.leftOut[st.Remote]; target == nil && lo != nil {
+			s.fail(st, errAt(st.RemotePos, fmt.Sprintf("set %s in the use statement of %s at %d:%d", strings.Join(lo.params, ", "), path, lo.use.Pos.Line, lo.use.Pos.Col),
+				"%s leaves %s out: it rests on %s, which its use statement does not set", path, st.Remote, lo.inputs()))
+			continue
+		}
 		if target == nil || target.Kind != Definition && target.Kind != Take {
 			hint := "take a result that sheet defines"
 			if c := closest(st.Remote, other.definedNames()); c != "" {

@@ -35,7 +35,11 @@ const MaxTemplateDepth = 16
 // at every level: thirty levels would make a billion instances.
 const MaxInstances = 2000
 
-// parseParam reads `param name [unit]`.
+// OptionalWord follows a param's unit to make it optional:
+// `param PDIV_pp [kV] optional`.
+const OptionalWord = "optional"
+
+// parseParam reads `param name [unit]`, or `param name [unit] optional`.
 func parseParam(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	r := t.runes
 	st.Kind = Param
@@ -56,8 +60,14 @@ func parseParam(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	if err != nil {
 		return err
 	}
-	if skipSpace(r[:end], k) != end {
-		return errAt(t.pos(k), "a parameter has no value: the sheet that uses the template sets it", "unexpected text after param %s [%s]", name, st.DisplayText)
+	k = skipSpace(r[:end], k)
+	if w, m := word(r[:end], k); w == OptionalWord && (m == end || unicode.IsSpace(r[m])) {
+		st.Optional = true
+		k = skipSpace(r[:end], m)
+	}
+	if k != end {
+		return errAt(t.pos(k), "a parameter has no value: the sheet that uses the template sets it; write "+OptionalWord+" after the unit for one it may leave unset",
+			"unexpected text after param %s [%s]", name, st.DisplayText)
 	}
 	st.Declared = st.Display
 	st.Formula = "[" + st.DisplayText + "]"
@@ -247,7 +257,8 @@ func (x *expander) instantiate(use *Statement, from string) []*Statement {
 		return fail(d)
 	}
 	nameInstance(use, body, mine, tables)
-	return body
+	use.Parts = &InstanceParts{Validity: src.Validity, Sources: src.Sources}
+	return x.leaveOut(use, body, top)
 }
 
 // parseBody parses a template afresh, so that every instance has
@@ -302,7 +313,7 @@ func localNames(body []*Statement) map[string]*Statement {
 
 // applyOverrides puts the user's values in place of the template's, and
 // returns the statements whose formulas the using sheet wrote. Every
-// parameter must be set.
+// parameter must be set, but those marked optional.
 func applyOverrides(use *Statement, body []*Statement) (map[*Statement]bool, *diag.Diagnostic) {
 	local := localNames(body)
 	set := map[string]bool{}
@@ -324,7 +335,7 @@ func applyOverrides(use *Statement, body []*Statement) (map[*Statement]bool, *di
 	}
 	var missing []string
 	for _, st := range body {
-		if st.Kind == Param && st.Instance == "" && !set[st.Name] {
+		if st.Kind == Param && st.Instance == "" && !set[st.Name] && !st.Optional {
 			desc := st.Name + " [" + st.DisplayText + "]"
 			if st.Description != "" {
 				desc += " (" + st.Description + ")"

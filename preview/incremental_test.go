@@ -54,7 +54,8 @@ func fullBuild(t *testing.T, src string) map[string][]byte {
 // The preview rebuilds only what an edit touches, and serves what a full
 // build of the edited sources gives, byte for byte: an input of a sheet
 // nobody takes from, one of a sheet others take from, a template most
-// sheets use, a half-typed formula and its fix, a new sheet.
+// sheets use, a CSV file a template reads, a half-typed formula and its
+// fix, a new sheet.
 func TestIncrementalEqualsFullBuild(t *testing.T) {
 	src := filepath.Join(t.TempDir(), "tarnwick-weir")
 	if err := os.CopyFS(src, os.DirFS(filepath.Join("..", "examples", "tarnwick-weir"))); err != nil {
@@ -72,6 +73,9 @@ func TestIncrementalEqualsFullBuild(t *testing.T) {
 		{"a sheet nobody takes from", "03-speed-voltage.md", "B_1 = 0.83 T", "B_1 = 0.86 T", []string{"03-speed-voltage.md"}},
 		{"a sheet others take from", "01-field-coil.md", "k_C = 1.08", "k_C = 1.10", []string{"01-field-coil.md", "02-coil-emf.md", "03-speed-voltage.md", "06-emf-waveform-and-excitation.md"}},
 		{"a template", "_templates/tw-g1-ratings.md", "U_n = 690 V", "U_n = 660 V", []string{"01-field-coil.md", "02-coil-emf.md", "03-speed-voltage.md", "05-stator-insulation.md", "06-emf-waveform-and-excitation.md"}},
+		// The pole plate's curve, read by the template sheet 01 uses: the
+		// sheets that take from 01 follow, and the served copy of the file.
+		{"a CSV file a template's table reads", "data/pole-plate-dc.csv", "1200,1.28", "1200,1.29", []string{"01-field-coil.md", "02-coil-emf.md", "03-speed-voltage.md", "06-emf-waveform-and-excitation.md"}},
 		{"a half-typed formula", "04-pump-motor-back-emf.md", "R_a = 0.28 ohm", "R_a = 0.28 ohm *", []string{"04-pump-motor-back-emf.md"}},
 		{"the formula fixed", "04-pump-motor-back-emf.md", "R_a = 0.28 ohm *", "R_a = 0.28 ohm", []string{"04-pump-motor-back-emf.md"}},
 		// A later date in one sheet moves the build date every page

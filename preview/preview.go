@@ -210,8 +210,13 @@ func (s *Server) ServeHTTP(w http.ResponseWriter, r *http.Request) {
 		http.Error(w, "no page "+p+" in the package; the index is at /", http.StatusNotFound)
 		return
 	}
-	w.Header().Set("Content-Type", "text/html; charset=utf-8")
 	w.Header().Set("Cache-Control", "no-store")
+	if !strings.HasSuffix(p, ".html") { // a data file's copy, as read
+		w.Header().Set("Content-Type", "text/csv; charset=utf-8")
+		w.Write(data)
+		return
+	}
+	w.Header().Set("Content-Type", "text/html; charset=utf-8")
 	w.Write(servedPage(data, problem, build))
 }
 

@@ -312,6 +312,13 @@ func TestDemoTarnwickInsulation(t *testing.T) {
 	noCheck(t, s, "k_m * ins.U_tt <= U_w_tt", "a power-frequency stress against an impulse withstand")
 	// Turn voltage under the surge for 7-turn coils: 0.55 · 2.4 kV / 7.
 	closeTo(t, "ins.U_tt_s", libraryValue(t, s, "ins.U_tt_s"), 0.55*2400/7, 1e-12)
+	// A Type II (mica) winding: the partial-discharge check of IEC TS
+	// 60034-18-41 for Type I windings does not apply (IEC TS 60034-18-42,
+	// from memory), so the sheet leaves PDIV_pp unset and the check out.
+	noCheck(t, s, "m_PD >= EF", "the Type I partial-discharge check does not apply to a Type II winding")
+	if lo := s.Calc.Lookup("ins.U_pg").Use.Parts.LeftOut; len(lo) != 1 || strings.Join(lo[0].Params, ",") != "PDIV_pp" || lo[0].Checks() != 1 {
+		t.Errorf("sheet 05 should leave the partial-discharge part out for PDIV_pp: %+v", lo)
+	}
 	if !strings.Contains(sheetText(t, "tarnwick-weir", "05-stator-insulation.md"), "Caution") {
 		t.Error("sheet 05 lost its caution")
 	}
@@ -388,11 +395,41 @@ func TestDemoConveyorBrakeRelease(t *testing.T) {
 	noCheck(t, s, "t_95 <= t_rel_max", "three time constants of an unfringed coil ignore pick-up, travel and eddy currents")
 }
 
+// demoCSV reads the rows of a table's CSV file as plain numbers, past its
+// comment lines and its header.
+func demoCSV(t *testing.T, path string) [][]float64 {
+	t.Helper()
+	data, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var rows [][]float64
+	for _, line := range strings.Split(strings.TrimSpace(string(data)), "\n") {
+		var row []float64
+		for _, cell := range strings.Split(line, ",") {
+			v, err := strconv.ParseFloat(strings.TrimSpace(cell), 64)
+			if err != nil {
+				row = nil // a comment or the header
+				break
+			}
+			row = append(row, v)
+		}
+		if row != nil {
+			rows = append(rows, row)
+		}
+	}
+	return rows
+}
+
 // demoTable reads the rows of a pipe table that follows the paragraph
 // "Table <name>:" in a demo sheet's Markdown, as plain numbers: the hand
 // calculations below start from the sheet's data, not from the engine.
 func demoTable(t *testing.T, text, name string) [][]float64 {
 	t.Helper()
+	if j := strings.Index(text, "Table "+name+" from "); j >= 0 {
+		file, _, _ := strings.Cut(text[j+len("Table "+name+" from "):], ":")
+		return demoCSV(t, filepath.Join("..", "examples", "tarnwick-weir", file))
+	}
 	i := strings.Index(text, "Table "+name+":")
 	if i < 0 {
 		t.Fatalf("no table %s", name)

@@ -59,7 +59,7 @@ func LoadRevision(spec string) (*Package, error) {
 		}
 		files[rel] = data
 	}
-	if len(files) == 0 {
+	if !hasSheets(files) {
 		return nil, fmt.Errorf("%s holds no Markdown sheets at revision %s", folder, rev)
 	}
 	if err := distinctNames(mapKeys(files)); err != nil {
@@ -76,12 +76,13 @@ func pathspec(folder string) string {
 }
 
 // Selected is the one rule that says which files of a folder, or of a git
-// revision of it, make up a package: Markdown files (.md, any case) that
-// lie in no folder whose name starts with "." (a folder starting with "_"
-// holds templates, which belong to the package). rel is the file's path
-// inside the package, with forward slashes.
+// revision of it, make up a package: Markdown sheets (.md, any case) and
+// CSV data files (.csv, any case) that lie in no folder whose name starts
+// with "." (a folder starting with "_" holds templates, which belong to
+// the package). rel is the file's path inside the package, with forward
+// slashes.
 func Selected(rel string) bool {
-	if !strings.EqualFold(path.Ext(rel), ".md") {
+	if !isSheet(rel) && !isData(rel) {
 		return false
 	}
 	parts := strings.Split(rel, "/")
@@ -91,6 +92,22 @@ func Selected(rel string) bool {
 		}
 	}
 	return true
+}
+
+// isSheet reports whether a package file is a Markdown sheet by its name.
+func isSheet(rel string) bool { return strings.EqualFold(path.Ext(rel), ".md") }
+
+// isData reports whether a package file is a CSV data file by its name.
+func isData(rel string) bool { return strings.EqualFold(path.Ext(rel), ".csv") }
+
+// hasSheets reports whether the files hold at least one sheet.
+func hasSheets(files map[string][]byte) bool {
+	for p := range files {
+		if isSheet(p) {
+			return true
+		}
+	}
+	return false
 }
 
 func git(args ...string) ([]byte, error) {

@@ -807,7 +807,7 @@ func TestLibraryListing(t *testing.T) {
 			if in.Description == "" {
 				t.Errorf("%s: input %s has no description", name, in.Name)
 			}
-			if in.Required && in.Example == "" {
+			if (in.Required || in.Optional) && in.Example == "" {
 				t.Errorf("%s: parameter %s has no example value for a starter sheet", name, in.Name)
 			}
 		}
@@ -835,7 +835,7 @@ func TestLibraryInputsHaveSources(t *testing.T) {
 			t.Fatal(err)
 		}
 		for _, in := range project.TemplateInputs(doc) {
-			if !in.Required && in.Source == "" {
+			if !in.Required && !in.Optional && in.Source == "" {
 				t.Errorf("lib/%s: default input %s has no source", name, in.Name)
 			}
 		}

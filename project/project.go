@@ -39,6 +39,8 @@ type Package struct {
 	Diags     diag.List
 
 	latestDate string // the latest date in the pages' front matter
+	// data holds the CSV files the pages' tables read, by path.
+	data map[string][]byte
 	// whole is set when every file of the folder was read before
 	// compiling, so that Update can tell what an edit touches.
 	whole      bool
@@ -171,7 +173,7 @@ func LoadWith(root string, opt LoadOptions) (*Package, error) {
 	if err != nil {
 		return nil, err
 	}
-	if len(files) == 0 {
+	if !hasSheets(files) {
 		return nil, fmt.Errorf("%s holds no Markdown sheets (*.md)", root)
 	}
 	if err := distinctNames(mapKeys(files)); err != nil {
@@ -195,6 +197,18 @@ func loadOne(file string) (*Package, error) {
 		return nil, err
 	}
 	return build(dir, map[string][]byte{one: data}, func(p string) bool { return p == one }, f, nil), nil
+}
+
+// sheetPaths lists the sheets among the files, sorted; the data files
+// are read when a table names them.
+func sheetPaths(files map[string][]byte) []string {
+	var out []string
+	for _, p := range mapKeys(files) {
+		if isSheet(p) {
+			out = append(out, p)
+		}
+	}
+	return out
 }
 
 func mapKeys(files map[string][]byte) []string {
@@ -230,7 +244,7 @@ func FromFiles(root string, files map[string][]byte) *Package {
 // so is every sheet of more, when more is not nil, read when it is used.
 // Each page is handed to evaluated, when it is set, once it is evaluated.
 func build(root string, files map[string][]byte, page func(string) bool, more *folder, evaluated func(*Package, *Sheet)) *Package {
-	paths := mapKeys(files)
+	paths := sheetPaths(files)
 	docs := make([]*sheets.Document, len(paths))
 	parallel(len(paths), func(i int) { docs[i] = sheets.Parse(paths[i], files[paths[i]]) })
 	return assemble(root, files, docs, page, more, evaluated, nil)
@@ -276,7 +290,7 @@ func assemble(root string, files map[string][]byte, docs []*sheets.Document, pag
 				return
 			}
 			var used usedFiles
-			calc := engine.CompileWith(sourceOf(doc), engine.Options{Resolve: used.recording(r.resolve), Take: t.find})
+			calc := engine.CompileWith(r.source(doc, &used), engine.Options{Resolve: used.recording(r.resolverFor(&used)), Take: t.find})
 			calc.Evaluate()
 			fixed := fixity.Find(calc) // while the program can still run
 			conds := govern(calc)
@@ -294,6 +308,7 @@ func assemble(root string, files map[string][]byte, docs []*sheets.Document, pag
 	if more != nil {
 		pkg.Files = sourceFiles(r.files) // with the templates read since
 	}
+	pkg.data = dataOf(pkg.Sheets, r.files)
 	for _, d := range pkg.Templates {
 		pkg.Diags = append(pkg.Diags, d.Diags...)
 	}
@@ -335,25 +350,27 @@ func parallel(n int, f func(i int)) {
 	wg.Wait()
 }
 
-// sourceOf gives the engine a sheet's formula blocks and assumptions.
-func sourceOf(doc *sheets.Document) engine.SheetSource {
-	src := engine.SheetSource{Path: doc.Path, Title: doc.Meta.Title, Caution: doc.Meta.Caution}
+// sourceOf gives the engine a sheet's formula blocks, assumptions and
+// tables; a table read from a file has its rows from read, or, when read
+// is nil, none and an error that says they were not read.
+func sourceOf(doc *sheets.Document, read func(t *sheets.TableText, from string) engine.TableSource) engine.SheetSource {
+	src := engine.SheetSource{Path: doc.Path, Title: doc.Meta.Title, Caution: doc.Meta.Caution,
+		Validity: doc.Meta.Validity, Sources: doc.Meta.Sources}
 	for _, a := range doc.Assumptions {
 		src.Assumptions = append(src.Assumptions, engine.AssumptionSource{ID: a.ID, Text: a.Text, Pos: a.Pos})
 	}
 	for _, t := range doc.Tables {
-		ts := engine.TableSource{Name: t.Name, Caption: t.Caption, Pos: t.Pos}
-		for _, c := range t.Header {
-			ts.Header = append(ts.Header, engine.CellSource{Text: c.Text, Pos: c.Pos})
-		}
-		for _, row := range t.Rows {
-			var cells []engine.CellSource
-			for _, c := range row {
-				cells = append(cells, engine.CellSource{Text: c.Text, Pos: c.Pos})
+		if t.File != "" {
+			if read == nil {
+				src.Tables = append(src.Tables, engine.TableSource{Name: t.Name, Caption: t.Caption, Pos: t.Pos, File: t.File,
+					Err: &diag.Diagnostic{Pos: t.FilePos, Message: "table " + t.Name + " is read from a file, which is read only in a package"}})
+				continue
 			}
-			ts.Rows = append(ts.Rows, cells)
+			src.Tables = append(src.Tables, read(t, doc.Path))
+			continue
 		}
-		src.Tables = append(src.Tables, ts)
+		src.Tables = append(src.Tables, engine.TableSource{Name: t.Name, Caption: t.Caption, Pos: t.Pos,
+			Header: cellsOf(t.Header), Rows: rowsOf(t.Rows)})
 	}
 	for _, b := range doc.Blocks {
 		eb := engine.SourceBlock{Fence: b.Fence}
@@ -363,6 +380,22 @@ func sourceOf(doc *sheets.Document) engine.SheetSource {
 		src.Blocks = append(src.Blocks, eb)
 	}
 	return src
+}
+
+func cellsOf(cells []sheets.Cell) []engine.CellSource {
+	out := make([]engine.CellSource, len(cells))
+	for i, c := range cells {
+		out[i] = engine.CellSource{Text: c.Text, Pos: c.Pos}
+	}
+	return out
+}
+
+func rowsOf(rows [][]sheets.Cell) [][]engine.CellSource {
+	out := make([][]engine.CellSource, len(rows))
+	for i, row := range rows {
+		out[i] = cellsOf(row)
+	}
+	return out
 }
 
 // resolver finds templates for use statements: the built-in library
@@ -388,7 +421,7 @@ func (r *resolver) doc(p string) (*sheets.Document, error) {
 		}
 		return doc, nil
 	}
-	if !Selected(p) {
+	if !Selected(p) || !isSheet(p) {
 		return nil, fmt.Errorf("no sheet %s in the package", p)
 	}
 	data, err := r.more.read(p)
@@ -403,13 +436,19 @@ func (r *resolver) doc(p string) (*sheets.Document, error) {
 	return doc, nil
 }
 
-func (r *resolver) resolve(ref, from string) (engine.SheetSource, string, error) {
+// resolverFor is the resolver of one sheet's use statements: it notes
+// in used the data files the templates' tables read.
+func (r *resolver) resolverFor(used *usedFiles) engine.Resolver {
+	return func(ref, from string) (engine.SheetSource, string, error) { return r.resolve(ref, from, used) }
+}
+
+func (r *resolver) resolve(ref, from string, used *usedFiles) (engine.SheetSource, string, error) {
 	if name, ok := strings.CutPrefix(ref, sheets.LibraryPrefix); ok {
 		doc, err := sheets.LibraryTemplate(name)
 		if err != nil {
 			return engine.SheetSource{}, "", err
 		}
-		return sourceOf(doc), doc.Path, nil
+		return sourceOf(doc, nil), doc.Path, nil
 	}
 	if strings.HasPrefix(from, sheets.LibraryPrefix) {
 		return engine.SheetSource{}, "", fmt.Errorf("a built-in template can use only other built-in templates, not %s", ref)
@@ -426,7 +465,7 @@ func (r *resolver) resolve(ref, from string) (engine.SheetSource, string, error)
 		d := doc.Diags[0]
 		return engine.SheetSource{}, "", fmt.Errorf("template %s has an error at %s: %s", p, d.Pos, d.Message)
 	}
-	return sourceOf(doc), p, nil
+	return r.source(doc, used), p, nil
 }
 
 // templatePath is the package file a use statement in the file at from

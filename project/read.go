@@ -75,7 +75,7 @@ func (f *folder) read(rel string) ([]byte, error) {
 	return data, nil
 }
 
-// readAll reads every .md file below the folder, skipping folders whose
+// readAll reads every package file (Selected: sheets and data files) below the folder, skipping folders whose
 // names start with ".". Every link that resolves outside the folder is
 // named in the error; links to folders inside it are not followed (their
 // files are read where they lie).
@@ -133,10 +133,16 @@ func (f *folder) readAll() (map[string][]byte, error) {
 // distinctNames refuses sheets whose paths differ only in the case of
 // letters (a.md, a.MD, A.md): their pages would be one file, on every
 // system for a.md and a.MD, and where names ignore case for a.md and A.md.
+// Data files whose paths differ only in case (bh.csv, BH.csv) are refused
+// too: where names ignore case a table would read either.
 func distinctNames(paths []string) error {
 	byKey := map[string][]string{}
 	for _, p := range paths {
-		k := strings.ToLower(strings.TrimSuffix(p, path.Ext(p)))
+		// A sheet's page drops the extension; a data file keeps its name.
+		k := "data:" + strings.ToLower(p)
+		if isSheet(p) {
+			k = strings.ToLower(strings.TrimSuffix(p, path.Ext(p)))
+		}
 		byKey[k] = append(byKey[k], p)
 	}
 	var clashes []string
@@ -150,6 +156,6 @@ func distinctNames(paths []string) error {
 		return nil
 	}
 	sort.Strings(clashes)
-	return fmt.Errorf("sheets whose names differ only in the case of letters would share one page: %s; rename them so that each name is distinct whatever the case",
+	return fmt.Errorf("files whose names differ only in the case of letters would be one file where names ignore case (a sheet's page, or a table's data): %s; rename them so that each name is distinct whatever the case",
 		strings.Join(clashes, "; "))
 }

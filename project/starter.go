@@ -48,7 +48,7 @@ func starterSheet(name string, doc *sheets.Document) string {
 	fmt.Fprintf(&b, "# %s\n\nThis sheet uses the template `_templates/%s.md`, copied from sheaf's library. Replace the example\nvalues below with the job's, each with its source, and adapt the template if the job needs it.\n\n```sheaf\n", doc.Meta.Title, name)
 	var sets []string
 	for _, in := range TemplateInputs(doc) {
-		if !in.Required {
+		if !in.Required && !in.Optional {
 			continue
 		}
 		example := in.Example
@@ -61,6 +61,9 @@ func starterSheet(name string, doc *sheets.Document) string {
 		desc := in.Description
 		if desc == "" {
 			desc = in.Name
+		}
+		if in.Optional {
+			desc += " (optional: delete it and its setting in the use statement to leave out what rests on it)"
 		}
 		fmt.Fprintf(&b, "%s = %s ; %s ; source: example value, replace with the job's\n", in.Name, example, desc)
 		sets = append(sets, in.Name+" = "+in.Name)

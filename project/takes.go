@@ -51,7 +51,7 @@ func newTakes(pages []*sheets.Document) *takes {
 	t.named = make([][]string, len(pages))
 	for i, d := range pages {
 		seen := map[string]bool{}
-		for _, ref := range engine.TakenSheets(sourceOf(d)) {
+		for _, ref := range engine.TakenSheets(sourceOf(d, nil)) {
 			p, err := takeTarget(ref.Sheet, d.Path)
 			if err == nil && p != d.Path && !seen[p] {
 				seen[p] = true

@@ -12,6 +12,7 @@ type TemplateInput struct {
 	Unit        string // the unit it is measured in; "1" for a pure number
 	Description string
 	Required    bool   // a param: the using sheet must set it
+	Optional    bool   // an optional param: what rests on it is left out when it is not set
 	Default     string // the template's own value, for an input with one
 	Source      string // where the template's own value comes from
 	Example     string // from `; example: ...`, a value for a starter sheet
@@ -19,13 +20,13 @@ type TemplateInput struct {
 
 // TemplateInputs lists the inputs of a parsed template, in the order written.
 func TemplateInputs(doc *sheets.Document) []TemplateInput {
-	calc := engine.Compile(sourceOf(doc))
+	calc := engine.Compile(sourceOf(doc, nil))
 	var out []TemplateInput
 	for _, st := range calc.Statements {
 		if st.Kind != engine.Param && !st.IsInput() {
 			continue
 		}
-		in := TemplateInput{Name: st.Name, Description: st.Description, Required: st.Kind == engine.Param, Source: st.Source}
+		in := TemplateInput{Name: st.Name, Description: st.Description, Required: st.Kind == engine.Param && !st.Optional, Optional: st.Optional, Source: st.Source}
 		for _, n := range st.Notes {
 			if n.Key == "example" {
 				in.Example = n.Value
@@ -34,7 +35,7 @@ func TemplateInputs(doc *sheets.Document) []TemplateInput {
 		if st.Display != nil {
 			in.Unit = st.Display.Symbol
 		}
-		if !in.Required {
+		if st.Kind != engine.Param {
 			in.Default = st.Formula
 			if _, u, ok := engine.LiteralText(st.Expr); ok && in.Unit == "" {
 				in.Unit = u // the unit the template's own value is written in

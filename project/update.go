@@ -62,7 +62,7 @@ func (p *Package) Reload() (*Package, []*Sheet, error) {
 	if err != nil {
 		return nil, nil, err
 	}
-	if len(files) == 0 {
+	if !hasSheets(files) {
 		return nil, nil, fmt.Errorf("%s holds no Markdown sheets (*.md)", p.Root)
 	}
 	if err := distinctNames(mapKeys(files)); err != nil {
@@ -111,8 +111,9 @@ func (p *Package) Update(files map[string][]byte) (*Package, []*Sheet) {
 	return pkg, redone
 }
 
-// reuse pairs each of the files, in path order, with p's parsed document
-// when the file is unchanged, and parses the changed ones. It reports
+// reuse pairs each of the sheets among the files, in path order, with p's
+// parsed document when the file is unchanged, and parses the changed
+// ones; a changed data file is marked changed. It reports
 // false when the change is not one Update can confine: other names, a
 // page that turns template or back, or a package it cannot reuse.
 func (p *Package) reuse(files map[string][]byte, now []SourceFile) ([]*sheets.Document, map[string]bool, bool) {
@@ -129,28 +130,39 @@ func (p *Package) reuse(files map[string][]byte, now []SourceFile) ([]*sheets.Do
 	for _, d := range p.Templates {
 		old[d.Path] = d
 	}
-	docs := make([]*sheets.Document, len(now))
+	var docs []*sheets.Document
 	changed := map[string]bool{}
 	for i, f := range now {
-		was, ok := old[f.Path]
-		if !ok || f.Path != p.Files[i].Path {
+		if f.Path != p.Files[i].Path {
 			return nil, nil, false
 		}
-		docs[i] = was
-		if f.SHA256 == p.Files[i].SHA256 {
+		if !isSheet(f.Path) {
+			// A data file: the sheets whose tables read it are touched.
+			if f.SHA256 != p.Files[i].SHA256 {
+				changed[f.Path] = true
+			}
 			continue
 		}
-		changed[f.Path] = true
-		docs[i] = sheets.Parse(f.Path, files[f.Path])
-		if isTemplate(docs[i]) != isTemplate(was) {
+		was, ok := old[f.Path]
+		if !ok {
 			return nil, nil, false
 		}
+		doc := was
+		if f.SHA256 != p.Files[i].SHA256 {
+			changed[f.Path] = true
+			doc = sheets.Parse(f.Path, files[f.Path])
+			if isTemplate(doc) != isTemplate(was) {
+				return nil, nil, false
+			}
+		}
+		docs = append(docs, doc)
 	}
 	return docs, changed, true
 }
 
 // touched is the set of p's sheets that an edit of the changed files
-// touches: those the files are, those whose uses reach them, and those
+// touches: those the files are, those whose uses reach them (templates,
+// and the data files their tables or their templates' tables read), and those
 // that take from any of these, directly or not. The takes of p suffice:
 // a sheet whose takes change is itself changed.
 func (p *Package) touched(changed map[string]bool) map[string]bool {

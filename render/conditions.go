@@ -53,7 +53,7 @@ func writeCase(w sink, s *project.Sheet, st *engine.Statement, digits int) {
 			if i > 0 {
 				w.WriteString(", ")
 			}
-			w.WriteString(`<a href="#` + anchor(chk) + `">` + esc(checkName(chk)) + "</a>")
+			w.WriteString(`<a href="#` + anchor(chk) + `">` + esc(checkAt(chk)) + "</a>")
 		}
 		w.WriteString("</p>\n")
 	}
@@ -72,9 +72,9 @@ func governedBy(s *project.Sheet, c *engine.Statement) []*engine.Statement {
 	return out
 }
 
-// checkName names a check in a sentence: "check at line 12", or for a
+// checkAt names a check in a sentence: "check at line 12", or for a
 // template's "check of c1 at coil.md:9".
-func checkName(st *engine.Statement) string {
+func checkAt(st *engine.Statement) string {
 	if st.Instance != "" {
 		return "check of " + st.Instance + " at " + st.Pos.File + ":" + strconv.Itoa(st.Pos.Line)
 	}
@@ -92,14 +92,7 @@ func writeSampling(w sink, s *project.Sheet, st *engine.Statement) {
 // samplingText is "20 000 samples, seed 4", the digits grouped in threes
 // by sep as the SI Brochure (9th ed., 5.4.4) groups them.
 func samplingText(n int, seed uint64, sep string) string {
-	return groupDigits(strconv.Itoa(n), sep) + " " + plural(n, "sample") + ", seed " + strconv.FormatUint(seed, 10)
-}
-
-func plural(n int, noun string) string {
-	if n == 1 {
-		return noun
-	}
-	return noun + "s"
+	return groupDigits(strconv.Itoa(n), sep) + " sample" + plural(n) + ", seed " + strconv.FormatUint(seed, 10)
 }
 
 // groupDigits groups the digits of a whole number of five digits or more

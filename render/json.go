@@ -137,6 +137,7 @@ type JSONTable struct {
 	Name    string       `json:"name"`
 	Caption string       `json:"caption"`
 	Pos     diag.Pos     `json:"pos"`
+	File    string       `json:"file,omitempty"` // the CSV file the rows were read from
 	Columns []JSONColumn `json:"columns"`
 	Error   *JSONDiag    `json:"error,omitempty"`
 }
@@ -192,6 +193,14 @@ type JSONStatement struct {
 	Instance   string    `json:"instance,omitempty"`
 	Overridden bool      `json:"overridden,omitempty"`
 	Default    string    `json:"default,omitempty"`
+	// On a use statement, from the template's front matter: where it
+	// holds and what it rests on; on a use of the sheet itself, also the
+	// parts left out for optional inputs not set and the defaults kept
+	// that checks rest on.
+	Validity        []string          `json:"validity,omitempty"`
+	TemplateSources []string          `json:"template_sources,omitempty"`
+	LeftOut         []JSONLeftOut     `json:"left_out,omitempty"`
+	DefaultsKept    []JSONKeptDefault `json:"defaults_kept,omitempty"`
 	// The sheet's conditions: a statement's outcome in each load case, a
 	// check's governing condition, an input's tolerance, what the
 	// tolerances do to a check or a result, and a sweep's points.
@@ -217,6 +226,18 @@ type JSONList struct {
 	Text    []string  `json:"text"`
 	// Over is a series' x, absent for a list: the list holds its y.
 	Over *JSONAxis `json:"over,omitempty"`
+	// Phasors are the elements of a list of phasors, absent for a list
+	// of real values: si and display then hold their magnitudes.
+	Phasors []JSONPhasorPart `json:"phasors,omitempty"`
+}
+
+// JSONPhasorPart is one element of a list of phasors: its parts in
+// coherent SI and its angle.
+type JSONPhasorPart struct {
+	ReSI     float64 `json:"re_si"`
+	ImSI     float64 `json:"im_si"`
+	AngleRad float64 `json:"angle_rad"`
+	AngleDeg float64 `json:"angle_deg"`
 }
 
 // JSONAxis is a series' x values in coherent SI, and the unit the page
@@ -434,7 +455,7 @@ func jsonSheet(s *project.Sheet, opt Options) JSONSheet {
 	digits := s.Digits(opt.Digits)
 	js := JSONSheet{Path: s.Path(), Page: s.Page, Title: s.Title(), Meta: s.Doc.Meta, Tables: []JSONTable{}, Statements: []JSONStatement{}, Sampling: jsonSampling(s)}
 	for _, t := range s.Calc.Tables {
-		jt := JSONTable{Name: t.Name, Caption: t.Caption, Pos: t.Pos, Columns: []JSONColumn{}}
+		jt := JSONTable{Name: t.Name, Caption: t.Caption, Pos: t.Pos, File: t.File, Columns: []JSONColumn{}}
 		if t.Err != nil {
 			d := jsonDiag(*t.Err)
 			jt.Error = &d
@@ -521,6 +542,7 @@ func jsonStatement(s *project.Sheet, st *engine.Statement, digits int) JSONState
 		for _, o := range st.Overrides {
 			j.Sets = append(j.Sets, JSONSet{Name: o.Name, Formula: o.Formula})
 		}
+		jsonUseParts(calc, st, &j)
 		j.RestsOn = nil
 	case engine.Param:
 		j.Kind = "param"
@@ -592,7 +614,10 @@ func jsonList(res engine.Result, digits int) *JSONList {
 	l := &JSONList{Length: len(res.List), SI: res.List, Display: make([]float64, len(res.List)), Text: make([]string, len(res.List))}
 	for i, x := range res.List {
 		l.Display[i] = res.Shown.FromSI(x)
-		l.Text[i] = units.FormatNumber(l.Display[i], elementDigits(res, x, digits))
+		l.Text[i] = elementText(res, i, digits)
+	}
+	for _, p := range res.Phasors {
+		l.Phasors = append(l.Phasors, JSONPhasorPart{ReSI: p.Re, ImSI: p.Im, AngleRad: p.Angle(), AngleDeg: phasorDegrees(p)})
 	}
 	if res.Over != nil {
 		a := &JSONAxis{SI: res.Over, Unit: res.OverShown.Dim.SIUnits(), DisplayUnit: res.OverShown.Symbol, Display: make([]float64, len(res.Over))}

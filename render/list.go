@@ -40,6 +40,9 @@ func resultMathML(res engine.Result, digits int) string {
 			continue
 		}
 		b.WriteString(numberMathML(units.FormatNumber(res.Shown.FromSI(*x), elementDigits(res, *x, digits))))
+		if res.Phasors != nil {
+			b.WriteString("<mo>∠</mo>" + numberMathML(elementAngle(res, x, digits)) + "<mo>°</mo>")
+		}
 	}
 	b.WriteString(`<mo fence="true">]</mo>` + unitMathML(res.Shown.Symbol))
 	switch {
@@ -65,6 +68,33 @@ func listInlineValues(l []float64) []*float64 {
 	return []*float64{&l[0], &l[1], &l[2], nil, &l[len(l)-1]}
 }
 
+// elementAngle is the angle in degrees of the element of a list of
+// phasors whose magnitude x points to.
+func elementAngle(res engine.Result, x *float64, digits int) string {
+	return units.FormatNumber(phasorDegrees(res.Phasors[elementIndex(res.List, x)]), digits)
+}
+
+// elementIndex is the place in l of the element x points to.
+func elementIndex(l []float64, x *float64) int {
+	for i := range l {
+		if &l[i] == x {
+			return i
+		}
+	}
+	return 0
+}
+
+// elementText is one element of a list as text, in the list's unit
+// (which follows the list): a phasor as its magnitude ∠ its angle.
+func elementText(res engine.Result, i, digits int) string {
+	x := res.List[i]
+	s := units.FormatNumber(res.Shown.FromSI(x), elementDigits(res, x, digits))
+	if res.Phasors != nil {
+		s += " ∠ " + units.FormatNumber(phasorDegrees(res.Phasors[i]), digits) + "°"
+	}
+	return s
+}
+
 // elementDigits is the significant figures of one element: a list of
 // whole-number counts shows them without decimals, as a count does.
 func elementDigits(res engine.Result, si float64, digits int) int {
@@ -81,7 +111,7 @@ func ListText(res engine.Result, digits int) string {
 			parts = append(parts, "…")
 			continue
 		}
-		parts = append(parts, units.FormatNumber(res.Shown.FromSI(*x), elementDigits(res, *x, digits)))
+		parts = append(parts, elementText(res, elementIndex(res.List, x), digits))
 	}
 	s := "[" + strings.Join(parts, ", ") + "]"
 	if u := res.Shown.Symbol; u != "" && u != "1" {
@@ -150,7 +180,7 @@ func writeListTable(w sink, st *engine.Statement, res engine.Result, digits int)
 		}
 		w.WriteString("<tr><th>" + strconv.Itoa(row+1) + "</th>")
 		for i := row; i < min(row+listRow, len(l)); i++ {
-			w.WriteString("<td>" + html.EscapeString(units.FormatNumber(res.Shown.FromSI(l[i]), elementDigits(res, l[i], digits))) + "</td>")
+			w.WriteString("<td>" + html.EscapeString(elementText(res, i, digits)) + "</td>")
 		}
 		w.WriteString("</tr>\n")
 	}

@@ -23,6 +23,10 @@ func packagePages(pkg *project.Package, opt Options) []File {
 	if opt.Audit != nil {
 		files = append(files, File{Path: "audit.html", Data: auditPage(pkg, opt, *opt.Audit)})
 	}
+	// The data files the tables read, as read, for their links.
+	for _, d := range pkg.DataFiles() {
+		files = append(files, File{Path: SourcesDir + d.Path, Data: d.Data})
+	}
 	return files
 }
 

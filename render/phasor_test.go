@@ -39,3 +39,33 @@ func TestPhasorsShowAsMagnitudeAngle(t *testing.T) {
 		}
 	}
 }
+
+// A list of phasors shows each element as its magnitude ∠ its angle, the
+// magnitudes in the list's one unit: inline for a short list, and in the
+// table of values for a long one; in the terminal too. Values invented
+// (Tarnwick Weir): the three phase voltages, and twelve phasors 30° apart.
+func TestPhasorListsShowAsMagnitudeAngle(t *testing.T) {
+	sheet := "# Phases\n\n```sheaf\nV_ph = 6.35 kV ; phase voltage ; source: invented\nU = V_ph ∠ [0 deg, -120 deg, 120 deg] ; phases a, b, c\n" +
+		"th [deg] = 0 deg .. 330 deg by 30 deg\nW = 1 A ∠ th\nU_b = U[2]\n```\n"
+	pkg, pages := build(t, map[string]string{"ph.md": sheet})
+	page := pages["sheets/ph.html"]
+	for _, want := range []string{
+		"<mn>6.350</mn><mo>∠</mo><mn>0</mn><mo>°</mo><mo>,</mo><mn>6.350</mn><mo>∠</mo><mrow><mo>−</mo><mn>120.0</mn></mrow><mo>°</mo>",
+		"<td>1.000 ∠ 150.0°</td>", // the 6th of the twelve, in the table of values
+	} {
+		if !strings.Contains(page, want) {
+			t.Errorf("sheet page lacks %q", want)
+		}
+	}
+	var lines []string
+	for _, st := range pkg.Sheets[0].Calc.Statements {
+		lines = append(lines, TerminalLine(st, pkg.Sheets[0].Calc.Result(st), 4))
+	}
+	text := strings.Join(lines, "\n")
+	for _, want := range []string{"U = [6.350 ∠ 0°, 6.350 ∠ -120.0°, 6.350 ∠ 120.0°] kV", "U_b = 6.350 kV ∠ -120.0°",
+		"W = [1.000 ∠ 0°, 1.000 ∠ 30.00°, 1.000 ∠ 60.00°, …, 1.000 ∠ -30.00°] A (12 values)"} {
+		if !strings.Contains(text, want) {
+			t.Errorf("terminal lacks %q in\n%s", want, text)
+		}
+	}
+}

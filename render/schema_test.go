@@ -90,6 +90,13 @@ var phasorSheets = map[string][]byte{
 		"Z_s = 0.04 Ω + 11.5j Ω ; synchronous impedance\nE [kV] = V + I * Z_s ; excitation EMF\ndelta [deg] = arg(E) ; load angle\ncheck abs(E) <= 12 kV\nI_q = 210j A ; reactive current ; source: invented\n```\n"),
 }
 
+// phasorListSheets is the three phase voltages of the Tarnwick Weir
+// generator (invented), as a list of phasors, with their sum.
+var phasorListSheets = map[string][]byte{
+	"phases.md": []byte("# Phase voltages\n\n```sheaf\nV_ph = 6.35 kV ; phase voltage ; source: invented\n" +
+		"U = V_ph ∠ [0 deg, -120 deg, 120 deg] ; phases a, b, c\nS = sum(U) ; their sum\n```\n"),
+}
+
 // seriesSheets is one stator coil of the Tarnwick Weir generator: its
 // flux linkage against electrical rotor angle (invented: 0.44 Wb peak, 3 %
 // 5th and 1.5 % 7th harmonic), its EMF at 50 Hz, and that EMF's harmonics.
@@ -263,6 +270,11 @@ func (s seen) walk(doc map[string]any) {
 			if _, ok := m["name"]; !ok && m["kind"] == "definition" {
 				s["definition without a name"] = true
 			}
+			for _, k := range []string{"left_out", "validity", "template_sources", "defaults_kept"} {
+				if _, ok := m[k]; ok {
+					s["use with "+k] = true
+				}
+			}
 		}
 		if meta := sh.(map[string]any)["meta"].(map[string]any); len(meta) == 0 {
 			s["empty meta"] = true
@@ -427,6 +439,21 @@ func TestRealOutputValidates(t *testing.T) {
 			}
 			return "no statement E"
 		}},
+		{"package with a list of phasors", func(t *testing.T) []byte {
+			return withAudit(t, project.FromFiles("phasor-lists", phasorListSheets))
+		}, func(doc map[string]any) string {
+			for _, st := range doc["sheets"].([]any)[0].(map[string]any)["statements"].([]any) {
+				if m := st.(map[string]any); m["name"] == "U" {
+					l, _ := m["list"].(map[string]any)
+					ps, _ := l["phasors"].([]any)
+					if len(ps) != 3 || l["text"].([]any)[1] != "6.350 ∠ -120.0°" {
+						return fmt.Sprintf("U should carry three phasors, the second 6.350 ∠ -120.0°, not %v", l)
+					}
+					return ""
+				}
+			}
+			return "no statement U"
+		}},
 		{"package with no files", func(t *testing.T) []byte {
 			data, err := render.JSON(project.FromFiles("empty", map[string][]byte{}), render.Options{})
 			if err != nil {
@@ -479,6 +506,7 @@ func TestRealOutputValidates(t *testing.T) {
 		"kind angle", "kind cycles", "kind absolute temperature",
 		"severity error", "severity warning", "accepted yes", "accepted no",
 		"check without utilisation", "definition without a name", "empty meta", "no audit", "no build date",
+		"use with left_out", "use with validity", "use with template_sources", "use with defaults_kept",
 	} {
 		if !all[want] {
 			t.Errorf("no document exercised %q: the positive tests miss a branch of the schema", want)

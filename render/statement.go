@@ -166,6 +166,7 @@ func writeUse(w sink, s *project.Sheet, use *engine.Statement, digits int) {
 	if use.TemplateCaution != "" {
 		w.WriteString(`<aside class="caution"><strong>Caution from the template.</strong> ` + esc(use.TemplateCaution) + "</aside>\n")
 	}
+	writeTemplateNotes(w, calc, use)
 	w.WriteString("<div class=\"instance\">\n")
 	for _, st := range calc.Statements {
 		if st.Use == use {

@@ -111,6 +111,9 @@ table.diff tr.input-changed .kind,table.diff tr.formula-changed .kind{color:var(
 .use .usehead{margin:.1rem 0}
 .use .kw{font-weight:700;color:var(--accent)}
 .instance{border-left:2px solid var(--rule);margin:.3rem 0 .2rem .3rem;padding-left:.7rem}
+.tplnotes{font-size:.82rem;margin:.3rem 0 .3rem .3rem}
+.tplnotes ul{margin:.1rem 0 .3rem;padding-left:1.2rem}
+.tplnotes .leftout{border-left:3px dashed var(--muted);padding-left:.5rem;margin:.2rem 0}
 .setby{color:var(--accent);font-weight:600}
 .row.set .eq math{color:var(--accent)}
 p.caption{font-weight:600;margin-bottom:.2rem}

@@ -85,7 +85,7 @@ func monotonic(x []float64) bool {
 // writeSweepCheckNote says where a check resting on the swept input comes
 // out worst, and at how many points it fails.
 func writeSweepCheckNote(w sink, s *project.Sheet, sw *conditions.SweepRun, chk conditions.SweepCheck, digits int) {
-	w.WriteString(`<p class="condnote"><a href="#` + anchor(chk.Stmt) + `">` + esc(checkName(chk.Stmt)) + "</a>")
+	w.WriteString(`<p class="condnote"><a href="#` + anchor(chk.Stmt) + `">` + esc(checkAt(chk.Stmt)) + "</a>")
 	if chk.Worst >= 0 {
 		w.WriteString(": worst at " + symbolHTML(sw.Input.Name) + " = " + esc(ValueText(sw.X[chk.Worst], sw.XShown, digits)))
 		if u := pointUtilisation(s, chk, chk.Worst); u != "" {
@@ -156,7 +156,7 @@ func writeSweepTable(w sink, s *project.Sheet, sw *conditions.SweepRun, digits i
 		w.WriteString("<th>" + columnHead(cv.Stmt.Name, cv.Shown) + "</th>")
 	}
 	for _, chk := range sw.Checks {
-		w.WriteString(`<th>demand / capacity, <a href="#` + anchor(chk.Stmt) + `">` + esc(checkName(chk.Stmt)) + "</a></th>")
+		w.WriteString(`<th>demand / capacity, <a href="#` + anchor(chk.Stmt) + `">` + esc(checkAt(chk.Stmt)) + "</a></th>")
 	}
 	w.WriteString("</tr></thead>\n<tbody>\n")
 	for _, i := range rows {

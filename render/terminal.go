@@ -29,6 +29,11 @@ func Terminal(pkg *project.Package, opt Options, out, errs io.Writer) {
 				continue
 			}
 			fmt.Fprintf(out, "  %4d  %s\n", st.Pos.Line, line)
+			if st.Kind == engine.Use && st.Parts != nil {
+				for _, lo := range st.Parts.LeftOut {
+					fmt.Fprintf(out, "          %s\n", LeftOutLine(lo))
+				}
+			}
 		}
 		fmt.Fprintln(out)
 	}
@@ -45,6 +50,9 @@ func WriteDiagnostics(pkg *project.Package, errs io.Writer) {
 	}
 	for _, s := range pkg.Templates {
 		sources[s.Path] = s.Source
+	}
+	for _, d := range pkg.DataFiles() {
+		sources[d.Path] = d.Data
 	}
 	for _, d := range pkg.Diags {
 		fmt.Fprintln(errs, d.Error())
@@ -186,4 +194,18 @@ func AuditTerminal(r audit.Report, all bool, w io.Writer) {
 		fmt.Fprintln(w, line)
 	}
 	fmt.Fprintf(w, "%s open, %d accepted\n", Count(r.Open(), "finding"), len(r.Findings)-r.Open())
+}
+
+// LeftOutLine says in one line what part of an instance was left out:
+// "not evaluated, PDIV_pp not set: ins.m_PD, check m_PD >= EF".
+func LeftOutLine(lo engine.LeftOut) string {
+	var what []string
+	for _, st := range lo.Statements {
+		if st.Kind == engine.Check {
+			what = append(what, "check "+st.Formula)
+		} else {
+			what = append(what, st.Name)
+		}
+	}
+	return "not evaluated, " + strings.Join(lo.Params, ", ") + " not set: " + strings.Join(what, ", ")
 }

@@ -3,6 +3,7 @@ package sheets_test
 import (
 	"bytes"
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
@@ -35,6 +36,9 @@ func FuzzSheet(f *testing.F) {
 		"---\n---\n",
 		"---\ntitle: Coil\n--- \n# S\n\n```sheaf\na = 1\n```\n",
 		"-----\ntitle: Coil\n---\n```sheaf\na = 1\n```\n",
+		"Table BH from data/bh.csv: DC curve\n\n```sheaf\nx = 1\n```\nTable T from : c\nTable U from x.csv\n| a | b |\n|---|---|\n| 1 | 2 |\n",
+		"---\ntemplate: true\nvalidity:\n  - \"linear iron: B below the knee\"\n  - sinusoidal flux\nsources:\n  - IEC 60034-1 (from memory)\n---\n```sheaf\nparam B [T] optional\n```\n",
+		"---\nvalidity: one line only\nsources:\n  - [nested]\n  - \n  - {a: b}\n---\n",
 	} {
 		f.Add([]byte(seed))
 	}
@@ -160,6 +164,23 @@ func checkMeta(t *testing.T, s *sheets.Document) {
 				t.Fatalf("field %q: Meta has %q, the YAML says %q", k, *p, text)
 			}
 		}
+		if key == "validity" || key == "sources" {
+			got := s.Meta.Validity
+			if key == "sources" {
+				got = s.Meta.Sources
+			}
+			if items, isList := v.([]any); isList {
+				var want []string
+				for _, it := range items {
+					if text, isText := it.(string); isText && strings.TrimSpace(text) != "" {
+						want = append(want, strings.TrimSpace(text))
+					}
+				}
+				if !slices.Equal(got, want) && allText(items) {
+					t.Fatalf("%s: Meta has %q, the YAML says %q", k, got, want)
+				}
+			}
+		}
 		if key == "digits" {
 			if n, isInt := v.(int); isInt && n >= 1 && n <= 15 && s.Meta.Digits != n {
 				t.Fatalf("digits: Meta has %d, the YAML says %d", s.Meta.Digits, n)
@@ -179,5 +200,34 @@ func checkMeta(t *testing.T, s *sheets.Document) {
 				t.Fatalf("digits: Meta has %d from %v (%T)", s.Meta.Digits, v, v)
 			}
 		}
+	}
+}
+
+// allText reports whether every item of a YAML list is a string.
+func allText(items []any) bool {
+	for _, it := range items {
+		if _, ok := it.(string); !ok {
+			return false
+		}
+	}
+	return true
+}
+
+// A template's limits of validity and its sources: a list of texts, or
+// one text; anything else is refused at its line.
+func TestMetaValidityAndSources(t *testing.T) {
+	s := sheets.Parse("t.md", []byte("---\ntemplate: true\nvalidity:\n  - linear iron\n  - \"sinusoidal flux: no harmonics\"\nsources: Chapman, 4th ed., chapter 1 (from memory)\n---\n"))
+	if len(s.Diags) != 0 || !slices.Equal(s.Meta.Validity, []string{"linear iron", "sinusoidal flux: no harmonics"}) ||
+		!slices.Equal(s.Meta.Sources, []string{"Chapman, 4th ed., chapter 1 (from memory)"}) {
+		t.Errorf("got %q and %q, %v", s.Meta.Validity, s.Meta.Sources, s.Diags)
+	}
+	s = sheets.Parse("t.md", []byte("---\nvalidity:\n  - fine\n  - [not, text]\nsources:\n  a: b\n---\n"))
+	want := []string{"t.md:4:5: each item of validity must be a line of text", "t.md:6:3: sources must be a list of texts"}
+	var got []string
+	for _, d := range s.Diags {
+		got = append(got, d.Pos.String()+": "+d.Message)
+	}
+	if !slices.Equal(got, want) || !slices.Equal(s.Meta.Validity, []string{"fine"}) {
+		t.Errorf("got %q, %q; want %q", got, s.Meta.Validity, want)
 	}
 }

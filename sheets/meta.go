@@ -42,6 +42,11 @@ type Meta struct {
 	// Caution is a warning that goes wherever the sheet is used as a
 	// template, beside the instance's results.
 	Caution string `json:"caution,omitempty"`
+	// Validity and Sources go, like Caution, wherever the sheet is used
+	// as a template: short statements of where it holds, and the
+	// published references it rests on.
+	Validity []string `json:"validity,omitempty"`
+	Sources  []string `json:"sources,omitempty"`
 }
 
 // Revision is one row of a sheet's revision history.
@@ -102,7 +107,7 @@ var metaFields = map[string]func(*Meta) *string{
 var dateFields = map[string]bool{"date": true, "prepared_on": true, "checked_on": true, "approved_on": true}
 
 func knownFields() string {
-	names := []string{"digits", "history", "accept", "template"}
+	names := []string{"digits", "history", "accept", "template", "validity", "sources"}
 	for k := range metaFields {
 		names = append(names, k)
 	}
@@ -239,6 +244,12 @@ func metaField(m *Meta, k, v *yaml.Node, at func(*yaml.Node) diag.Pos, diags *di
 	case "accept":
 		m.Accept = decodeAccept(v, at, diags)
 		return
+	case "validity":
+		m.Validity = decodeTextList(k.Value, v, at, diags)
+		return
+	case "sources":
+		m.Sources = decodeTextList(k.Value, v, at, diags)
+		return
 	}
 	field, ok := metaFields[key]
 	if !ok {
@@ -317,6 +328,33 @@ func decodeAccept(v *yaml.Node, at func(*yaml.Node) diag.Pos, diags *diag.List) 
 			continue
 		}
 		out = append(out, Acceptance{Code: strings.TrimSpace(k.Value), Reason: strings.TrimSpace(val.Value), Pos: at(k)})
+	}
+	return out
+}
+
+// decodeTextList reads a list of short texts, one per item; a single text
+// is a list of one.
+func decodeTextList(key string, v *yaml.Node, at func(*yaml.Node) diag.Pos, diags *diag.List) []string {
+	hint := "write " + key + " as a list, one statement a line, each line starting with - "
+	switch v.Kind {
+	case yaml.ScalarNode:
+		if t := strings.TrimSpace(v.Value); t != "" {
+			return []string{t}
+		}
+		return nil
+	case yaml.SequenceNode:
+	default:
+		diags.Add(at(v), hint, "%s must be a list of texts", key)
+		return nil
+	}
+	var out []string
+	for _, item := range v.Content {
+		t := strings.TrimSpace(item.Value)
+		if item.Kind != yaml.ScalarNode || t == "" {
+			diags.Add(at(item), hint, "each item of %s must be a line of text", key)
+			continue
+		}
+		out = append(out, t)
 	}
 	return out
 }

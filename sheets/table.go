@@ -3,6 +3,7 @@ package sheets
 import (
 	"regexp"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/yuin/goldmark/ast"
 	east "github.com/yuin/goldmark/extension/ast"
@@ -11,14 +12,20 @@ import (
 )
 
 // TableText is a named table of data: a caption paragraph "Table <name>:
-// caption" and the pipe table that follows it. Header cells are column
-// names with units in brackets: "H [A/m]".
+// caption" and the pipe table that follows it, or a caption "Table <name>
+// from <file.csv>: caption" that names a CSV file of the package, which
+// the project reads (ReadCSV). Header cells are column names with units
+// in brackets: "H [A/m]".
 type TableText struct {
 	Name    string
 	Caption string
 	Pos     diag.Pos // of the caption
 	Header  []Cell
 	Rows    [][]Cell
+	// File is the CSV file as written after "from", relative to the
+	// sheet, and FilePos where it is written; "" for a pipe table.
+	File    string
+	FilePos diag.Pos
 }
 
 // Cell is the text of a table cell and where it starts.
@@ -27,8 +34,12 @@ type Cell struct {
 	Pos  diag.Pos
 }
 
-// tableHead matches a table's caption paragraph.
-var tableHead = regexp.MustCompile(`^Table\s+([A-Za-z][A-Za-z0-9_]*)\s*:\s*`)
+// tableHead matches a table's caption paragraph; tableFrom the start of
+// one that names a file.
+var (
+	tableHead = regexp.MustCompile(`^Table\s+([A-Za-z][A-Za-z0-9_]*)\s*:\s*`)
+	tableFrom = regexp.MustCompile(`^Table\s+([A-Za-z][A-Za-z0-9_]*)\s+from\s+`)
+)
 
 // KindTableCaption is the node kind of a named table's caption.
 var KindTableCaption = ast.NewNodeKind("TableCaption")
@@ -55,6 +66,9 @@ func (s *Document) tableCaption(p *ast.Paragraph) *TableCaption {
 		return nil
 	}
 	text := s.paragraphText(p)
+	if m := tableFrom.FindStringSubmatch(text); m != nil {
+		return s.fileTable(p, text, m)
+	}
 	m := tableHead.FindStringSubmatch(text)
 	if m == nil {
 		return nil
@@ -76,6 +90,31 @@ func (s *Document) tableCaption(p *ast.Paragraph) *TableCaption {
 		} else if t.Rows = append(t.Rows, cells); len(t.Rows) > MaxTableRows {
 			break
 		}
+	}
+	s.Tables = append(s.Tables, t)
+	n := &TableCaption{Table: t}
+	adopt(n, p)
+	return n
+}
+
+// fileTable reads a caption "Table <name> from <file>: caption", whose
+// rows are in the file; m is what tableFrom matched.
+func (s *Document) fileTable(p *ast.Paragraph, text string, m []string) *TableCaption {
+	pos := s.Pos(p.Lines().At(0).Start)
+	file, caption, _ := strings.Cut(text[len(m[0]):], ":")
+	t := &TableText{Name: m[1], Caption: strings.TrimSpace(caption), Pos: pos, File: strings.TrimSpace(file), FilePos: pos}
+	// The file is where it is written when it is on the caption's first line.
+	seg := p.Lines().At(0)
+	if first := strings.TrimSpace(string(seg.Value(s.Source))); len(first) >= len(m[0]) {
+		t.FilePos = pos.Shift(utf8.RuneCountInString(text[:len(m[0])]))
+	}
+	if t.File == "" {
+		s.Diags.Add(pos, "write the file after from, as Table BH from data/bh.csv: caption", "table %s names no file after from", t.Name)
+		return nil
+	}
+	if _, ok := p.NextSibling().(*east.Table); ok {
+		s.Diags.Add(pos, "keep the rows in the file and remove the pipe table, or remove \"from "+t.File+"\" to use the pipe table",
+			"table %s is read from %s, and a pipe table follows its caption too", t.Name, t.File)
 	}
 	s.Tables = append(s.Tables, t)
 	n := &TableCaption{Table: t}

@@ -27,8 +27,11 @@ func templatesCmd(stdout io.Writer) *cobra.Command {
 				}
 				var need []string
 				for _, in := range project.TemplateInputs(doc) {
-					if in.Required {
+					switch {
+					case in.Required:
 						need = append(need, in.Name+" ["+in.Unit+"]")
+					case in.Optional:
+						need = append(need, in.Name+" ["+in.Unit+"] optional")
 					}
 				}
 				fmt.Fprintf(w, "%s%s\t%s\t%s\n", sheets.LibraryPrefix, name, doc.Meta.Title, strings.Join(need, ", "))
