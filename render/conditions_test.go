@@ -459,3 +459,25 @@ func TestCasesOfATemplate(t *testing.T) {
 	}
 	t.Error("no statement I")
 }
+
+// A sweep run in a case says so, and the point that governs names the
+// case too: at the low supply the sweep of the coil's resistance from
+// 1.9 Ω to 2.6 Ω draws 99 V / 1.9 Ω = 52.1 A at its worst.
+func TestSweepInACase(t *testing.T) {
+	sheet := strings.Replace(conditionsSheet, "sweep su: U_s over 99 V .. 121 V by 1 V show I_f", "sweep sr: R_f over 1.9 ohm .. 2.6 ohm by 0.1 ohm in low show I_f", 1)
+	sheet = strings.Replace(sheet, "case cold: R_f = 1.99 ohm ; the coil at 20 °C, just switched on\n", "", 1)
+	pkg, s := conditionsPackage(t, sheet)
+	page := text(pages(t, pkg)[s.Page])
+	for _, want := range []string{
+		"sweep sr: Rf from 1.900 Ω to 2.600 Ω, 8 points, in case low; gathers If",
+		"governs: sweep sr in case low at R_f = 1.900 Ω",
+		"limits 2.350 Ω … 2.520 Ω; no distribution written",
+	} {
+		if !strings.Contains(page, want) {
+			t.Errorf("the page lacks %q:\n%s", want, page)
+		}
+	}
+	if got := s.Calc.Result(stmt(t, s, "I_f <= I_fmax")).Left; math.Abs(got-99/1.9) > 1e-9 {
+		t.Errorf("the governing point gives %g A, want 99 V / 1.9 Ω = %g A", got, 99/1.9)
+	}
+}
