@@ -2,6 +2,7 @@ package render
 
 import (
 	"html"
+	"math"
 	"strings"
 	"unicode"
 
@@ -235,4 +236,4 @@ func verdictClass(s engine.Status) string {
 	return "holds"
 }
 
-func finite(v float64) bool { return v == v && v-v == 0 }
+func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
