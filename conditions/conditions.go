@@ -40,8 +40,10 @@ type Governing struct {
 	Case  *engine.Statement
 	Sweep *SweepRun
 	Point int
-	// Result is the check there.
-	Result engine.Result
+	// Result is the check there; AsWritten is the check in the sheet as
+	// written, which the page shows beside the cases.
+	Result    engine.Result
+	AsWritten engine.Result
 	// Evaluated counts the conditions the check was worked out in, the
 	// sheet as written among them; Failing names those where it fails.
 	Evaluated int
@@ -109,7 +111,12 @@ func Run(calc *engine.Calc) *Report {
 	r := &Report{govern: map[*engine.Statement]Governing{}}
 	for _, st := range calc.Statements {
 		if st.Kind == engine.Check && settled(calc.Result(st).Status) && (len(cases) > 0 || reachedBySweep(calc, st, sweeps)) {
-			r.govern[st] = Governing{Where: "as written", Result: calc.Result(st), Evaluated: 1}
+			res := calc.Result(st)
+			g := Governing{Where: "as written", Result: res, AsWritten: res, Evaluated: 1}
+			if res.Status == engine.Fail {
+				g.Failing = []string{"as written"}
+			}
+			r.govern[st] = g
 		}
 	}
 	for _, c := range cases {
@@ -172,7 +179,7 @@ func (r *Report) consider(st *engine.Statement, g Governing) {
 		cur.Failing = append(cur.Failing, g.Where)
 	}
 	if worse(st, g.Result, cur.Result) {
-		g.Evaluated, g.Failing = cur.Evaluated, cur.Failing
+		g.Evaluated, g.Failing, g.AsWritten = cur.Evaluated, cur.Failing, cur.AsWritten
 		cur = g
 	}
 	r.govern[st] = cur

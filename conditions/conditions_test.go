@@ -126,6 +126,31 @@ func TestCasesGovern(t *testing.T) {
 	if !near(g.Result.Utilisation, 28/2.9/9, 1e-9) {
 		t.Errorf("utilisation %g, want %g", g.Result.Utilisation, 28/2.9/9)
 	}
+	if len(g.Failing) != 1 || g.Failing[0] != "case high" {
+		t.Errorf("fails in %q, want only case high", g.Failing)
+	}
+	// The sheet as written stays beside the governing case: 24 V / 3 Ω.
+	if w := g.AsWritten; w.Status != engine.Pass || !near(w.Left, 8, 1e-12) || !near(w.Right, 9, 1e-12) {
+		t.Errorf("as written = %v: %g A against %g A, want pass: 8 A against 9 A", w.Status, w.Left, w.Right)
+	}
+}
+
+// A check that fails as written counts the sheet as written among the
+// conditions it fails in.
+func TestFailingAsWrittenIsNamed(t *testing.T) {
+	calc := compile(t,
+		"U = 30 V",
+		"R = 3 ohm",
+		"I = U / R",
+		"I_max = 9 A",
+		"check I <= I_max",
+		"case low: U = 20 V",
+	)
+	mustClean(t, calc)
+	g, ok := conditions.Run(calc).Governing(statement(t, calc, "I <= I_max"))
+	if !ok || g.Where != "as written" || len(g.Failing) != 1 || g.Failing[0] != "as written" {
+		t.Fatalf("governing = %+v, want as written, failing there only", g)
+	}
 }
 
 // The Monte Carlo mean and standard deviation of a sum and a product of

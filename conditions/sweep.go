@@ -141,7 +141,7 @@ func (r *Report) considerSweep(calc *engine.Calc, p *engine.Program, sw *SweepRu
 			cur.Failing = append(cur.Failing, "sweep "+sw.Stmt.Name+" ("+strconv.Itoa(chk.Fails)+" of "+strconv.Itoa(len(sw.X))+" points)")
 		}
 		if worse(chk.Stmt, res, cur.Result) {
-			g.Evaluated, g.Failing = cur.Evaluated, cur.Failing
+			g.Evaluated, g.Failing, g.AsWritten = cur.Evaluated, cur.Failing, cur.AsWritten
 			cur = g
 		}
 		r.govern[chk.Stmt] = cur

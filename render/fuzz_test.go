@@ -31,6 +31,8 @@ func FuzzPipeline(f *testing.F) {
 		"Table T: turns\n\n| k [1] | phi [mWb] |\n|---:|---:|\n| 1 | 2.4 |\n| 2 | 2.3 |\n\n```sheaf\nphi_k = [2.41 mWb, 2.38 mWb,\n    2.30 mWb] ; flux per turn group ; source: field plot FP-3\nlambda = sum(phi_k) + sum(T.phi)\nth [deg] = 0 deg .. 360 deg by 10 deg\ne = cos(th) * lambda / 1 s\ncheck max(e) <= 1 V\nk = 1 when lambda > 1 Wb else phi_k[2] / lambda\n```\n",
 		"```sheaf\nV = 6.35 kV\nU = V ∠ [0 deg, -120 deg, 120 deg]\nS = sum(U)\nz = [1 V + 2j V, 3 V] / [1, 0]\nm = max(U)\nW = U * conj(U) - 1 V^2\nx = U[2] + mean(U)\na [deg] = arg(U)\n```\n",
 		"```sheaf\nk_p(nu) = sin(nu * y * pi / 2) ; pitch factor\ny = 7 / 9\nw = k_p([1, 5, 7])\nf(x) = f(x) + 1\nz = f(2)\n```\n",
+		"```sheaf\nU = 24 V ± 5 % ; supply\nR = 3 ohm in 2.9 ohm .. 3.2 ohm\ng = 4.0 mm ± σ 0.05 mm\nk = 1300 ± 15 % triangular\nI = U / R * k * g / 1 m\ncheck I <= 9 A\ncase low: U = 20 V\ncase high: U = 28 V, R = 2.9 ohm\nsweep su: U over 18 V .. 30 V by 1 V in high show I\nsweep sl: R over [3 ohm, 2 ohm, 0 ohm]\nsample 2000 times, seed 4\n```\n",
+		"```sheaf\nx = 1 ± 2\ny = 1 / x\ncheck y < 1\ncase c: x = 0\nsweep s: x over -1 .. 1 by 0.5 show y\n```\n",
 		"```sheaf\nth [deg] = 0 deg .. 360 deg by 10 deg\ns = series(sin(th) * 2 V, th) ; draw: spectrum\nr = series(th / 1 deg * 1 V, th) ; draw: spectrum\nV = 1 V ∠ 0 deg\nU = 2j V ; draw: phasors V, U, E ; draw: phasors V, Q\nE = V + U ; draw: pie\n```\n",
 	} {
 		f.Add([]byte(seed))

@@ -216,6 +216,9 @@ func xmlText(s string) string {
 // graphLabel is the text of a statement's node: its name and value, or a
 // check's verdict and comparison.
 func graphLabel(st *engine.Statement, r engine.Result, digits int) string {
+	if line, ok := conditionLine(st, r); ok {
+		return line
+	}
 	switch r.Status {
 	case engine.OK:
 		if st.IsInput() {

@@ -208,7 +208,7 @@ func (p *page) open(fr frame, version string) {
 	p.f("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n")
 	p.f("<meta name=\"generator\" content=\"sheaf %s\">\n", esc(version))
 	p.f("<meta name=\"sheaf-stamp\" content=\"%s\">\n", esc(fr.stamp))
-	p.f("<title>%s</title>\n<style>%s</style>\n</head>\n<body>\n", esc(fr.title), pageCSS)
+	p.f("<title>%s</title>\n<style>%s</style>\n</head>\n<body>\n", esc(fr.title), pageCSS+conditionsCSS)
 	p.f("<table class=\"frame\">\n<thead><tr><td>\n")
 	fr.block.write(p)
 	p.f("</td></tr></thead>\n")

@@ -114,6 +114,9 @@ type JSONSheet struct {
 	Tables     []JSONTable     `json:"tables"`
 	Statements []JSONStatement `json:"statements"`
 	Functions  []JSONFunction  `json:"functions,omitempty"`
+	// Sampling is the Monte Carlo count and seed of a sheet with
+	// tolerances.
+	Sampling *JSONSampling `json:"sampling,omitempty"`
 }
 
 // JSONFunction is a function of the sheet's own: its definition, which has
@@ -147,10 +150,12 @@ type JSONColumn struct {
 	SI     []float64 `json:"si"`
 }
 
-// JSONSet is one input a use statement sets.
+// JSONSet is one input a use statement or a case sets; a case's value
+// also in SI.
 type JSONSet struct {
-	Name    string `json:"name"`
-	Formula string `json:"formula"`
+	Name    string     `json:"name"`
+	Formula string     `json:"formula"`
+	SI      *JSONValue `json:"si,omitempty"`
 }
 
 // JSONStatement is one definition or check with its value.
@@ -196,6 +201,14 @@ type JSONStatement struct {
 	TemplateSources []string          `json:"template_sources,omitempty"`
 	LeftOut         []JSONLeftOut     `json:"left_out,omitempty"`
 	DefaultsKept    []JSONKeptDefault `json:"defaults_kept,omitempty"`
+	// The sheet's conditions: a statement's outcome in each load case, a
+	// check's governing condition, an input's tolerance, what the
+	// tolerances do to a check or a result, and a sweep's points.
+	Cases     map[string]JSONCaseValue `json:"cases,omitempty"`
+	Governing *JSONGoverning           `json:"governing,omitempty"`
+	Tolerance *JSONTolerance           `json:"tolerance,omitempty"`
+	Spread    *JSONSpread              `json:"spread,omitempty"`
+	Sweep     *JSONSweep               `json:"sweep,omitempty"`
 }
 
 // JSONTrace lists the inputs and assumptions a result ultimately rests on.
@@ -440,7 +453,7 @@ func ref(st *engine.Statement) JSONRef {
 
 func jsonSheet(s *project.Sheet, opt Options) JSONSheet {
 	digits := s.Digits(opt.Digits)
-	js := JSONSheet{Path: s.Path(), Page: s.Page, Title: s.Title(), Meta: s.Doc.Meta, Tables: []JSONTable{}, Statements: []JSONStatement{}}
+	js := JSONSheet{Path: s.Path(), Page: s.Page, Title: s.Title(), Meta: s.Doc.Meta, Tables: []JSONTable{}, Statements: []JSONStatement{}, Sampling: jsonSampling(s)}
 	for _, t := range s.Calc.Tables {
 		jt := JSONTable{Name: t.Name, Caption: t.Caption, Pos: t.Pos, File: t.File, Columns: []JSONColumn{}}
 		if t.Err != nil {
@@ -457,9 +470,6 @@ func jsonSheet(s *project.Sheet, opt Options) JSONSheet {
 		if st.Kind == engine.FunctionDef {
 			js.Functions = append(js.Functions, jsonFunction(st))
 			continue
-		}
-		if st.Kind == engine.Case || st.Kind == engine.Sweep || st.Kind == engine.Sampling {
-			continue // conditions have no value of their own
 		}
 		js.Statements = append(js.Statements, jsonStatement(s, st, digits))
 	}
@@ -553,6 +563,11 @@ func jsonStatement(s *project.Sheet, st *engine.Statement, digits int) JSONState
 		d := jsonDiag(*res.Err)
 		j.Error = &d
 	}
+	if isCondition(st) {
+		jsonConditionStatement(&j, st)
+		addConditions(&j, s, st, digits)
+		return j // a condition has no value of its own
+	}
 	if st.Kind == engine.Use {
 		return j // an instance has no value of its own
 	}
@@ -590,6 +605,7 @@ func jsonStatement(s *project.Sheet, st *engine.Statement, digits int) JSONState
 		}
 		j.Check = c
 	}
+	addConditions(&j, s, st, digits)
 	return j
 }
 

@@ -230,7 +230,7 @@ func TestSchemaEnumsMatchTheCode(t *testing.T) {
 		want      []string
 	}{
 		{"statement", "status", statuses},
-		{"statement", "kind", []string{"definition", "check", "use", "param", "take"}},
+		{"statement", "kind", []string{"definition", "check", "use", "param", "take", "case", "sweep", "sample"}},
 		{"ref", "kind", []string{"definition", "check"}},
 		{"statement", "quantity_kind", kinds},
 		{"diagnostic", "severity", []string{diag.Error.String(), diag.Warning.String()}},

@@ -23,6 +23,10 @@ func writeStatement(w sink, s *project.Sheet, st *engine.Statement, digits int) 
 		writeFunction(w, calc, st, digits)
 		return
 	}
+	if isCondition(st) && res.Status == engine.OK {
+		writeCondition(w, s, st, digits)
+		return
+	}
 	switch res.Status {
 	case engine.Errored, engine.Blocked, engine.Pending:
 		writeProblem(w, st, res)
@@ -44,6 +48,9 @@ func writeStatement(w sink, s *project.Sheet, st *engine.Statement, digits int) 
 	}
 	w.WriteString(`<div class="` + class + `" id="` + anchor(st) + "\">\n")
 	steps := []string{symbolMathML(st.Name) + "<mo>=</mo>" + formulaML(calc, st.Expr, symbolic, digits)}
+	if st.Tol != nil {
+		steps[0] += toleranceMathML(st.Tol)
+	}
 	if shownConverted(st) {
 		// B [T] = 12 kG: the value as written, then in the unit asked for.
 		steps = append(steps, "<mo>=</mo>"+valueOrPhasorMathML(res, digits))
@@ -60,6 +67,8 @@ func writeStatement(w sink, s *project.Sheet, st *engine.Statement, digits int) 
 	writeSteps(w, steps)
 	writeListTable(w, st, res, digits)
 	writeFigures(w, s, st, res, digits)
+	writeSpreadNote(w, s, st, digits)
+	writeCaseTable(w, s, st, digits)
 	writeNote(w, calc, st)
 	w.WriteString("</div>\n")
 }
@@ -295,6 +304,7 @@ func writeCheck(w sink, s *project.Sheet, st *engine.Statement, digits int) {
 	cmp := st.Compare()
 	w.WriteString(`<div class="row check ` + cls + `" id="` + anchor(st) + "\">\n<span class=\"stamp\">" + verdict + "</span>\n<div>\n")
 	writeSteps(w, []string{formulaML(calc, cmp, symbolic, digits)})
+	writeGoverning(w, s, st)
 	w.WriteString("<p class=\"inval\">in numbers <math><mrow>")
 	w.WriteString(valueMathML(res.Left, res.Shown, digits))
 	w.WriteString("<mo>" + esc(relations[cmp.Op]) + "</mo>")
@@ -306,6 +316,8 @@ func writeCheck(w sink, s *project.Sheet, st *engine.Statement, digits int) {
 		writeReach(w, res.Utilisation)
 	}
 	writeCheckExtras(w, s, st, digits)
+	writeCheckSpread(w, s, st, digits)
+	writeCaseTable(w, s, st, digits)
 	writeNote(w, calc, st)
 	w.WriteString("</div>\n</div>\n")
 }

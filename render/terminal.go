@@ -22,6 +22,7 @@ func Terminal(pkg *project.Package, opt Options, out, errs io.Writer) {
 			if line == "" {
 				continue
 			}
+			line += conditionsNote(s, st)
 			if st.Instance != "" {
 				// From a template: indented under its use statement.
 				fmt.Fprintf(out, "          %s\n", line)
@@ -82,6 +83,9 @@ func Count(n int, noun string) string {
 
 // TerminalLine writes one statement's outcome as a line of text.
 func TerminalLine(st *engine.Statement, r engine.Result, digits int) string {
+	if line, ok := conditionLine(st, r); ok {
+		return line
+	}
 	if st.Kind == engine.Use && r.Status == engine.OK {
 		return fmt.Sprintf("use %s = %s", st.Name, strings.Join(strings.Fields(st.Formula), " "))
 	}
