@@ -525,6 +525,7 @@ func (c Counts) Checks() int { return c.Pass + c.Fail + c.Fixed }
 // sheet, including those outside statements (front matter, empty blocks).
 func (s *Sheet) Counts() Counts {
 	var c Counts
+	caseErrors := 0
 	for _, st := range s.Calc.Statements {
 		status := s.Calc.Result(st).Status
 		if fixed, _ := s.Fixed(st); fixed && (status == engine.Pass || status == engine.Fail) {
@@ -533,8 +534,9 @@ func (s *Sheet) Counts() Counts {
 		}
 		switch status {
 		case engine.OK:
-			if st.Kind == engine.Use {
-				continue // an instance's results are its own statements
+			switch st.Kind {
+			case engine.Use, engine.Case, engine.Sweep, engine.Sampling:
+				continue // an instance's results are its own statements; a condition has none
 			}
 			c.Results++
 			if st.IsInput() {
@@ -546,9 +548,13 @@ func (s *Sheet) Counts() Counts {
 			c.Fail++
 		case engine.Blocked:
 			c.Blocked++
+		case engine.Errored:
+			if _, governed := s.Conditions.Governing(st); governed && st.Verdict != engine.Errored {
+				caseErrors++ // an error of a case or sweep point, not among the sheet's diagnostics
+			}
 		}
 	}
-	c.Errors = s.Doc.Diags.Errors() + s.Calc.Diags.Errors()
+	c.Errors = s.Doc.Diags.Errors() + s.Calc.Diags.Errors() + caseErrors
 	return c
 }
 
