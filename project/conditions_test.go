@@ -28,3 +28,13 @@ func TestCaseErrorNamesTheCase(t *testing.T) {
 		t.Errorf("counts %+v, want 3 results (V, V_0, I), the check not evaluated in case cold, no verdict", c)
 	}
 }
+
+// A check that itself fails to evaluate in a case is an error of the
+// sheet's counts, though not among its diagnostics as written.
+func TestCaseErrorCounted(t *testing.T) {
+	pkg := project.FromFiles("p", map[string][]byte{"a.md": []byte("```sheaf\nV = 10 V\nV_0 = 2 V\ncheck sqrt((V - V_0) * V_0) / 5 ohm <= 2 A\ncase cold: V = 1 V\n```\n")})
+	s := pkg.Sheets[0]
+	if c := s.Counts(); c.Errors != 1 || c.Pass+c.Fail+c.Blocked != 0 {
+		t.Errorf("counts %+v, want the check's error in case cold counted once", c)
+	}
+}
