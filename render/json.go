@@ -579,34 +579,46 @@ func jsonStatement(s *project.Sheet, st *engine.Statement, digits int) JSONState
 	}
 	switch res.Status {
 	case engine.OK:
-		j.SI = &JSONValue{Value: res.Value, Unit: st.Type.Dim.SIUnits()}
-		shown := res.Shown.FromSI(res.Value)
-		j.Display = &JSONValue{Value: shown, Unit: res.Shown.Symbol, Text: units.FormatNumber(shown, res.Digits(digits))}
-		if res.List != nil {
-			j.List = jsonList(res, digits)
-		}
-		if p := res.Phasor; p != nil {
-			j.Phasor = &JSONPhasor{ReSI: p.Re, ImSI: p.Im, AngleRad: p.Angle(), AngleDeg: phasorDegrees(*p), Text: PhasorText(res, digits)}
-		}
+		jsonValue(&j, st, res, digits)
 	case engine.Pass, engine.Fail:
-		l, r := res.Shown.FromSI(res.Left), res.Shown.FromSI(res.Right)
-		c := &JSONCheck{
-			Op: st.Compare().Op, Pass: res.Status == engine.Pass, LeftSI: res.Left, RightSI: res.Right,
-			Left:  JSONValue{Value: l, Unit: res.Shown.Symbol, Text: units.FormatNumber(l, digits)},
-			Right: JSONValue{Value: r, Unit: res.Shown.Symbol, Text: units.FormatNumber(r, digits)},
-		}
-		if !math.IsNaN(res.Utilisation) && !math.IsInf(res.Utilisation, 0) {
-			u := res.Utilisation
-			c.Utilisation = &u
-		}
-		c.Fixed, _ = s.Fixed(st)
-		if b, ok := s.Band(st); ok {
-			c.Band = &JSONBand{LowSI: b.Lo, HighSI: b.Hi, ValueSI: b.Value, Position: b.Position(), Text: BandText(s, st, digits)}
-		}
-		j.Check = c
+		j.Check = jsonCheck(s, st, res, digits)
 	}
 	addConditions(&j, s, st, digits)
 	return j
+}
+
+// jsonValue writes a definition's value: in SI, as shown, and a list's
+// elements or a phasor's parts.
+func jsonValue(j *JSONStatement, st *engine.Statement, res engine.Result, digits int) {
+	j.SI = &JSONValue{Value: res.Value, Unit: st.Type.Dim.SIUnits()}
+	shown := res.Shown.FromSI(res.Value)
+	j.Display = &JSONValue{Value: shown, Unit: res.Shown.Symbol, Text: units.FormatNumber(shown, res.Digits(digits))}
+	if res.List != nil {
+		j.List = jsonList(res, digits)
+	}
+	if p := res.Phasor; p != nil {
+		j.Phasor = &JSONPhasor{ReSI: p.Re, ImSI: p.Im, AngleRad: p.Angle(), AngleDeg: phasorDegrees(*p), Text: PhasorText(res, digits)}
+	}
+}
+
+// jsonCheck writes a check's two sides, its utilisation, and whether it
+// is fixed or one side of a band.
+func jsonCheck(s *project.Sheet, st *engine.Statement, res engine.Result, digits int) *JSONCheck {
+	l, r := res.Shown.FromSI(res.Left), res.Shown.FromSI(res.Right)
+	c := &JSONCheck{
+		Op: st.Compare().Op, Pass: res.Status == engine.Pass, LeftSI: res.Left, RightSI: res.Right,
+		Left:  JSONValue{Value: l, Unit: res.Shown.Symbol, Text: units.FormatNumber(l, digits)},
+		Right: JSONValue{Value: r, Unit: res.Shown.Symbol, Text: units.FormatNumber(r, digits)},
+	}
+	if !math.IsNaN(res.Utilisation) && !math.IsInf(res.Utilisation, 0) {
+		u := res.Utilisation
+		c.Utilisation = &u
+	}
+	c.Fixed, _ = s.Fixed(st)
+	if b, ok := s.Band(st); ok {
+		c.Band = &JSONBand{LowSI: b.Lo, HighSI: b.Hi, ValueSI: b.Value, Position: b.Position(), Text: BandText(s, st, digits)}
+	}
+	return c
 }
 
 // jsonList writes a list's elements in SI and in the unit they are shown in.
