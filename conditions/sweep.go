@@ -9,7 +9,7 @@ import (
 )
 
 // SweepRun is one sweep: the input's points and, at each, the results it
-// gathers and the checks that rest on the input.
+// gathers and the checks that rest on the input (none for a curve).
 type SweepRun struct {
 	Stmt  *engine.Statement
 	Input *engine.Statement
@@ -52,7 +52,9 @@ func runSweep(calc *engine.Calc, p *engine.Program, st *engine.Statement) SweepR
 		sw.Curves = append(sw.Curves, Curve{Stmt: s, Y: make([]float64, len(c.Points)), Shown: calc.Result(s).Shown})
 	}
 	for _, chk := range calc.Statements {
-		if chk.Kind == engine.Check && settled(calc.Result(chk).Status) && restsOn(calc, chk, c.Input) {
+		// A curve draws past the operating range on purpose: its points
+		// say nothing about the checks.
+		if c.Governs && chk.Kind == engine.Check && settled(calc.Result(chk).Status) && restsOn(calc, chk, c.Input) {
 			sw.Checks = append(sw.Checks, SweepCheck{Stmt: chk, Left: make([]float64, len(c.Points)), Right: make([]float64, len(c.Points)), Worst: -1})
 		}
 	}
@@ -150,7 +152,7 @@ func (r *Report) considerSweep(calc *engine.Calc, p *engine.Program, sw *SweepRu
 
 // PointName names a point of the sweep: "sweep occ at I_f = 52 A".
 func (sw *SweepRun) PointName(i int) string {
-	where := "sweep " + sw.Stmt.Name
+	where := sw.Word() + " " + sw.Stmt.Name
 	if in := sw.Stmt.Cond.In; in != nil {
 		where += " in case " + in.Name
 	}
@@ -175,4 +177,13 @@ func scale(v float64) float64 {
 		return 1
 	}
 	return math.Abs(v)
+}
+
+// Word is the statement's keyword: sweep, or curve for one that governs
+// no check.
+func (sw *SweepRun) Word() string {
+	if sw.Stmt.Cond.Governs {
+		return "sweep"
+	}
+	return "curve"
 }

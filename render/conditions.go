@@ -170,7 +170,7 @@ func conditionLine(st *engine.Statement, r engine.Result) (line string, ok bool)
 	case engine.Case:
 		return "case " + st.Name + ": " + formula, true
 	case engine.Sweep:
-		return "sweep " + st.Name + ": " + formula + " (" + strconv.Itoa(len(st.Cond.Points)) + " points)", true
+		return sweepWord(st) + " " + st.Name + ": " + formula + " (" + strconv.Itoa(len(st.Cond.Points)) + " points)", true
 	}
 	return "Monte Carlo: " + samplingText(st.Cond.Samples, st.Cond.Seed, " "), true
 }

@@ -481,3 +481,28 @@ func TestSweepInACase(t *testing.T) {
 		t.Errorf("the governing point gives %g A, want 99 V / 1.9 Ω = %g A", got, 99/1.9)
 	}
 }
+
+// A curve draws its results with the point the sheet works at marked,
+// and names no check: its points run past the operating range on purpose.
+func TestCurveShowsItsOperatingPointAndNoChecks(t *testing.T) {
+	sheet := strings.Replace(conditionsSheet, "sweep su: U_s over 99 V .. 121 V by 1 V show I_f ; the supply's range",
+		"curve vi: U_s over 0 V .. 200 V by 10 V show I_f ; the coil's characteristic", 1)
+	pkg, s := conditionsPackage(t, sheet)
+	html := pages(t, pkg)[s.Page]
+	page := text(html)
+	if !strings.Contains(page, "curve vi: Us from 0 V to 200.0 V, 21 points") {
+		t.Errorf("the curve's sentence is missing:\n%s", page)
+	}
+	if strings.Contains(html, "demand / capacity, <a") || strings.Contains(page, "worst at") {
+		t.Error("a curve lists checks")
+	}
+	svg := regexp.MustCompile(`(?s)<figure class="sweepplot">.*?</figure>`).FindString(html)
+	if !strings.Contains(svg, ">as written, 110.0 V</text>") || strings.Contains(svg, ">worst") {
+		t.Error("the curve's plot does not mark the point as written (110 V), or marks a worst point")
+	}
+	// The check governs in case cold (110 V / 1.99 Ω = 55 A), not at the
+	// curve's 200 V.
+	if g, _ := s.Conditions.Governing(stmt(t, s, "I_f <= I_fmax")); g.Where != "case cold" {
+		t.Errorf("the check governs at %q, want case cold", g.Where)
+	}
+}

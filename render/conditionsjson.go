@@ -86,11 +86,13 @@ type JSONSensitivity struct {
 
 // JSONSweep is a sweep's points and what it gathered at each.
 type JSONSweep struct {
-	Input  string           `json:"input"`
-	Case   string           `json:"case,omitempty"`
-	Points JSONAxis         `json:"points"`
-	Curves []JSONCurve      `json:"curves"`
-	Checks []JSONSweepCheck `json:"checks"`
+	// Governs is false for a curve, whose points govern no check.
+	Governs bool             `json:"governs"`
+	Input   string           `json:"input"`
+	Case    string           `json:"case,omitempty"`
+	Points  JSONAxis         `json:"points"`
+	Curves  []JSONCurve      `json:"curves"`
+	Checks  []JSONSweepCheck `json:"checks"`
 }
 
 // JSONCurve is a gathered result at each point, null where it has none.
@@ -266,7 +268,7 @@ func jsonRanking(rank []conditions.Sensitivity) []JSONSensitivity {
 
 // jsonSweep is a sweep's points, curves and checks.
 func jsonSweep(s *project.Sheet, sw *conditions.SweepRun) *JSONSweep {
-	j := &JSONSweep{Input: sw.Input.Name, Curves: []JSONCurve{}, Checks: []JSONSweepCheck{},
+	j := &JSONSweep{Governs: sw.Stmt.Cond.Governs, Input: sw.Input.Name, Curves: []JSONCurve{}, Checks: []JSONSweepCheck{},
 		Points: JSONAxis{SI: sw.X, Unit: sw.Input.Type.Dim.SIUnits(), DisplayUnit: sw.XShown.Symbol, Display: make([]float64, len(sw.X))}}
 	if in := sw.Stmt.Cond.In; in != nil {
 		j.Case = in.Name

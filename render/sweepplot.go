@@ -50,7 +50,8 @@ func writeSweepPlot(w sink, s *project.Sheet, sw *conditions.SweepRun, digits in
 		if len(spec.Curves) == 1 {
 			spec.Y.Quantity = spec.Curves[0].Name
 		}
-		spec.Title = "sweep " + sw.Stmt.Name + ": " + strings.Join(names, ", ") + " against " + SymbolText(sw.Input.Name)
+		spec.Title = sw.Word() + " " + sw.Stmt.Name + ": " + strings.Join(names, ", ") + " against " + SymbolText(sw.Input.Name)
+		spec.Marks = append(spec.Marks, operatingPoints(s, sw, group, digits)...)
 		for _, chk := range sw.Checks {
 			cv, limit := drawnSide(chk, group)
 			if cv != nil && limit != nil {
@@ -80,14 +81,43 @@ func writeSweepPlot(w sink, s *project.Sheet, sw *conditions.SweepRun, digits in
 	}
 }
 
+// operatingPoints marks, on each curve of a sweep run as written, the
+// point the sheet works at: the input's value as written and the result
+// there, when it lies within the sweep's span.
+func operatingPoints(s *project.Sheet, sw *conditions.SweepRun, group []*conditions.Curve, digits int) []chart.Mark {
+	if sw.Stmt.Cond.In != nil {
+		return nil // the sheet's own point is not on a curve run in a case
+	}
+	x := s.Calc.Result(sw.Input)
+	if x.Status != engine.OK || x.Value < slices.Min(sw.X) || x.Value > slices.Max(sw.X) {
+		return nil
+	}
+	var marks []chart.Mark
+	for _, cv := range group {
+		if y := s.Calc.Result(cv.Stmt); y.Status == engine.OK {
+			label := ""
+			if len(marks) == 0 { // one label for the point; the curves share its x
+				label = "as written, " + ValueText(x.Value, sw.XShown, digits)
+			}
+			marks = append(marks, chart.Mark{X: sw.XShown.FromSI(x.Value), Y: cv.Shown.FromSI(y.Value), Label: label})
+		}
+	}
+	return marks
+}
+
 // plotKey says what the lines and rings of a figure are.
 func plotKey(spec chart.LineSpec) string {
 	var parts []string
 	if len(spec.YLimits) > 0 {
 		parts = append(parts, "dashed: a check's limit")
 	}
-	if len(spec.Marks) > 0 {
+	worst := slices.ContainsFunc(spec.Marks, func(m chart.Mark) bool { return strings.HasPrefix(m.Label, "worst") })
+	written := slices.ContainsFunc(spec.Marks, func(m chart.Mark) bool { return strings.HasPrefix(m.Label, "as written") })
+	if worst {
 		parts = append(parts, "ring: a check's worst point")
+	}
+	if written {
+		parts = append(parts, "ring marked as written: the point the sheet works at")
 	}
 	if len(parts) == 0 {
 		return ""
