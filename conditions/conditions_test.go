@@ -484,3 +484,29 @@ func TestConditionLimits(t *testing.T) {
 		t.Errorf("b_7 is independent of the limits but came out %v", r.Status)
 	}
 }
+
+// A sweep of an absolute temperature runs from one temperature to the
+// other by a difference in K, and a winding's hot spot follows the
+// ambient one for one (a temperature rise over the ambient, common
+// practice).
+func TestSweepOfTemperature(t *testing.T) {
+	calc := compile(t, "T_a = 40 degC", "dT = 80 K", "T_h = T_a + dT", "check T_h <= 130 degC",
+		"sweep amb: T_a over 20 degC .. 60 degC by 5 K show T_h")
+	mustClean(t, calc)
+	r := conditions.Run(calc)
+	sw := r.Sweeps[0]
+	if len(sw.X) != 9 || math.Abs(sw.X[0]-293.15) > 1e-9 || math.Abs(sw.X[8]-333.15) > 1e-9 {
+		t.Fatalf("points %v K, want 293.15 K to 333.15 K by 5 K", sw.X)
+	}
+	if math.Abs(sw.Curves[0].Y[8]-(333.15+80)) > 1e-9 {
+		t.Errorf("T_h at 60 °C = %g K, want %g K", sw.Curves[0].Y[8], 333.15+80)
+	}
+	g, _ := r.Governing(statement(t, calc, "T_h <= 130 degC"))
+	if g.Result.Status != engine.Fail || g.Point != 8 {
+		t.Errorf("governing %+v, want the 60 °C point failing (140 °C against 130 °C)", g)
+	}
+	bad := compile(t, "T_a = 40 degC", "sweep amb: T_a over 20 degC .. 60 degC by 5 degC")
+	if len(bad.Diags) != 1 || !strings.Contains(bad.Diags[0].Message, "a difference in K") {
+		t.Errorf("a step written as a temperature: %v", bad.Diags)
+	}
+}
