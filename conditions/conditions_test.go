@@ -510,3 +510,22 @@ func TestSweepOfTemperature(t *testing.T) {
 		t.Errorf("a step written as a temperature: %v", bad.Diags)
 	}
 }
+
+// A case, a sweep or a tolerance written in another kind than its input
+// is refused where it is written, whatever the SI numbers: 157 rad/s is
+// not 1500 rpm, and a forgotten 2π would pass silently otherwise.
+func TestConditionsKeepTheInputsKind(t *testing.T) {
+	for _, line := range []string{
+		"case c: n = 157 rad/s",
+		"sweep s: n over 100 rad/s .. 200 rad/s by 10 rad/s show omega",
+		"m = 1500 rpm ± 10 rad/s",
+		"w = 100 rad/s in 90 rpm .. 110 rad/s",
+	} {
+		calc := compile(t, "n = 1500 rpm", "omega [rad/s] = 2 * pi * n", line)
+		if len(calc.Diags) != 1 || calc.Diags[0].Pos.Line != 4 || !strings.Contains(calc.Diags[0].Message, "angle-based quantity (rad) and a cycle-based one") {
+			t.Errorf("%s: %v, want one error on line 4 naming the rad and the cycle", line, calc.Diags)
+		}
+	}
+	ok := compile(t, "n = 1500 rpm", "omega [rad/s] = 2 * pi * n", "case c: n = 25 Hz", "sweep s: n over 600 rpm .. 1800 rpm by 100 rpm show omega", "m = 1500 rpm ± 1 Hz")
+	mustClean(t, ok)
+}

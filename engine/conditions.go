@@ -470,7 +470,29 @@ func toleranceSide(st *Statement, e Expr) (float64, *diag.Diagnostic) {
 	if st.Tol.form != "in" && tt.Kind.IsAbsTemp() {
 		return 0, errAt(e.Pos(), "write a deviation of temperature in K: ± 5 K", "a deviation of temperature is written in K, not as a temperature")
 	}
+	op := "+" // a deviation adds to the value; limits compare with it
+	if st.Tol.form == "in" {
+		op = "=="
+	}
+	if err := kindsAgree(op, st, tt, e.Pos()); err != nil {
+		return 0, err
+	}
 	return tt.Val, nil
+}
+
+// kindsAgree checks that a value written for an input (a case's value, a
+// sweep's points, a tolerance) is of the input's kind: 157 rad/s is not a
+// speed in rpm, whatever their SI numbers.
+func kindsAgree(op string, in *Statement, t *Type, at diag.Pos) *diag.Diagnostic {
+	if _, err := addKinds(op, in.Type.Kind, t.Kind); err != nil {
+		err.Pos = at
+		err.Message = in.Name + ": " + err.Message
+		if _, unit, ok := LiteralText(in.Expr); ok && unit != "" {
+			err.Hint = "write it in " + unit + ", as " + in.Name + " is written, or in a unit of the same kind"
+		}
+		return err
+	}
+	return nil
 }
 
 // checkConditions checks the sheet's cases, sweeps and sample statement
@@ -595,6 +617,9 @@ func (s *Calc) checkCase(st *Statement) *diag.Diagnostic {
 			return errAt(o.Expr.Pos(), "give "+o.Name+" a value in its own dimension",
 				"%s is %s, but this value is %s", o.Name, units.Describe(in.Type.Dim), units.Describe(t.Dim))
 		}
+		if err := kindsAgree("==", in, t, o.Expr.Pos()); err != nil {
+			return err
+		}
 		c.Sets = append(c.Sets, CaseSet{Input: in, SI: t.Val, Text: o.Formula})
 	}
 	st.Cond = c
@@ -623,6 +648,9 @@ func (s *Calc) checkSweep(st *Statement, named map[string]*Statement) *diag.Diag
 		if t.Dim != in.Type.Dim || t.IsComplex() {
 			return errAt(c.pointsPos, "give the points in "+c.InputName+"'s dimension",
 				"%s is %s, but the points are %s", c.InputName, units.Describe(in.Type.Dim), units.Describe(t.Dim))
+		}
+		if err := kindsAgree("==", in, t, c.pointsPos); err != nil {
+			return err
 		}
 		c.Points = constPoints(c.points)
 	}
