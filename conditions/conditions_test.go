@@ -529,3 +529,25 @@ func TestConditionsKeepTheInputsKind(t *testing.T) {
 	ok := compile(t, "n = 1500 rpm", "omega [rad/s] = 2 * pi * n", "case c: n = 25 Hz", "sweep s: n over 600 rpm .. 1800 rpm by 100 rpm show omega", "m = 1500 rpm ± 1 Hz")
 	mustClean(t, ok)
 }
+
+// A sweep run in a case that has an error is an error of its own, and a
+// sweep may name a case written after it (a fuzzed sheet once ran a
+// sweep in a broken case and crashed).
+func TestSweepInABrokenOrLaterCase(t *testing.T) {
+	calc := compile(t, "U = 24 V", "R = 3 ohm", "I = U / R",
+		"sweep s: U over 18 V .. 30 V by 1 V in high show I", "case high: U = 28 V, R = 2 V")
+	var msgs []string
+	for _, d := range calc.Diags {
+		msgs = append(msgs, d.Error())
+	}
+	if len(msgs) != 2 || !strings.Contains(msgs[0], "case high has an error") || !strings.Contains(msgs[1], "R is resistance") {
+		t.Fatalf("diags %v, want the sweep's error naming the broken case, and the case's", msgs)
+	}
+	conditions.Run(calc) // and no panic
+	ok := compile(t, "U = 24 V", "R = 3 ohm", "I = U / R",
+		"sweep s: U over 18 V .. 30 V by 1 V in high show I", "case high: R = 2.9 ohm")
+	mustClean(t, ok)
+	if sw := conditions.Run(ok).Sweeps[0]; math.Abs(sw.Curves[0].Y[0]-18/2.9) > 1e-12 {
+		t.Errorf("I at 18 V in case high = %g A, want %g A", sw.Curves[0].Y[0], 18/2.9)
+	}
+}

@@ -520,34 +520,32 @@ func (s *Calc) checkConditions() {
 			sampling = st
 		}
 	}
+	// Cases first, so that a sweep run in a case finds it checked.
 	cases, work := 0, 0
-	for _, st := range s.Statements {
-		if st.Verdict == Errored {
-			continue
-		}
-		var err *diag.Diagnostic
-		switch st.Kind {
-		case Case:
-			if cases++; cases > MaxCases {
-				err = errAt(st.NamePos, "split the cases over several sheets", "the sheet has more than %d cases, the limit for one sheet", MaxCases)
-			} else {
-				err = s.checkCase(st)
+	for _, kind := range []StmtKind{Case, Sweep} {
+		for _, st := range s.Statements {
+			if st.Verdict == Errored || st.Kind != kind {
+				continue
 			}
-			work += len(s.Statements)
-		case Sweep:
-			if err = s.checkSweep(st, named); err == nil {
+			var err *diag.Diagnostic
+			if kind == Case {
+				if cases++; cases > MaxCases {
+					err = errAt(st.NamePos, "split the cases over several sheets", "the sheet has more than %d cases, the limit for one sheet", MaxCases)
+				} else {
+					err = s.checkCase(st)
+				}
+				work += len(s.Statements)
+			} else if err = s.checkSweep(st, named); err == nil {
 				work += len(st.Cond.Points) * len(s.Statements)
 			}
-		default:
-			continue
-		}
-		if err == nil && work > MaxConditionWork {
-			err = errAt(st.NamePos, "use fewer points or cases, or split the sheet", "the sheet's cases and sweeps evaluate more than %d statements in all, the limit for one sheet", MaxConditionWork)
-		}
-		if err != nil {
-			s.fail(st, err)
-		} else {
-			st.Verdict = OK
+			if err == nil && work > MaxConditionWork {
+				err = errAt(st.NamePos, "use fewer points or cases, or split the sheet", "the sheet's cases and sweeps evaluate more than %d statements in all, the limit for one sheet", MaxConditionWork)
+			}
+			if err != nil {
+				s.fail(st, err)
+			} else {
+				st.Verdict = OK
+			}
 		}
 	}
 	s.checkSampling(sampling)
@@ -664,6 +662,9 @@ func (s *Calc) checkSweep(st *Statement, named map[string]*Statement) *diag.Diag
 	if c.InName != "" {
 		if c.In = named[c.InName]; c.In == nil || c.In.Kind != Case {
 			return errAt(c.InPos, "name a case of this sheet", "%s is not a case of the sheet", c.InName)
+		}
+		if c.In.Verdict == Errored {
+			return errAt(c.InPos, "fix the case first", "case %s has an error", c.InName)
 		}
 	}
 	for i, n := range c.showNames {
