@@ -150,12 +150,9 @@ func settled(s engine.Status) bool { return s == engine.Pass || s == engine.Fail
 // reachedBySweep reports whether a sweep varies an input the check rests
 // on.
 func reachedBySweep(calc *engine.Calc, st *engine.Statement, sweeps []*engine.Statement) bool {
-	ins, _ := calc.RestsOn(st)
 	for _, s := range sweeps {
-		for _, in := range ins {
-			if in == s.Cond.Input && s.Cond.Governs {
-				return true
-			}
+		if s.Cond.Governs && restsOn(calc, st, s.Cond.Input) {
+			return true
 		}
 	}
 	return false

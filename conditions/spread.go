@@ -14,9 +14,11 @@ import (
 type Spread struct {
 	// Inputs are the toleranced inputs, in the order written.
 	Inputs []*engine.Statement
-	// Samples and Seed are the Monte Carlo count and seed used.
+	// Samples and Seed are the Monte Carlo count and seed used; Default is
+	// set when no sample statement gave them.
 	Samples int
 	Seed    uint64
+	Default bool
 	Checks  []CheckSpread
 	Results []ResultSpread
 	// Partial is set when the worst cases of some statements were found by
@@ -102,7 +104,7 @@ func combos(cands [][]float64) int {
 
 // runSpread works out the tolerances' effects.
 func runSpread(calc *engine.Calc, p *engine.Program, inputs []*engine.Statement, sampling *engine.Statement) *Spread {
-	sp := &Spread{Inputs: inputs, Samples: engine.DefaultSamples, Seed: engine.DefaultSeed}
+	sp := &Spread{Inputs: inputs, Samples: engine.DefaultSamples, Seed: engine.DefaultSeed, Default: sampling == nil}
 	if sampling != nil {
 		sp.Samples, sp.Seed = sampling.Cond.Samples, sampling.Cond.Seed
 	}

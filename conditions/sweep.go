@@ -152,7 +152,7 @@ func (r *Report) considerSweep(calc *engine.Calc, p *engine.Program, sw *SweepRu
 
 // PointName names a point of the sweep: "sweep occ at I_f = 52 A".
 func (sw *SweepRun) PointName(i int) string {
-	where := sw.Word() + " " + sw.Stmt.Name
+	where := sw.Stmt.Cond.Word() + " " + sw.Stmt.Name
 	if in := sw.Stmt.Cond.In; in != nil {
 		where += " in case " + in.Name
 	}
@@ -177,13 +177,4 @@ func scale(v float64) float64 {
 		return 1
 	}
 	return math.Abs(v)
-}
-
-// Word is the statement's keyword: sweep, or curve for one that governs
-// no check.
-func (sw *SweepRun) Word() string {
-	if sw.Stmt.Cond.Governs {
-		return "sweep"
-	}
-	return "curve"
 }

@@ -63,6 +63,21 @@ type Condition struct {
 	Seed    uint64
 }
 
+// Word is a sweep statement's keyword: sweep, or curve for one that
+// governs no check.
+func (c *Condition) Word() string {
+	if c.Governs {
+		return "sweep"
+	}
+	return "curve"
+}
+
+// IsCondition reports whether a statement declares a condition rather
+// than a value: a case, a sweep or a sample statement.
+func (s *Statement) IsCondition() bool {
+	return s.Kind == Case || s.Kind == Sweep || s.Kind == Sampling
+}
+
 // CaseSet is one input a case sets: the input and its value in SI.
 type CaseSet struct {
 	Input *Statement

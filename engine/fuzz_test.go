@@ -74,7 +74,7 @@ func FuzzStatement(f *testing.F) {
 			r := s.Result(st)
 			switch r.Status {
 			case engine.OK:
-				if st.Kind == engine.Case || st.Kind == engine.Sweep || st.Kind == engine.Sampling {
+				if st.IsCondition() {
 					continue // a condition has no value of its own
 				}
 				if !finite(r.Value) || !finite(r.Shown.FromSI(r.Value)) {

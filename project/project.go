@@ -534,8 +534,7 @@ func (s *Sheet) Counts() Counts {
 		}
 		switch status {
 		case engine.OK:
-			switch st.Kind {
-			case engine.Use, engine.Case, engine.Sweep, engine.Sampling:
+			if st.Kind == engine.Use || st.IsCondition() {
 				continue // an instance's results are its own statements; a condition has none
 			}
 			c.Results++

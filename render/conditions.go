@@ -15,12 +15,6 @@ import (
 // they move, a table of cases, the governing condition of a check and
 // what the inputs' tolerances do to it.
 
-// isCondition reports whether a statement declares a condition rather
-// than a value: a case, a sweep or a sample statement.
-func isCondition(st *engine.Statement) bool {
-	return st.Kind == engine.Case || st.Kind == engine.Sweep || st.Kind == engine.Sampling
-}
-
 // writeCondition draws a case, sweep or sample statement that checked.
 func writeCondition(w sink, s *project.Sheet, st *engine.Statement, digits int) {
 	switch st.Kind {
@@ -114,24 +108,11 @@ func groupDigits(d, sep string) string {
 // defaultSampling reports whether the sheet's tolerances were sampled
 // with the defaults, there being no sample statement, and the spread.
 func defaultSampling(s *project.Sheet) (*conditions.Spread, bool) {
-	sp := spreadOf(s)
+	sp := s.Conditions.SpreadOf()
 	if sp == nil || len(sp.Checks)+len(sp.Results) == 0 {
 		return nil, false
 	}
-	for _, st := range s.Calc.Statements {
-		if st.Kind == engine.Sampling && st.Cond != nil {
-			return sp, false
-		}
-	}
-	return sp, true
-}
-
-// spreadOf is what the tolerances of a sheet's inputs gave, or nil.
-func spreadOf(s *project.Sheet) *conditions.Spread {
-	if s.Conditions == nil {
-		return nil
-	}
-	return s.Conditions.Spread
+	return sp, sp.Default
 }
 
 // asWritten is a check's result in the sheet as written: the page's
@@ -162,7 +143,7 @@ func percentText(share float64) string {
 // for the terminal and the dependency graph; ok is false for any other
 // statement.
 func conditionLine(st *engine.Statement, r engine.Result) (line string, ok bool) {
-	if !isCondition(st) || r.Status != engine.OK || st.Cond == nil {
+	if !st.IsCondition() || r.Status != engine.OK || st.Cond == nil {
 		return "", false
 	}
 	formula := strings.Join(strings.Fields(st.Formula), " ")
@@ -170,7 +151,7 @@ func conditionLine(st *engine.Statement, r engine.Result) (line string, ok bool)
 	case engine.Case:
 		return "case " + st.Name + ": " + formula, true
 	case engine.Sweep:
-		return sweepWord(st) + " " + st.Name + ": " + formula + " (" + strconv.Itoa(len(st.Cond.Points)) + " points)", true
+		return st.Cond.Word() + " " + st.Name + ": " + formula + " (" + strconv.Itoa(len(st.Cond.Points)) + " points)", true
 	}
 	return "Monte Carlo: " + samplingText(st.Cond.Samples, st.Cond.Seed, " "), true
 }

@@ -298,17 +298,11 @@ func jsonSweep(s *project.Sheet, sw *conditions.SweepRun) *JSONSweep {
 // jsonSampling is the Monte Carlo count and seed of a sheet with
 // tolerances, or nil.
 func jsonSampling(s *project.Sheet) *JSONSampling {
-	sp := spreadOf(s)
+	sp := s.Conditions.SpreadOf()
 	if sp == nil {
 		return nil
 	}
-	def := true
-	for _, st := range s.Calc.Statements {
-		if st.Kind == engine.Sampling && st.Cond != nil {
-			def = false
-		}
-	}
-	return &JSONSampling{Samples: sp.Samples, Seed: sp.Seed, Default: def}
+	return &JSONSampling{Samples: sp.Samples, Seed: sp.Seed, Default: sp.Default}
 }
 
 // jsonConditionStatement fills in a case, sweep or sample statement.

@@ -563,7 +563,7 @@ func jsonStatement(s *project.Sheet, st *engine.Statement, digits int) JSONState
 		d := jsonDiag(*res.Err)
 		j.Error = &d
 	}
-	if isCondition(st) {
+	if st.IsCondition() {
 		jsonConditionStatement(&j, st)
 		addConditions(&j, s, st, digits)
 		return j // a condition has no value of its own

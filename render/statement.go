@@ -23,7 +23,7 @@ func writeStatement(w sink, s *project.Sheet, st *engine.Statement, digits int) 
 		writeFunction(w, calc, st, digits)
 		return
 	}
-	if isCondition(st) && res.Status == engine.OK {
+	if st.IsCondition() && res.Status == engine.OK {
 		writeCondition(w, s, st, digits)
 		return
 	}

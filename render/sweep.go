@@ -52,7 +52,7 @@ func sweepSentence(s *project.Sheet, st *engine.Statement, digits int) string {
 	c := st.Cond
 	u := s.Calc.Result(c.Input).Shown
 	n := len(c.Points)
-	out := "<span class=\"kw\">" + sweepWord(st) + "</span> <strong>" + esc(st.Name) + "</strong>: " + `<a href="#` + anchor(c.Input) + `">` + symbolHTML(c.Input.Name) + "</a> "
+	out := "<span class=\"kw\">" + st.Cond.Word() + "</span> <strong>" + esc(st.Name) + "</strong>: " + `<a href="#` + anchor(c.Input) + `">` + symbolHTML(c.Input.Name) + "</a> "
 	if monotonic(c.Points) {
 		out += "from " + esc(ValueText(c.Points[0], u, digits)) + " to " + esc(ValueText(c.Points[n-1], u, digits)) + ", " + strconv.Itoa(n) + " points"
 	} else {
@@ -71,15 +71,6 @@ func sweepSentence(s *project.Sheet, st *engine.Statement, digits int) string {
 		}
 	}
 	return out
-}
-
-// sweepWord is a sweep statement's keyword: sweep, or curve for one that
-// governs no check.
-func sweepWord(st *engine.Statement) string {
-	if st.Cond.Governs {
-		return "sweep"
-	}
-	return "curve"
 }
 
 // monotonic reports whether points rise, or fall, all the way.

@@ -50,7 +50,7 @@ func writeSweepPlot(w sink, s *project.Sheet, sw *conditions.SweepRun, digits in
 		if len(spec.Curves) == 1 {
 			spec.Y.Quantity = spec.Curves[0].Name
 		}
-		spec.Title = sw.Word() + " " + sw.Stmt.Name + ": " + strings.Join(names, ", ") + " against " + SymbolText(sw.Input.Name)
+		spec.Title = sw.Stmt.Cond.Word() + " " + sw.Stmt.Name + ": " + strings.Join(names, ", ") + " against " + SymbolText(sw.Input.Name)
 		spec.Marks = append(spec.Marks, operatingPoints(s, sw, group, digits)...)
 		for _, chk := range sw.Checks {
 			cv, limit := drawnSide(chk, group)

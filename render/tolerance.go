@@ -95,7 +95,7 @@ func toleranceWord(w string) string {
 // the first toleranced input, the Monte Carlo defaults a sheet without a
 // sample statement was sampled with.
 func writeSpreadNote(w sink, s *project.Sheet, st *engine.Statement, digits int) {
-	sp := spreadOf(s)
+	sp := s.Conditions.SpreadOf()
 	if sp == nil {
 		return
 	}
@@ -151,7 +151,7 @@ func writeResultSpread(w sink, s *project.Sheet, r *conditions.ResultSpread, sp 
 // worst case, the RSS of the tolerances against its margin, its
 // probability of failure and the inputs that move it most.
 func writeCheckSpread(w sink, s *project.Sheet, st *engine.Statement, digits int) {
-	sp := spreadOf(s)
+	sp := s.Conditions.SpreadOf()
 	if sp == nil {
 		return
 	}
