@@ -132,7 +132,7 @@ func Run(calc *engine.Calc) *Report {
 		r.Sweeps = append(r.Sweeps, runSweep(calc, p, s))
 	}
 	for i := range r.Sweeps {
-		r.considerSweep(calc, p, &r.Sweeps[i])
+		r.considerSweep(p, &r.Sweeps[i])
 	}
 	for st, g := range r.govern {
 		if g.Evaluated == 1 {

@@ -121,21 +121,25 @@ func (c *SweepCheck) read(f *engine.Frame, i int) {
 
 // considerSweep offers each check's worst point of a sweep as its
 // governing condition, worked out again in a frame of its own so that the
-// page shows it in the check's units.
-func (r *Report) considerSweep(calc *engine.Calc, p *engine.Program, sw *SweepRun) {
+// page shows it in the check's units. Only a sweep has checks: a curve
+// gathers none.
+func (r *Report) considerSweep(p *engine.Program, sw *SweepRun) {
 	c := sw.Stmt.Cond
+	at := map[int][]engine.Result{} // by point: checks often share their worst
 	for _, chk := range sw.Checks {
-		if _, ok := r.govern[chk.Stmt]; !ok || chk.Worst < 0 || !c.Governs {
+		if _, ok := r.govern[chk.Stmt]; !ok || chk.Worst < 0 {
 			continue
 		}
-		f := p.NewFrame()
-		var sets []engine.Set
-		if c.In != nil {
-			sets = caseSets(c.In)
+		if at[chk.Worst] == nil {
+			f := p.NewFrame()
+			var sets []engine.Set
+			if c.In != nil {
+				sets = caseSets(c.In)
+			}
+			p.Run(f, append(sets, engine.Set{Slot: c.Input.Index, SI: sw.X[chk.Worst]}))
+			at[chk.Worst] = p.Results(f)
 		}
-		sets = append(sets, engine.Set{Slot: c.Input.Index, SI: sw.X[chk.Worst]})
-		p.Run(f, sets)
-		res := p.Results(f)[chk.Stmt.Index]
+		res := at[chk.Worst][chk.Stmt.Index]
 		g := Governing{Where: sw.PointName(chk.Worst), Sweep: sw, Point: chk.Worst, Result: res}
 		cur := r.govern[chk.Stmt]
 		cur.Evaluated += len(sw.X)
