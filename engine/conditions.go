@@ -647,26 +647,18 @@ func (s *Calc) checkSweep(st *Statement, named map[string]*Statement) *diag.Diag
 		return err
 	}
 	c.Input = in
-	if r, ok := c.points.(*Range); ok && in.Type.Kind.IsAbsTemp() {
-		pts, err := temperaturePoints(r)
-		if err != nil {
-			return err
-		}
-		c.Points = pts
-	} else {
-		t, err := constValue(c.points, "a sweep's points")
-		if err != nil {
-			return err
-		}
-		if t.Dim != in.Type.Dim || t.IsComplex() {
-			return errAt(c.pointsPos, "give the points in "+c.InputName+"'s dimension",
-				"%s is %s, but the points are %s", c.InputName, units.Describe(in.Type.Dim), units.Describe(t.Dim))
-		}
-		if err := kindsAgree("==", in, t, c.pointsPos); err != nil {
-			return err
-		}
-		c.Points = constPoints(c.points)
+	t, err := constValue(c.points, "a sweep's points")
+	if err != nil {
+		return err
 	}
+	if t.Dim != in.Type.Dim || t.IsComplex() {
+		return errAt(c.pointsPos, "give the points in "+c.InputName+"'s dimension",
+			"%s is %s, but the points are %s", c.InputName, units.Describe(in.Type.Dim), units.Describe(t.Dim))
+	}
+	if err := kindsAgree("==", in, t, c.pointsPos); err != nil {
+		return err
+	}
+	c.Points = constPoints(c.points)
 	if len(c.Points) < 2 {
 		return errAt(c.pointsPos, "sweep over two points or more, as 0 A .. 80 A by 2 A",
 			"the sweep has %d point; a sweep needs two or more", len(c.Points))
@@ -696,44 +688,6 @@ func (s *Calc) checkSweep(st *Statement, named map[string]*Statement) *diag.Diag
 		c.Show = append(c.Show, r)
 	}
 	return nil
-}
-
-// temperaturePoints works out a sweep over absolute temperatures, 20 °C
-// .. 60 °C by 5 K: its ends are temperatures and its step a difference
-// of temperature, which a range of values cannot mix, so the points are
-// counted here.
-func temperaturePoints(r *Range) ([]float64, *diag.Diagnostic) {
-	var ends [2]float64
-	for i, e := range []Expr{r.From, r.To} {
-		t, err := constValue(e, "an end of the sweep")
-		if err != nil {
-			return nil, err
-		}
-		if !t.Kind.IsAbsTemp() {
-			return nil, errAt(e.Pos(), "write both ends as temperatures, as 20 degC .. 60 degC by 5 K", "this end of a sweep of temperatures is not a temperature")
-		}
-		ends[i] = t.Val
-	}
-	if r.Step == nil {
-		return nil, errAt(r.Pos(), "write the step after by, in K: 20 degC .. 60 degC by 5 K", "a sweep of temperatures needs its step")
-	}
-	t, err := constValue(r.Step, "the step of the sweep")
-	if err != nil {
-		return nil, err
-	}
-	span := ends[1] - ends[0]
-	if t.Kind.IsAbsTemp() || t.Dim != r.From.Type().Dim || t.Val == 0 || span != 0 && (span > 0) != (t.Val > 0) {
-		return nil, errAt(r.Step.Pos(), "give the step as a difference of temperature in K, towards the second end", "the step of a sweep of temperatures must be a difference in K that leads from the first end to the second")
-	}
-	n := math.Floor(span/t.Val+1e-9) + 1
-	if n > MaxSweepPoints {
-		return nil, errAt(r.Pos(), "use a larger step", "the sweep has %.0f points; the limit is %d", n, MaxSweepPoints)
-	}
-	pts := make([]float64, int(n))
-	for i := range pts {
-		pts[i] = ends[0] + float64(i)*t.Val
-	}
-	return pts, nil
 }
 
 // constPoints returns the SI values of a sweep's points: a single value,

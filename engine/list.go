@@ -148,13 +148,9 @@ func inferRange(n *Range) *diag.Diagnostic {
 			return errAt(e.Pos(), "give both ends and the step one dimension",
 				"the range starts at %s, but this is %s", units.Describe(from.Dim), units.Describe(et.Dim))
 		}
-		if et.Kind.IsAbsTemp() {
-			return errAt(e.Pos(), "write a range of temperatures in K", "a range of absolute temperatures (°C or °F) is not supported")
-		}
 	}
-	k, err := addKinds("-", from.Kind, to.Kind)
+	k, err := rangeKind(n)
 	if err != nil {
-		err.Pos = n.Pos()
 		return err
 	}
 	step := 1.0
@@ -184,6 +180,31 @@ func inferRange(n *Range) *diag.Diagnostic {
 	}
 	*n.Type() = Type{Shape: List, Len: len(n.Values), Dim: from.Dim, Kind: k, Count: count}
 	return nil
+}
+
+// rangeKind is the kind of a range's elements. A range of absolute
+// temperatures, 20 degC .. 60 degC by 5 K, runs between two temperatures
+// by a difference of temperature, and its elements are temperatures;
+// otherwise the ends and the step are of one kind.
+func rangeKind(n *Range) (units.Kind, *diag.Diagnostic) {
+	from, to := n.From.Type(), n.To.Type()
+	if !from.Kind.IsAbsTemp() && !to.Kind.IsAbsTemp() {
+		if n.Step != nil && n.Step.Type().Kind.IsAbsTemp() {
+			return from.Kind, errAt(n.Step.Pos(), "write the step of a range of temperatures in K", "the step of a range is a difference, not a temperature")
+		}
+		k, err := addKinds("-", from.Kind, to.Kind)
+		if err != nil {
+			err.Pos = n.Pos()
+		}
+		return k, err
+	}
+	if !from.Kind.IsAbsTemp() || !to.Kind.IsAbsTemp() || from.Kind != to.Kind {
+		return from.Kind, errAt(n.Pos(), "write both ends as temperatures in one unit, as 20 degC .. 60 degC by 5 K", "a range of temperatures needs a temperature at each end")
+	}
+	if n.Step != nil && n.Step.Type().Kind.IsAbsTemp() {
+		return from.Kind, errAt(n.Step.Pos(), "give the step as a difference of temperature in K: 20 degC .. 60 degC by 5 K", "the step of a range of temperatures must be a difference in K, not a temperature")
+	}
+	return from.Kind, nil
 }
 
 // inferIndex checks phi[k]: a list, and a pure number that counts from 1;

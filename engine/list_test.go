@@ -2,6 +2,7 @@ package engine_test
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"github.com/sheaf-calc/sheaf/engine"
@@ -182,4 +183,19 @@ func TestListsInTemplatesAndTakes(t *testing.T) {
 		// 1.5 + 2.5 + 3.0 = 7.0 mWb; 3 mWb taken.
 		[]string{"use c = t/turns with phi = [1.5 mWb, 2.5 mWb,", "    3.0 mWb]", "take p = phi_k from field", "take lam from field"},
 		map[string]string{"c.lambda": "ok 7.000 mWb", "p": "error 4:1 phi_k in field.md is a list; take reads single values", "lam": "ok 3.000 mWb"}}.run(t, engine.Options{Resolve: resolve, Take: take})
+}
+
+// A range of absolute temperatures runs between two temperatures by a
+// difference in K; its elements are temperatures, shown in the ends' unit.
+func TestRangeOfTemperatures(t *testing.T) {
+	calc := compileLines("T = 20 degC .. 60 degC by 10 K", "T_h = T + 80 K", "bad = 20 degC .. 60 K by 10 K", "bad2 = 20 degC .. 60 degC by 10 degC")
+	r := calc.Result(calc.Lookup("T_h"))
+	if r.Status != engine.OK || len(r.List) != 5 || math.Abs(r.List[4]-(333.15+80)) > 1e-9 || r.Shown.Symbol != "°C" {
+		t.Errorf("T_h = %+v, want five temperatures up to 140 °C, shown in °C", r)
+	}
+	for name, want := range map[string]string{"bad": "needs a temperature at each end", "bad2": "must be a difference in K"} {
+		if r := calc.Result(calc.Lookup(name)); r.Status != engine.Errored || !strings.Contains(r.Err.Message, want) {
+			t.Errorf("%s: %+v, want an error saying %q", name, r.Err, want)
+		}
+	}
 }
