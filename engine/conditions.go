@@ -182,12 +182,11 @@ func parseSweep(st *Statement, t *text, i, end int) *diag.Diagnostic {
 	c := &Condition{Governs: w == "sweep"}
 	st.Cond = c
 	j = skipSpace(r, j)
-	c.InputName, j = qualifiedName(r, j)
-	c.InputPos = t.pos(skipSpace(r, j-len([]rune(c.InputName))))
+	c.InputPos = t.pos(j)
+	c.InputName, j = qualified(r, j)
 	if c.InputName == "" {
 		return errAt(t.pos(j), example, "a sweep needs the input it varies")
 	}
-	c.InputPos = t.pos(j - len([]rune(c.InputName)))
 	j = skipSpace(r, j)
 	if w, k := word(r, j); w != "over" {
 		return errAt(t.pos(j), example, "expected over after the swept input %s", c.InputName)
@@ -226,7 +225,7 @@ func parseShow(c *Condition, t *text, j, end int) *diag.Diagnostic {
 	r := t.runes
 	for j < end {
 		j = skipSpace(r, j)
-		n, k := qualifiedName(r, j)
+		n, k := qualified(r, j)
 		if n == "" {
 			return errAt(t.pos(j), "name the results to gather, separated by commas", "expected a result's name after show")
 		}
@@ -238,17 +237,6 @@ func parseShow(c *Condition, t *text, j, end int) *diag.Diagnostic {
 		j = k + 1
 	}
 	return nil
-}
-
-// qualifiedName reads a name that may name an instance's statement:
-// pole0.Phi.
-func qualifiedName(r []rune, i int) (string, int) {
-	n, j := identifier(r, i)
-	for n != "" && j+1 < len(r) && r[j] == '.' && isIdentStart(r[j+1]) {
-		m, k := identifier(r, j+1)
-		n, j = n+"."+m, k
-	}
-	return n, j
 }
 
 // topLevelWord returns the offset of the word w in r[from:end] outside
