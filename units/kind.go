@@ -92,8 +92,14 @@ func (k Kind) Mul(o Kind) Kind { return Kind{Rad: k.Rad + o.Rad, Cyc: k.Cyc + o.
 // Div returns the kind of a quotient.
 func (k Kind) Div(o Kind) Kind { return Kind{Rad: k.Rad - o.Rad, Cyc: k.Cyc - o.Cyc} }
 
-// Pow returns the kind raised to an integer power.
-func (k Kind) Pow(n int) Kind { return Kind{Rad: k.Rad * int8(n), Cyc: k.Cyc * int8(n)} }
+// Pow returns the kind raised to an integer power; the first power is the
+// kind itself, its tag (an active, reactive or apparent power) kept.
+func (k Kind) Pow(n int) Kind {
+	if n == 1 {
+		return k // W^1 is still an active power: only a true power loses the tag
+	}
+	return Kind{Rad: k.Rad * int8(n), Cyc: k.Cyc * int8(n)}
+}
 
 // Root returns the n-th root of the kind and whether its exponents divide
 // evenly.
