@@ -109,13 +109,24 @@ const ThinMargin = 0.95
 
 // Run audits a package. Findings come sorted by position and code.
 func Run(pkg *project.Package) Report {
+	return Combine(pkg, Sheet)
+}
+
+// Combine audits a package from what each sheet's audit found (of gives
+// it, once per sheet): the sheets' own findings, and the rules across
+// sheets, which read only what Sheet kept. A build audits each sheet with
+// Sheet while its calculation is alive, and combines once every sheet is
+// done.
+func Combine(pkg *project.Package, of func(*project.Sheet) *SheetAudit) Report {
 	var r Report
-	for _, s := range pkg.Sheets {
-		r.Findings = append(r.Findings, sheetFindings(s)...)
+	audits := make([]*SheetAudit, len(pkg.Sheets))
+	for i, s := range pkg.Sheets {
+		audits[i] = of(s)
+		r.Findings = append(r.Findings, audits[i].findings...)
 	}
-	r.Findings = append(r.Findings, inconsistentInputs(pkg)...)
-	r.Findings = append(r.Findings, handTransfers(pkg)...)
-	applyAcceptances(pkg, &r)
+	r.Findings = append(r.Findings, inconsistentInputs(audits)...)
+	r.Findings = append(r.Findings, handTransfers(pkg, audits)...)
+	applyAcceptances(audits, &r)
 	sort.SliceStable(r.Findings, func(i, j int) bool {
 		a, b := r.Findings[i], r.Findings[j]
 		if c := diag.Compare(a.Pos, b.Pos); c != 0 {
@@ -362,33 +373,29 @@ func readsBadly(st *engine.Statement, r engine.Result) bool {
 // different values in different sheets of the same project (sheets whose
 // front matter names another project describe another machine, where the
 // same symbol may well mean another thing).
-func inconsistentInputs(pkg *project.Package) []Finding {
-	type seen struct {
-		st    *engine.Statement
-		value float64
-		sheet string
-	}
+func inconsistentInputs(audits []*SheetAudit) []Finding {
 	type key struct{ project, name string }
-	first := map[key]seen{}
+	first := map[key]*inputFact{}
 	var out []Finding
-	for _, s := range pkg.Sheets {
-		for _, st := range s.Calc.Statements {
-			r := s.Calc.Result(st)
-			if !st.IsInput() || r.Status != engine.OK {
+	for _, a := range audits {
+		for i := range a.inputs {
+			in := &a.inputs[i]
+			if !in.ok {
 				continue
 			}
-			k := key{s.Doc.Meta.Project, st.Name}
+			k := key{a.project, in.name}
 			f, ok := first[k]
 			if !ok {
-				first[k] = seen{st, r.Value, s.Path()}
+				first[k] = in
 				continue
 			}
-			if f.st.Type.Dim != st.Type.Dim {
+			if f.dim != in.dim {
 				continue // a different quantity that shares a symbol
 			}
-			if !same(f.value, r.Value) {
-				out = append(out, finding("inconsistent-input", st.Pos, st.Name, "%s is %s here but %s in %s:%d",
-					st.Name, inputText(st), inputText(f.st), f.sheet, f.st.Pos.Line).in(s, st))
+			if !same(f.value, in.value) {
+				out = append(out, Finding{Code: "inconsistent-input", Pos: in.pos, Subject: in.name,
+					Message: fmt.Sprintf("%s is %s here but %s in %s:%d", in.name, in.text, f.text, f.sheet, f.pos.Line),
+					Sheet:   a.sheet, Instance: in.instance})
 			}
 		}
 	}
@@ -405,48 +412,37 @@ func inputText(st *engine.Statement) string { return literalText(st.Expr) }
 // reason` on the statement for findings at that statement, and the
 // front matter's accept field for findings of the sheet as a whole. An
 // acceptance that matches nothing, or gives no reason, is a finding too.
-func applyAcceptances(pkg *project.Package, r *Report) {
+func applyAcceptances(audits []*SheetAudit, r *Report) {
 	type key struct {
 		file string
 		line int
 		code string
 	}
-	lines := statementLines(pkg)
+	lines := statementLines(audits)
 	byStatement := map[key][]int{}
 	for i, f := range r.Findings {
 		k := key{f.Pos.File, statementLine(lines, f), f.Code}
 		byStatement[k] = append(byStatement[k], i)
 	}
-	accept := func(k key, reason string, pos diag.Pos, subject string) {
-		if strings.TrimSpace(reason) == "" {
-			r.Findings = append(r.Findings, withSheet(finding("acceptance-without-reason", pos, subject, "accept %s gives no reason", k.code)))
-			return
-		}
-		idx, ok := byStatement[k]
-		if !ok {
-			msg := "accept %s matches no finding here"
-			if _, known := RuleByCode(k.code); !known {
-				msg = "accept %s names no finding sheaf knows"
+	for _, a := range audits {
+		for _, acc := range a.accepts {
+			k := key{acc.file, acc.line, acc.code}
+			if strings.TrimSpace(acc.reason) == "" {
+				r.Findings = append(r.Findings, withSheet(finding("acceptance-without-reason", acc.pos, acc.subject, "accept %s gives no reason", k.code)))
+				continue
 			}
-			r.Findings = append(r.Findings, withSheet(finding("unknown-acceptance", pos, subject, msg, k.code)))
-			return
-		}
-		for _, i := range idx {
-			r.Findings[i].Accepted = true
-			r.Findings[i].Reason = reason
-		}
-	}
-	for _, s := range pkg.Sheets {
-		for _, a := range s.Doc.Meta.Accept {
-			accept(key{s.Path(), 1, a.Code}, a.Reason, a.Pos, "")
-		}
-		for _, st := range s.Calc.Statements {
-			for _, n := range st.Notes {
-				if n.Key == "accept" {
-					// A template's statements keep the template's file, where
-					// both their findings and their acceptances lie.
-					accept(key{st.Pos.File, st.Pos.Line, n.Arg}, n.Value, n.Pos, st.Name)
+			idx, ok := byStatement[k]
+			if !ok {
+				msg := "accept %s matches no finding here"
+				if _, known := RuleByCode(k.code); !known {
+					msg = "accept %s names no finding sheaf knows"
 				}
+				r.Findings = append(r.Findings, withSheet(finding("unknown-acceptance", acc.pos, acc.subject, msg, k.code)))
+				continue
+			}
+			for _, i := range idx {
+				r.Findings[i].Accepted = true
+				r.Findings[i].Reason = acc.reason
 			}
 		}
 	}
@@ -455,11 +451,11 @@ func applyAcceptances(pkg *project.Package, r *Report) {
 // statementLines lists, for every file, the lines on which statements
 // start: the sheets' own, and those of the templates their instances come
 // from, which keep the template's file.
-func statementLines(pkg *project.Package) map[string][]int {
+func statementLines(audits []*SheetAudit) map[string][]int {
 	lines := map[string][]int{}
-	for _, s := range pkg.Sheets {
-		for _, st := range s.Calc.Statements {
-			lines[st.Pos.File] = append(lines[st.Pos.File], st.Pos.Line)
+	for _, a := range audits {
+		for f, l := range a.lines {
+			lines[f] = append(lines[f], l...)
 		}
 	}
 	// Sorted, so that statementLine finds a line by binary search: a
@@ -499,24 +495,31 @@ func statementLine(lines map[string][]int, f Finding) int {
 // for a file whose name starts with 01, at the start of the source or
 // after from, see, per or in (so that "field study sheet 02", a sheet of
 // another document, is not taken for one of the package's).
-func handTransfers(pkg *project.Package) []Finding {
+func handTransfers(pkg *project.Package, audits []*SheetAudit) []Finding {
 	var out []Finding
 	names := newSheetNames(pkg.Sheets)
-	for _, s := range pkg.Sheets {
-		for _, st := range s.Calc.Statements {
-			if !st.IsInput() || st.Source == "" || st.Instance != "" {
+	at := make(map[*project.Sheet]*SheetAudit, len(pkg.Sheets))
+	for i, s := range pkg.Sheets {
+		at[s] = audits[i]
+	}
+	for i, s := range pkg.Sheets {
+		for _, in := range audits[i].inputs {
+			if in.source == "" || in.instance != "" {
 				continue
 			}
-			if other := names.first(st.Source, s); other != nil {
-				ref := strings.TrimSuffix(other.Path(), ".md")
-				remote := "<result>"
-				if o := other.Calc.Lookup(st.Name); o != nil && o.Kind == engine.Definition {
-					remote = st.Name
-				}
-				out = append(out, finding("hand-transfer", st.Pos, st.Name,
-					"input %s is typed across from %s (source: %q); take it live: take %s = %s from %s",
-					st.Name, other.Path(), st.Source, st.Name, remote, ref).in(s, st))
+			other := names.first(in.source, s)
+			if other == nil {
+				continue
 			}
+			ref := strings.TrimSuffix(other.Path(), ".md")
+			remote := "<result>"
+			if at[other].defines[in.name] {
+				remote = in.name
+			}
+			out = append(out, Finding{Code: "hand-transfer", Pos: in.pos, Subject: in.name,
+				Message: fmt.Sprintf("input %s is typed across from %s (source: %q); take it live: take %s = %s from %s",
+					in.name, other.Path(), in.source, in.name, remote, ref),
+				Sheet: s.Path()})
 		}
 	}
 	return out
