@@ -61,7 +61,7 @@ func NewManifest(res *Result, pages []Page) Manifest {
 func samplingOf(pkg *project.Package) []Sampling {
 	var out []Sampling
 	for _, s := range pkg.Sheets {
-		if sp := s.Conditions.SpreadOf(); sp != nil {
+		if sp := s.Sampled(); sp != nil {
 			out = append(out, Sampling{Sheet: s.Path(), Samples: sp.Samples, Seed: sp.Seed})
 		}
 	}

@@ -70,7 +70,37 @@ type Sheet struct {
 
 	bandOnce sync.Once
 	bands    map[*engine.Statement]band.Band
+
+	// What outlives the calculation (see ReleaseCalc): the tally, the
+	// calculation's diagnostics and its sampling.
+	counts   Counts
+	diags    diag.List
+	sampling *Sampling
 }
+
+// Sampling is the sample count and seed of a sheet's tolerance analysis.
+type Sampling struct {
+	Samples int
+	Seed    uint64
+}
+
+// Sampled returns the sample count and seed of the sheet's tolerance
+// analysis, nil for a sheet without tolerances.
+func (s *Sheet) Sampled() *Sampling { return s.sampling }
+
+// ReleaseCalc lets go of the sheet's compiled calculation, its
+// conditions and what was found of its checks, once its page and what
+// the package pages and the audit read of it are made: a package of
+// thousands of sheets then holds one calculation per sheet being worked,
+// not one per sheet. The sheet's title block, tally, diagnostics and
+// sampling stay; its page, the package pages and the JSON can no longer
+// be rendered from it.
+func (s *Sheet) ReleaseCalc() {
+	s.Calc, s.Conditions, s.fixed, s.bands = nil, nil, nil, nil
+}
+
+// CalcReleased reports whether ReleaseCalc let go of the calculation.
+func (s *Sheet) CalcReleased() bool { return s.Calc == nil }
 
 // Band returns the tolerance band a check is one side of: the sheet checks
 // the same quantity against a lower and an upper limit.
@@ -159,6 +189,13 @@ type LoadOptions struct {
 	// Sheets are not, and it must not read them. It is not called for a
 	// single sheet, whose templates are read as they are used.
 	Evaluated func(pkg *Package, s *Sheet)
+	// Prose says that Evaluated renders the pages, which read the
+	// sheets' Markdown trees. With Evaluated set, no page holds its tree
+	// from the start (thousands of trees would be the largest part of
+	// memory): with Prose, a page is parsed again just before it is
+	// compiled, and its tree and formula text are let go once Evaluated
+	// returns; without, a page's tree is let go as soon as it is read.
+	Prose bool
 }
 
 // LoadWith is Load with options.
@@ -188,7 +225,7 @@ func LoadWith(root string, opt LoadOptions) (*Package, error) {
 	if err := distinctNames(mapKeys(files)); err != nil {
 		return nil, err
 	}
-	pkg := build(root, files, nil, nil, opt.Evaluated)
+	pkg := build(root, files, nil, nil, opt)
 	pkg.loadedFrom = root
 	return pkg, nil
 }
@@ -205,7 +242,7 @@ func loadOne(file string) (*Package, error) {
 	if err != nil {
 		return nil, err
 	}
-	return build(dir, map[string][]byte{one: data}, func(p string) bool { return p == one }, f, nil), nil
+	return build(dir, map[string][]byte{one: data}, func(p string) bool { return p == one }, f, LoadOptions{}), nil
 }
 
 // sheetPaths lists the sheets among the files, sorted; the data files
@@ -245,29 +282,72 @@ func isTemplatePath(p string) bool {
 // the package. Files are parsed and sheets compiled in parallel; the result
 // does not depend on the order in which they finish.
 func FromFiles(root string, files map[string][]byte) *Package {
-	return build(root, files, nil, nil, nil)
+	return build(root, files, nil, nil, LoadOptions{})
 }
 
 // build builds a package whose pages are the sheets page accepts (all but
 // templates when page is nil); every file is available as a template, and
 // so is every sheet of more, when more is not nil, read when it is used.
-// Each page is handed to evaluated, when it is set, once it is evaluated.
-func build(root string, files map[string][]byte, page func(string) bool, more *folder, evaluated func(*Package, *Sheet)) *Package {
+// Each page is handed to opt.Evaluated, when it is set, once it is
+// evaluated.
+func build(root string, files map[string][]byte, page func(string) bool, more *folder, opt LoadOptions) *Package {
 	paths := sheetPaths(files)
 	docs := make([]*sheets.Document, len(paths))
-	parallel(len(paths), func(i int) { docs[i] = sheets.Parse(paths[i], files[paths[i]]) })
-	return assemble(root, files, docs, page, more, evaluated, nil)
+	var ln *lean
+	if opt.Evaluated != nil && page == nil && more == nil {
+		ln = &lean{files: files, prose: opt.Prose, takes: make([][]engine.TakeRef, len(paths))}
+	}
+	parallel(len(paths), func(i int) {
+		docs[i] = sheets.Parse(paths[i], files[paths[i]])
+		if ln != nil && !isTemplate(docs[i]) {
+			docs[i], ln.takes[i] = ln.thin(docs[i])
+		}
+	})
+	return assemble(root, files, docs, page, more, opt.Evaluated, nil, ln)
+}
+
+// lean is how a build of many sheets loads its pages without holding
+// every page's parsed document at once: each page is read once to plan
+// the compile (its title block and what it takes) and again, whole, just
+// before it is compiled.
+type lean struct {
+	files map[string][]byte
+	prose bool               // the pages are rendered: keep the tree until Evaluated returns
+	takes [][]engine.TakeRef // by file, in path order: what each page takes
+}
+
+// thin keeps of a page only its path and title block, and what it takes.
+func (ln *lean) thin(d *sheets.Document) (*sheets.Document, []engine.TakeRef) {
+	refs := engine.TakenSheets(sourceOf(d, nil))
+	return &sheets.Document{Path: d.Path, Meta: d.Meta}, refs
+}
+
+// whole parses a page again, for compiling; without prose its tree goes
+// at once.
+func (ln *lean) whole(d *sheets.Document) *sheets.Document {
+	doc := sheets.Parse(d.Path, ln.files[d.Path])
+	if !ln.prose {
+		doc.Doc = nil
+	}
+	return doc
 }
 
 // assemble compiles and evaluates the parsed docs (one per file, in path
 // order) as build does, except that a page found in keep is taken as it is
-// instead of being compiled again (see Update).
-func assemble(root string, files map[string][]byte, docs []*sheets.Document, page func(string) bool, more *folder, evaluated func(*Package, *Sheet), keep map[string]*Sheet) *Package {
+// instead of being compiled again (see Update). With ln, the pages among
+// docs are thin (see lean): each is parsed again before it is compiled,
+// and its tree and formula text go once evaluated returns.
+func assemble(root string, files map[string][]byte, docs []*sheets.Document, page func(string) bool, more *folder, evaluated func(*Package, *Sheet), keep map[string]*Sheet,
+	ln *lean) *Package {
 	pkg := &Package{Root: root, whole: page == nil && more == nil}
-	r := &resolver{docs: map[string]*sheets.Document{}, more: more, files: files}
+	r := &resolver{docs: map[string]*sheets.Document{}, more: more, files: files, thin: map[string]bool{}}
 	var pages []*sheets.Document
-	for _, d := range docs {
+	var taken [][]engine.TakeRef
+	for i, d := range docs {
 		r.docs[d.Path] = d
+		if ln != nil && !isTemplate(d) {
+			r.thin[d.Path] = true
+		}
 		switch {
 		case page != nil && page(d.Path):
 			pages = append(pages, d)
@@ -276,6 +356,9 @@ func assemble(root string, files map[string][]byte, docs []*sheets.Document, pag
 			pkg.Templates = append(pkg.Templates, d)
 		default:
 			pages = append(pages, d)
+			if ln != nil {
+				taken = append(taken, ln.takes[i])
+			}
 		}
 	}
 	pkg.Sheets = make([]*Sheet, len(pages))
@@ -286,7 +369,7 @@ func assemble(root string, files map[string][]byte, docs []*sheets.Document, pag
 	} else {
 		evaluated = nil
 	}
-	t := newTakes(pages)
+	t := newTakes(pages, taken)
 	// Sheets taken from compile before the sheets that take from them:
 	// each wave compiles in parallel the sheets whose sources are done.
 	for _, wave := range t.waves {
@@ -298,18 +381,30 @@ func assemble(root string, files map[string][]byte, docs []*sheets.Document, pag
 				t.done(i, s)
 				return
 			}
+			if ln != nil {
+				doc = ln.whole(doc)
+			}
 			var used usedFiles
 			calc := engine.CompileWith(r.source(doc, &used), engine.Options{Resolve: used.recording(r.resolverFor(&used)), Take: t.find})
 			calc.Evaluate()
 			fixed := fixity.Find(calc) // while the program can still run
 			conds := govern(calc)
 			calc.Release()
-			s := &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path), Number: i + 1, fixed: fixed, Conditions: conds, uses: used.sorted(), takes: t.named[i]}
+			s := &Sheet{Doc: doc, Calc: calc, Page: PagePath(doc.Path), Number: i + 1, fixed: fixed, Conditions: conds, uses: used.sorted(), takes: t.named[i],
+				diags: calc.Diags}
 			s.rests = t.restsOn(i, s)
+			s.counts = s.tally()
+			if sp := conds.SpreadOf(); sp != nil {
+				s.sampling = &Sampling{Samples: sp.Samples, Seed: sp.Seed}
+			}
 			pkg.Sheets[i] = s
 			t.done(i, s)
 			if evaluated != nil {
 				evaluated(pkg, s)
+			}
+			if ln != nil {
+				s.ReleaseProse()
+				s.ReleaseFormulaText()
 			}
 		})
 	}
@@ -323,7 +418,7 @@ func assemble(root string, files map[string][]byte, docs []*sheets.Document, pag
 	}
 	for _, s := range pkg.Sheets {
 		pkg.Diags = append(pkg.Diags, s.Doc.Diags...)
-		pkg.Diags = append(pkg.Diags, s.Calc.Diags...)
+		pkg.Diags = append(pkg.Diags, s.diags...)
 	}
 	pkg.Diags.Sort()
 	return pkg
@@ -417,6 +512,9 @@ type resolver struct {
 	docs  map[string]*sheets.Document
 	files map[string][]byte // every file read, for the package's list
 	more  *folder           // where to read templates not read yet, or nil
+	// thin marks the pages a lean load keeps only the title block of: one
+	// used as a template is parsed again when it is first used.
+	thin map[string]bool
 }
 
 // doc finds a sheet of the package by its path, reading it from the
@@ -424,6 +522,10 @@ type resolver struct {
 func (r *resolver) doc(p string) (*sheets.Document, error) {
 	r.mu.Lock()
 	defer r.mu.Unlock()
+	if r.thin[p] {
+		delete(r.thin, p)
+		r.docs[p] = sheets.Parse(p, r.files[p])
+	}
 	if doc, ok := r.docs[p]; ok || r.more == nil {
 		if !ok {
 			return nil, fmt.Errorf("no sheet %s in the package", p)
@@ -523,7 +625,10 @@ func (c Counts) Checks() int { return c.Pass + c.Fail + c.Fixed }
 
 // Counts tallies the sheet. Errors counts every error diagnostic of the
 // sheet, including those outside statements (front matter, empty blocks).
-func (s *Sheet) Counts() Counts {
+func (s *Sheet) Counts() Counts { return s.counts }
+
+// tally counts the sheet's outcomes, once, when it is evaluated.
+func (s *Sheet) tally() Counts {
 	var c Counts
 	caseErrors := 0
 	for _, st := range s.Calc.Statements {

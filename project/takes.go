@@ -24,6 +24,10 @@ type takes struct {
 	// whether or not the package has them.
 	named [][]string
 
+	// taken marks the sheets another takes from: only their calculations
+	// are kept here for the takers, so that a build can let the others go.
+	taken map[int]bool
+
 	mu    sync.Mutex
 	calc  map[int]*engine.Calc
 	sheet map[int]*Sheet
@@ -42,8 +46,10 @@ func takeTarget(ref, from string) (string, error) {
 	return p, nil
 }
 
-func newTakes(pages []*sheets.Document) *takes {
-	t := &takes{index: map[string]int{}, cyclic: map[int]string{}, calc: map[int]*engine.Calc{}, sheet: map[int]*Sheet{}}
+// newTakes orders the pages by what they take: taken[i], when given,
+// lists what page i takes, else it is read from the page.
+func newTakes(pages []*sheets.Document, taken [][]engine.TakeRef) *takes {
+	t := &takes{index: map[string]int{}, cyclic: map[int]string{}, calc: map[int]*engine.Calc{}, sheet: map[int]*Sheet{}, taken: map[int]bool{}}
 	for i, d := range pages {
 		t.index[d.Path] = i
 	}
@@ -51,7 +57,13 @@ func newTakes(pages []*sheets.Document) *takes {
 	t.named = make([][]string, len(pages))
 	for i, d := range pages {
 		seen := map[string]bool{}
-		for _, ref := range engine.TakenSheets(sourceOf(d, nil)) {
+		var refs []engine.TakeRef
+		if taken != nil {
+			refs = taken[i]
+		} else {
+			refs = engine.TakenSheets(sourceOf(d, nil))
+		}
+		for _, ref := range refs {
 			p, err := takeTarget(ref.Sheet, d.Path)
 			if err == nil && p != d.Path && !seen[p] {
 				seen[p] = true
@@ -59,6 +71,7 @@ func newTakes(pages []*sheets.Document) *takes {
 			}
 			if j, ok := t.index[p]; err == nil && ok && j != i {
 				uses[i] = append(uses[i], j)
+				t.taken[j] = true
 			}
 		}
 		sort.Strings(t.named[i])
@@ -150,7 +163,10 @@ func (t *takes) order(uses [][]int) {
 
 func (t *takes) done(i int, s *Sheet) {
 	t.mu.Lock()
-	t.calc[i], t.sheet[i] = s.Calc, s
+	if t.taken[i] {
+		t.calc[i] = s.Calc
+	}
+	t.sheet[i] = s
 	t.mu.Unlock()
 }
 

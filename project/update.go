@@ -86,7 +86,7 @@ func (p *Package) Update(files map[string][]byte) (*Package, []*Sheet) {
 	now := sourceFiles(files)
 	docs, changed, ok := p.reuse(files, now)
 	if !ok {
-		pkg := build(p.Root, files, nil, nil, nil)
+		pkg := build(p.Root, files, nil, nil, LoadOptions{})
 		pkg.loadedFrom = p.loadedFrom
 		return pkg, pkg.Sheets
 	}
@@ -100,7 +100,7 @@ func (p *Package) Update(files map[string][]byte) (*Package, []*Sheet) {
 			keep[s.Path()] = s
 		}
 	}
-	pkg := assemble(p.Root, files, docs, nil, nil, nil, keep)
+	pkg := assemble(p.Root, files, docs, nil, nil, nil, keep, nil)
 	pkg.loadedFrom = p.loadedFrom
 	var redone []*Sheet
 	for _, s := range pkg.Sheets {
