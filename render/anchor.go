@@ -22,13 +22,29 @@ func anchorAt(instance string, line int) string {
 // anchor is a statement's id on its page.
 func anchor(st *engine.Statement) string { return anchorAt(st.Instance, st.Pos.Line) }
 
-// sheetsByPath finds a package's sheets by path, for links to positions.
-type sheetsByPath map[string]*project.Sheet
+// sheetsByPath finds a package's sheets by path, and the first sheet to
+// show each template line, for links to positions.
+type sheetsByPath struct {
+	byPath map[string]*project.Sheet
+	users  map[lineAt]templateUser
+}
 
-func indexSheets(pkg *project.Package) sheetsByPath {
-	ix := make(sheetsByPath, len(pkg.Sheets))
-	for _, s := range pkg.Sheets {
-		ix[s.Path()] = s
+// templateUser is the first sheet, by path, whose page shows a template
+// line, and the instance there.
+type templateUser struct {
+	sheet    *project.Sheet
+	instance string
+}
+
+func indexSheets(pkg *project.Package, ds []*Digest) sheetsByPath {
+	ix := sheetsByPath{byPath: make(map[string]*project.Sheet, len(pkg.Sheets)), users: map[lineAt]templateUser{}}
+	for i, s := range pkg.Sheets {
+		ix.byPath[s.Path()] = s
+		for k, inst := range ds[i].instances {
+			if u, ok := ix.users[k]; !ok || s.Path() < u.sheet.Path() {
+				ix.users[k] = templateUser{s, inst}
+			}
+		}
 	}
 	return ix
 }
@@ -39,12 +55,13 @@ func indexSheets(pkg *project.Package) sheetsByPath {
 // instance's statement (instance names it when known). It is "" for a
 // position no page shows.
 func (ix sheetsByPath) href(sheet, instance string, pos diag.Pos) string {
-	s := ix[sheet]
+	s := ix.byPath[sheet]
 	if s == nil {
-		s = ix[pos.File]
+		s = ix.byPath[pos.File]
 	}
 	if s == nil || pos.File != s.Path() && instance == "" {
-		s, instance = ix.user(pos)
+		u := ix.users[lineAt{pos.File, pos.Line}]
+		s, instance = u.sheet, u.instance
 	}
 	if s == nil {
 		return ""
@@ -63,22 +80,4 @@ func anchorOn(s *project.Sheet, pos diag.Pos) string {
 		}
 	}
 	return anchorAt("", pos.Line)
-}
-
-// user finds the first sheet with a statement of a template at pos, and
-// that statement's instance.
-func (ix sheetsByPath) user(pos diag.Pos) (*project.Sheet, string) {
-	var first *project.Sheet
-	var instance string
-	for _, s := range ix {
-		for _, st := range s.Calc.Statements {
-			if st.Instance != "" && st.Pos.File == pos.File && st.Pos.Line == pos.Line {
-				if first == nil || s.Path() < first.Path() {
-					first, instance = s, st.Instance
-				}
-				break
-			}
-		}
-	}
-	return first, instance
 }

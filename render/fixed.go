@@ -52,8 +52,13 @@ func fixedSection(p *page, rows []checkRow, sheetCol bool) {
 	if len(rows) == 0 {
 		return
 	}
-	p.f("<h3>Fixed checks: not counted</h3>\n<p>These checks cannot fail (or cannot pass): their outcome did not move when every input they rest on was varied. They prove nothing about the design.</p>\n")
+	fixedHead(p)
 	checksTable(p, rows, sheetCol)
+}
+
+// fixedHead is the heading and the note above a table of fixed checks.
+func fixedHead(p *page) {
+	p.f("<h3>Fixed checks: not counted</h3>\n<p>These checks cannot fail (or cannot pass): their outcome did not move when every input they rest on was varied. They prove nothing about the design.</p>\n")
 }
 
 // checkCounts writes a tally's checks: "10 pass, 1 fail", with the fixed

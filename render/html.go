@@ -35,6 +35,10 @@ type Options struct {
 	BuildDate string
 	// Audit, when set, adds the audit page and the findings to the JSON.
 	Audit *audit.Report
+	// Digests, when set, holds what the package pages and the JSON read
+	// of sheets whose calculation may be gone (see Digest); the digest of
+	// a sheet it lacks is made when needed.
+	Digests *Digests
 
 	stamp string // the package stamp, worked out once per render
 }
@@ -72,10 +76,23 @@ func (opt Options) ForPackage(pkg *project.Package) Options {
 // PackageFiles renders the index, the registers and the audit page, in a
 // fixed order.
 func PackageFiles(pkg *project.Package, opt Options) []File {
+	var files []File
+	_ = EachPackageFile(pkg, opt, func(f File) error {
+		files = append(files, f)
+		return nil
+	})
+	return files
+}
+
+// EachPackageFile renders the files of PackageFiles one at a time,
+// handing each to emit before the next is rendered, so that the pages of
+// a large package are not in memory together. It stops at emit's first
+// error.
+func EachPackageFile(pkg *project.Package, opt Options, emit func(File) error) error {
 	if opt.stamp == "" {
 		opt = opt.ForPackage(pkg)
 	}
-	return packagePages(pkg, opt)
+	return packagePages(pkg, opt, emit)
 }
 
 // proses keeps the prose renderers of SheetFile, which cost more to make
@@ -101,10 +118,8 @@ func SheetFile(pkg *project.Package, s *project.Sheet, opt Options) (File, error
 // held in memory at once.
 func WriteHTML(pkg *project.Package, opt Options, emit func(File) error) error {
 	opt = opt.ForPackage(pkg)
-	for _, f := range packagePages(pkg, opt) {
-		if err := emit(f); err != nil {
-			return err
-		}
+	if err := packagePages(pkg, opt, emit); err != nil {
+		return err
 	}
 	type result struct {
 		file File

@@ -323,7 +323,11 @@ func JSON(pkg *project.Package, opt Options) ([]byte, error) {
 // indentation.
 func WriteJSON(pkg *project.Package, opt Options, w io.Writer) error {
 	bw := bufio.NewWriter(w)
-	doc := documentHead(pkg, opt)
+	ds := digestsOf(pkg, opt)
+	doc, err := documentHead(pkg, opt, ds)
+	if err != nil {
+		return err
+	}
 	head, err := marshal(doc, "")
 	if err != nil {
 		return err
@@ -341,14 +345,14 @@ func WriteJSON(pkg *project.Package, opt Options, w io.Writer) error {
 	} else {
 		bw.WriteString(`"sheets": [`)
 		for k, s := range pkg.Sheets {
-			data, err := marshal(jsonSheet(s, opt), "    ")
-			if err != nil {
-				return err
-			}
 			if k > 0 {
 				bw.WriteString(",")
 			}
 			bw.WriteString("\n    ")
+			data, err := ds[k].objectOf(opt.Digests, s, opt)
+			if err != nil {
+				return err
+			}
 			bw.Write(data)
 		}
 		bw.WriteString("\n  ],")
@@ -386,8 +390,9 @@ func marshal(v any, prefix string) ([]byte, error) {
 	return bytes.TrimSuffix(buf.Bytes(), []byte("\n")), nil
 }
 
-func documentHead(pkg *project.Package, opt Options) JSONDoc {
+func documentHead(pkg *project.Package, opt Options, ds []*Digest) (JSONDoc, error) {
 	c := pkg.Counts()
+	reg, err := registers(pkg, ds)
 	doc := JSONDoc{
 		Schema:    JSONSchemaID,
 		Tool:      JSONTool{Name: "sheaf", Version: opt.Version},
@@ -395,7 +400,7 @@ func documentHead(pkg *project.Package, opt Options) JSONDoc {
 		BuildDate: opt.BuildDate,
 		Sources:   pkg.Files,
 		Summary:   JSONSummary{Sheets: len(pkg.Sheets), Results: c.Results, Inputs: c.Inputs, Pass: c.Pass, Fail: c.Fail, Fixed: c.Fixed, Errors: c.Errors, Blocked: c.Blocked},
-		Registers: registers(pkg),
+		Registers: reg,
 		Sheets:    []JSONSheet{},
 		Diags:     []JSONDiag{},
 	}
@@ -408,37 +413,49 @@ func documentHead(pkg *project.Package, opt Options) JSONDoc {
 			doc.Audit.Findings = []audit.Finding{}
 		}
 	}
-	return doc
+	return doc, err
 }
 
 // registers builds the package-wide inputs and assumptions registers.
-func registers(pkg *project.Package) JSONRegisters {
+func registers(pkg *project.Package, ds []*Digest) (JSONRegisters, error) {
 	r := JSONRegisters{Inputs: []JSONInput{}, Assumptions: []JSONAssumption{}}
-	for _, s := range pkg.Sheets {
-		for _, st := range s.Calc.Statements {
-			if !st.IsInput() || s.Calc.Result(st).Status != engine.OK {
-				continue
-			}
-			v, u := InputText(st)
-			res := s.Calc.Result(st)
-			in := JSONInput{Sheet: s.Path(), Name: st.Name, Pos: st.Pos, Value: v, Unit: u,
-				SI: JSONValue{Value: res.Value, Unit: st.Type.Dim.SIUnits()}, ListSI: res.List,
-				Description: st.Description, Source: st.Source, Instance: st.Instance, Overridden: st.Overridden}
-			if p := res.Phasor; p != nil {
-				in.PhasorSI = &JSONPhasorSI{Re: p.Re, Im: p.Im}
-			}
-			r.Inputs = append(r.Inputs, in)
+	for i, d := range ds {
+		reg, err := d.registerOf(pkg.Sheets[i])
+		if err != nil {
+			return r, err
 		}
-		for _, a := range s.Calc.Assumptions {
-			ja := JSONAssumption{Sheet: s.Path(), ID: a.ID, Text: a.Text, Pos: a.Pos, Dependents: []JSONRef{}}
-			if a.Statement != nil {
-				ja.Statement = a.Statement.Name
-			}
-			for _, d := range a.Dependents {
-				ja.Dependents = append(ja.Dependents, ref(d))
-			}
-			r.Assumptions = append(r.Assumptions, ja)
+		r.Inputs = append(r.Inputs, reg.Inputs...)
+		r.Assumptions = append(r.Assumptions, reg.Assumptions...)
+	}
+	return r, nil
+}
+
+// sheetRegisters are a sheet's entries of the JSON registers.
+func sheetRegisters(s *project.Sheet) JSONRegisters {
+	var r JSONRegisters
+	for _, st := range s.Calc.Statements {
+		if !st.IsInput() || s.Calc.Result(st).Status != engine.OK {
+			continue
 		}
+		v, u := InputText(st)
+		res := s.Calc.Result(st)
+		in := JSONInput{Sheet: s.Path(), Name: st.Name, Pos: st.Pos, Value: v, Unit: u,
+			SI: JSONValue{Value: res.Value, Unit: st.Type.Dim.SIUnits()}, ListSI: res.List,
+			Description: st.Description, Source: st.Source, Instance: st.Instance, Overridden: st.Overridden}
+		if p := res.Phasor; p != nil {
+			in.PhasorSI = &JSONPhasorSI{Re: p.Re, Im: p.Im}
+		}
+		r.Inputs = append(r.Inputs, in)
+	}
+	for _, a := range s.Calc.Assumptions {
+		ja := JSONAssumption{Sheet: s.Path(), ID: a.ID, Text: a.Text, Pos: a.Pos, Dependents: []JSONRef{}}
+		if a.Statement != nil {
+			ja.Statement = a.Statement.Name
+		}
+		for _, d := range a.Dependents {
+			ja.Dependents = append(ja.Dependents, ref(d))
+		}
+		r.Assumptions = append(r.Assumptions, ja)
 	}
 	return r
 }
@@ -490,7 +507,8 @@ func jsonFunction(st *engine.Statement) JSONFunction {
 
 // Document builds the JSON form of a package in memory.
 func Document(pkg *project.Package, opt Options) JSONDoc {
-	doc := documentHead(pkg, opt)
+	// Only a build lets calculations go, and it never asks for this.
+	doc, _ := documentHead(pkg, opt, digestsOf(pkg, opt))
 	for _, s := range pkg.Sheets {
 		doc.Sheets = append(doc.Sheets, jsonSheet(s, opt))
 	}

@@ -12,22 +12,36 @@ import (
 
 // packagePages renders the pages of the package as a whole: the index,
 // the inputs, assumptions and standards registers and, when an audit was
-// run, the audit.
-func packagePages(pkg *project.Package, opt Options) []File {
-	files := []File{
-		{Path: "index.html", Data: indexPage(pkg, opt)},
-		{Path: "inputs.html", Data: inputsPage(pkg, opt)},
-		{Path: "assumptions.html", Data: assumptionsPage(pkg, opt)},
-		{Path: "standards.html", Data: standardsPage(pkg, opt)},
+// run, the audit, handing each to emit before the next is rendered.
+func packagePages(pkg *project.Package, opt Options, emit func(File) error) error {
+	ds := digestsOf(pkg, opt)
+	pages := []pageMaker{
+		{"index.html", func() []byte { return indexPage(pkg, opt, ds) }},
+		{"inputs.html", func() []byte { return inputsPage(pkg, opt, ds) }},
+		{"assumptions.html", func() []byte { return assumptionsPage(pkg, opt, ds) }},
+		{"standards.html", func() []byte { return standardsPage(pkg, opt, ds) }},
 	}
 	if opt.Audit != nil {
-		files = append(files, File{Path: "audit.html", Data: auditPage(pkg, opt, *opt.Audit)})
+		pages = append(pages, pageMaker{"audit.html", func() []byte { return auditPage(pkg, opt, ds, *opt.Audit) }})
+	}
+	for _, pg := range pages {
+		if err := emit(File{Path: pg.path, Data: pg.render()}); err != nil {
+			return err
+		}
 	}
 	// The data files the tables read, as read, for their links.
 	for _, d := range pkg.DataFiles() {
-		files = append(files, File{Path: SourcesDir + d.Path, Data: d.Data})
+		if err := emit(File{Path: SourcesDir + d.Path, Data: d.Data}); err != nil {
+			return err
+		}
 	}
-	return files
+	return nil
+}
+
+// pageMaker renders one package page.
+type pageMaker struct {
+	path   string
+	render func() []byte
 }
 
 // packageBlock is the title block of the package pages.
@@ -63,9 +77,9 @@ func packagePage(pkg *project.Package, opt Options, heading string) *page {
 	return p
 }
 
-func indexPage(pkg *project.Package, opt Options) []byte {
+func indexPage(pkg *project.Package, opt Options, ds []*Digest) []byte {
 	p := packagePage(pkg, opt, "Calculation package")
-	ix := indexSheets(pkg)
+	ix := indexSheets(pkg, ds)
 	c := pkg.Counts()
 	class := "status"
 	if c.Errors > 0 {
@@ -90,17 +104,37 @@ func indexPage(pkg *project.Package, opt Options) []byte {
 	revisionHistory(p, pkg)
 
 	// Every check of the package, the closest to its limit first.
-	var all, fixed []checkRow
-	for _, s := range pkg.Sheets {
-		all = append(all, sheetChecks(s, s.Page, s.Path(), s.Digits(opt.Digits))...)
-		fixed = append(fixed, fixedChecks(s, s.Page, s.Path(), s.Digits(opt.Digits))...)
+	var all []indexedCheck
+	anyFixed := false
+	for _, d := range ds {
+		all = append(all, d.checks...)
+		anyFixed = anyFixed || !d.fixed.empty()
 	}
+	n := 0
+	for _, c := range all {
+		n += c.row.len()
+	}
+	for _, d := range ds {
+		n += d.fixed.len()
+	}
+	p.Grow(n + 4096*(len(pkg.Sheets)+1)) // and a row of the table of sheets each
 	if len(all) > 0 {
-		sort.SliceStable(all, func(i, j int) bool { return worse(all[i].r, all[j].r) })
+		sort.SliceStable(all, func(i, j int) bool { return worse(all[i], all[j]) })
 		p.f("<h2>Checks, closest to their limits first</h2>\n")
-		checksTable(p, all, true)
+		checksHead(p, true)
+		for _, c := range all {
+			p.Write(opt.Digests.read(c.row))
+		}
+		p.f("</tbody>\n</table>\n")
 	}
-	fixedSection(p, fixed, true)
+	if anyFixed {
+		fixedHead(p)
+		checksHead(p, true)
+		for _, d := range ds {
+			p.Write(opt.Digests.read(d.fixed))
+		}
+		p.f("</tbody>\n</table>\n")
+	}
 
 	if len(pkg.Diags) > 0 {
 		p.f("<h2>Errors</h2>\n<ul>\n")
@@ -134,11 +168,11 @@ func revisionHistory(p *page, pkg *project.Package) {
 
 // worse orders checks for the package index: failures first, then by
 // utilisation from highest, then checks without one.
-func worse(a, b engine.Result) bool {
-	if (a.Status == engine.Fail) != (b.Status == engine.Fail) {
-		return a.Status == engine.Fail
+func worse(a, b indexedCheck) bool {
+	if (a.status == engine.Fail) != (b.status == engine.Fail) {
+		return a.status == engine.Fail
 	}
-	ua, ub := a.Utilisation, b.Utilisation
+	ua, ub := a.util, b.util
 	switch {
 	case math.IsNaN(ua) && math.IsNaN(ub):
 		return false
@@ -151,51 +185,53 @@ func worse(a, b engine.Result) bool {
 }
 
 // inputsPage is the package-wide inputs register.
-func inputsPage(pkg *project.Package, opt Options) []byte {
+func inputsPage(pkg *project.Package, opt Options, ds []*Digest) []byte {
 	p := packagePage(pkg, opt, "Inputs register")
 	p.f("<p>Every input of the package: a definition whose value is written directly, with the unit, description and source the author gave.</p>\n")
 	p.f("<table>\n<thead><tr><th>Sheet</th><th class=\"ck\">Line</th><th>Name</th><th>Value</th><th>Unit</th><th>Description</th><th>Source</th><th class=\"ck\">Set by</th></tr></thead>\n<tbody>\n")
-	for _, s := range pkg.Sheets {
-		for _, st := range s.Calc.Statements {
-			if !st.IsInput() || s.Calc.Result(st).Status != engine.OK {
-				continue
-			}
-			value, unit := InputText(st)
-			p.f("<tr><td><a href=\"%s\">%s</a></td><td class=\"ck\"><a class=\"loc\" href=\"%s#%s\">%d</a></td><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td class=\"ck\">%s</td></tr>\n",
-				pageHref(s.Page), esc(s.Path()), pageHref(s.Page), anchor(st), st.Pos.Line, symbolHTML(st.Name), esc(value), esc(unit), esc(st.Description), esc(st.Source), esc(SetBy(st)))
-		}
+	// Sized once: the register of a large package runs to tens of MB.
+	n := 0
+	for _, d := range ds {
+		n += d.inputs.len()
+	}
+	p.Grow(n + 4096)
+	for _, d := range ds {
+		p.Write(opt.Digests.read(d.inputs))
 	}
 	p.f("</tbody>\n</table>\n")
 	p.close(opt.Version, "Inputs register.")
 	return p.Bytes()
 }
 
+// inputRows are a sheet's rows of the package's inputs register.
+func inputRows(s *project.Sheet) []byte {
+	p := &page{}
+	for _, st := range s.Calc.Statements {
+		if !st.IsInput() || s.Calc.Result(st).Status != engine.OK {
+			continue
+		}
+		value, unit := InputText(st)
+		p.f("<tr><td><a href=\"%s\">%s</a></td><td class=\"ck\"><a class=\"loc\" href=\"%s#%s\">%d</a></td><td>%s</td><td class=\"num\">%s</td><td>%s</td><td>%s</td><td>%s</td><td class=\"ck\">%s</td></tr>\n",
+			pageHref(s.Page), esc(s.Path()), pageHref(s.Page), anchor(st), st.Pos.Line, symbolHTML(st.Name), esc(value), esc(unit), esc(st.Description), esc(st.Source), esc(SetBy(st)))
+	}
+	return p.Bytes()
+}
+
 // assumptionsPage lists every assumption with every result that rests on
 // it.
-func assumptionsPage(pkg *project.Package, opt Options) []byte {
+func assumptionsPage(pkg *project.Package, opt Options, ds []*Digest) []byte {
 	p := packagePage(pkg, opt, "Assumptions register")
 	p.f("<p>Assumptions are paragraphs that start <code>Assumption &lt;id&gt;:</code>, cited by statements with <code>; assumes: &lt;id&gt;</code>, and statements marked <code>; assume: &lt;why&gt;</code>. Each is listed with every result that rests on it, directly or through other results.</p>\n")
 	n := 0
-	for _, s := range pkg.Sheets {
-		for _, a := range s.Calc.Assumptions {
-			if n == 0 {
-				p.f("<table>\n<thead><tr><th>Sheet</th><th>Assumption</th><th>Text</th><th>Results resting on it</th></tr></thead>\n<tbody>\n")
-			}
-			n++
-			p.f("<tr><td><a href=\"%s\">%s</a></td><td><a href=\"%s#%s\">%s</a></td><td>%s</td><td>", pageHref(s.Page), esc(s.Path()),
-				pageHref(s.Page), assumptionAnchor(a), esc(a.ID), esc(a.Text))
-			for i, d := range a.Dependents {
-				if i > 0 {
-					p.f(", ")
-				}
-				name := symbolHTML(d.Name)
-				if d.Kind == engine.Check {
-					name = "check " + esc(d.Formula)
-				}
-				p.f("<a href=\"%s#%s\">%s</a>", pageHref(s.Page), anchor(d), name)
-			}
-			p.f("</td></tr>\n")
+	for _, d := range ds {
+		if d.assumptions.empty() {
+			continue
 		}
+		if n == 0 {
+			p.f("<table>\n<thead><tr><th>Sheet</th><th>Assumption</th><th>Text</th><th>Results resting on it</th></tr></thead>\n<tbody>\n")
+		}
+		n++
+		p.Write(opt.Digests.read(d.assumptions))
 	}
 	if n == 0 {
 		p.f("<p>The package states no assumptions.</p>\n")
@@ -206,15 +242,36 @@ func assumptionsPage(pkg *project.Package, opt Options) []byte {
 	return p.Bytes()
 }
 
+// assumptionRows are a sheet's rows of the package's assumptions register.
+func assumptionRows(s *project.Sheet) []byte {
+	p := &page{}
+	for _, a := range s.Calc.Assumptions {
+		p.f("<tr><td><a href=\"%s\">%s</a></td><td><a href=\"%s#%s\">%s</a></td><td>%s</td><td>", pageHref(s.Page), esc(s.Path()),
+			pageHref(s.Page), assumptionAnchor(a), esc(a.ID), esc(a.Text))
+		for i, d := range a.Dependents {
+			if i > 0 {
+				p.f(", ")
+			}
+			name := symbolHTML(d.Name)
+			if d.Kind == engine.Check {
+				name = "check " + esc(d.Formula)
+			}
+			p.f("<a href=\"%s#%s\">%s</a>", pageHref(s.Page), anchor(d), name)
+		}
+		p.f("</td></tr>\n")
+	}
+	return p.Bytes()
+}
+
 // AuditHTML renders the audit page on its own; opt.Audit must be set.
 func AuditHTML(pkg *project.Package, opt Options) []byte {
-	return auditPage(pkg, opt, *opt.Audit)
+	return auditPage(pkg, opt, digestsOf(pkg, opt), *opt.Audit)
 }
 
 // auditPage lists the audit's findings, open ones first.
-func auditPage(pkg *project.Package, opt Options, r audit.Report) []byte {
+func auditPage(pkg *project.Package, opt Options, ds []*Digest, r audit.Report) []byte {
 	p := packagePage(pkg, opt, "Audit")
-	ix := indexSheets(pkg)
+	ix := indexSheets(pkg, ds)
 	p.f("<section class=\"status%s\"><p><strong>%s</strong> open, %d accepted.</p></section>\n",
 		map[bool]string{true: " has-fail", false: ""}[r.Open() > 0], Count(r.Open(), "finding"), len(r.Findings)-r.Open())
 	for _, accepted := range []bool{false, true} {

@@ -180,29 +180,39 @@ func sheetChecks(s *project.Sheet, page, sheet string, digits int) []checkRow {
 // unit, and the utilisation, with a column naming the sheet when asked
 // (for the package index, whose links go to each check's page).
 func checksTable(p *page, checks []checkRow, sheetCol bool) {
+	checksHead(p, sheetCol)
+	for _, c := range checks {
+		checkLine(p, c, sheetCol)
+	}
+	p.f("</tbody>\n</table>\n")
+}
+
+// checksHead opens a table of checks.
+func checksHead(p *page, sheetCol bool) {
 	p.f("<table class=\"checks\">\n<thead><tr><th></th>")
 	if sheetCol {
 		p.f("<th>Sheet</th>")
 	}
 	p.f("<th>Check</th><th>Left</th><th></th><th>Right</th><th>Demand / capacity</th><th>Description</th></tr></thead>\n<tbody>\n")
-	for _, c := range checks {
-		st, r, digits := c.st, c.r, c.digits
-		verdict, cls := Verdict(r.Status), "pass"
-		switch {
-		case c.fixed:
-			verdict, cls = "fixed", "fixed"
-		case r.Status == engine.Fail:
-			cls = "fail"
-		}
-		p.f("<tr class=\"%s\"><td><span class=\"stamp\">%s</span></td>", cls, verdict)
-		if sheetCol {
-			p.f("<td>%s</td>", esc(c.sheet))
-		}
-		p.f("<td><a href=\"%s#%s\"><code>%s</code></a></td><td class=\"num\">%s</td><td>%s</td><td class=\"num\">%s</td><td class=\"num\">%s</td><td>%s</td></tr>\n",
-			pageHref(c.page), anchor(st), esc(instancePrefix(st)+st.Formula), esc(ValueText(r.Left, r.Shown, digits)), esc(relations[st.Compare().Op]),
-			esc(ValueText(r.Right, r.Shown, digits)), esc(utilisationCell(c)), esc(describe(st)))
+}
+
+// checkLine is one row of a table of checks.
+func checkLine(p *page, c checkRow, sheetCol bool) {
+	st, r, digits := c.st, c.r, c.digits
+	verdict, cls := Verdict(r.Status), "pass"
+	switch {
+	case c.fixed:
+		verdict, cls = "fixed", "fixed"
+	case r.Status == engine.Fail:
+		cls = "fail"
 	}
-	p.f("</tbody>\n</table>\n")
+	p.f("<tr class=\"%s\"><td><span class=\"stamp\">%s</span></td>", cls, verdict)
+	if sheetCol {
+		p.f("<td>%s</td>", esc(c.sheet))
+	}
+	p.f("<td><a href=\"%s#%s\"><code>%s</code></a></td><td class=\"num\">%s</td><td>%s</td><td class=\"num\">%s</td><td class=\"num\">%s</td><td>%s</td></tr>\n",
+		pageHref(c.page), anchor(st), esc(instancePrefix(st)+st.Formula), esc(ValueText(r.Left, r.Shown, digits)), esc(relations[st.Compare().Op]),
+		esc(ValueText(r.Right, r.Shown, digits)), esc(utilisationCell(c)), esc(describe(st)))
 }
 
 // inputsRegister lists the sheet's inputs: name, value as written, unit,

@@ -48,48 +48,46 @@ func clauseTexts(st *engine.Statement) []string {
 	return out
 }
 
-// standardUse is one statement that names a clause.
-type standardUse struct {
-	sheet  *project.Sheet
-	st     *engine.Statement
-	clause standards.Clause
-}
-
 // standardsOf lists every clause the package's statements name, by
 // standard and clause, then by sheet and line. A clause in a template is
 // listed once per sheet that uses it.
-func standardsOf(pkg *project.Package) []standardUse {
-	var out []standardUse
-	for _, s := range pkg.Sheets {
-		for _, st := range s.Calc.Statements {
-			_, clauses := standards.Split(st.Description)
-			for _, c := range clauses {
-				out = append(out, standardUse{s, st, c})
-			}
+func standardsOf(pkg *project.Package, ds []*Digest) []standardRow {
+	type use struct {
+		sheet string
+		standardRow
+	}
+	var all []use
+	for i, d := range ds {
+		for _, r := range d.standards {
+			all = append(all, use{pkg.Sheets[i].Path(), r})
 		}
 	}
-	sort.SliceStable(out, func(i, j int) bool {
-		a, b := out[i], out[j]
-		if a.clause.Standard != b.clause.Standard {
-			return a.clause.Standard < b.clause.Standard
+	sort.SliceStable(all, func(i, j int) bool {
+		a, b := all[i], all[j]
+		if a.standard != b.standard {
+			return a.standard < b.standard
 		}
-		if a.clause.Ref != b.clause.Ref {
-			return a.clause.Ref < b.clause.Ref
+		if a.ref != b.ref {
+			return a.ref < b.ref
 		}
-		if a.sheet.Path() != b.sheet.Path() {
-			return a.sheet.Path() < b.sheet.Path()
+		if a.sheet != b.sheet {
+			return a.sheet < b.sheet
 		}
-		return a.st.Index < b.st.Index
+		return a.index < b.index
 	})
+	out := make([]standardRow, len(all))
+	for i, u := range all {
+		out[i] = u.standardRow
+	}
 	return out
 }
 
 // standardsPage is the package-wide standards register: every standard a
 // check names, with the clause and the checks that apply it.
-func standardsPage(pkg *project.Package, opt Options) []byte {
+func standardsPage(pkg *project.Package, opt Options, ds []*Digest) []byte {
 	p := packagePage(pkg, opt, "Standards register")
 	p.f("<p>Every standard and clause that a statement of the package names as applied (<code>; clause: standard:edition, clause</code>), with the statements that apply it. A clause marked from memory must be read against the current edition before issue. The standards govern: these calculations support, and never replace, the judgment of a qualified engineer, local codes and licensed practice.</p>\n")
-	uses := standardsOf(pkg)
+	uses := standardsOf(pkg, ds)
 	if len(uses) == 0 {
 		p.f("<p>No statement of the package names a clause.</p>\n")
 		p.close(opt.Version, "Standards register.")
@@ -97,21 +95,29 @@ func standardsPage(pkg *project.Package, opt Options) []byte {
 	}
 	p.f("<table>\n<thead><tr><th>Standard</th><th>Clause</th><th>Sheet</th><th>Line</th><th>Statement</th><th>Outcome</th></tr></thead>\n<tbody>\n")
 	for _, u := range uses {
-		label := u.st.Name
-		outcome := ""
-		if u.st.Kind == engine.Check {
-			label = "check " + u.st.Formula
-			if r := u.sheet.Calc.Result(u.st); r.Status == engine.Pass || r.Status == engine.Fail {
-				outcome, _ = verdictOf(u.sheet, u.st, r)
-			} else {
-				outcome = r.Status.String()
-			}
-		}
-		p.f("<tr><td>%s</td><td>%s</td><td><a href=\"%s\">%s</a></td><td class=\"num\">%d</td><td><a href=\"%s#%s\"><code>%s</code></a></td><td>%s</td></tr>\n",
-			esc(u.clause.Standard), esc(u.clause.Ref), pageHref(u.sheet.Page), esc(u.sheet.Title()), u.st.Pos.Line,
-			pageHref(u.sheet.Page), anchor(u.st), esc(instancePrefix(u.st)+strings.TrimSpace(label)), esc(outcome))
+		p.Write(opt.Digests.read(u.row))
 	}
 	p.f("</tbody>\n</table>\n")
 	p.close(opt.Version, "Standards register.")
+	return p.Bytes()
+}
+
+// standardLine is the row of the standards register for one clause that
+// statement st of sheet s applies.
+func standardLine(s *project.Sheet, st *engine.Statement, c standards.Clause) []byte {
+	label := st.Name
+	outcome := ""
+	if st.Kind == engine.Check {
+		label = "check " + st.Formula
+		if r := s.Calc.Result(st); r.Status == engine.Pass || r.Status == engine.Fail {
+			outcome, _ = verdictOf(s, st, r)
+		} else {
+			outcome = r.Status.String()
+		}
+	}
+	p := &page{}
+	p.f("<tr><td>%s</td><td>%s</td><td><a href=\"%s\">%s</a></td><td class=\"num\">%d</td><td><a href=\"%s#%s\"><code>%s</code></a></td><td>%s</td></tr>\n",
+		esc(c.Standard), esc(c.Ref), pageHref(s.Page), esc(s.Title()), st.Pos.Line,
+		pageHref(s.Page), anchor(st), esc(instancePrefix(st)+strings.TrimSpace(label)), esc(outcome))
 	return p.Bytes()
 }
