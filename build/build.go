@@ -90,11 +90,13 @@ func (r *Result) PackagePages() []render.File {
 
 // Load reads, evaluates and audits the package at src (a folder or one
 // sheet) and works out the render options. It writes nothing.
-func Load(src string, opt Options) (*Result, error) { return load(src, opt, nil) }
+func Load(src string, opt Options) (*Result, error) { return load(src, opt, nil, nil) }
 
 // load is Load that hands each page, with the render options, to
-// evaluated as soon as the sheet is evaluated (see project.LoadOptions).
-func load(src string, opt Options, evaluated func(*project.Package, *project.Sheet, render.Options)) (*Result, error) {
+// evaluated as soon as the sheet is evaluated (see project.LoadOptions),
+// and audits each sheet with audits when it is set (a build audits each
+// sheet in evaluated, before letting its calculation go).
+func load(src string, opt Options, evaluated func(*project.Package, *project.Sheet, render.Options), audits func(*project.Sheet) *audit.SheetAudit) (*Result, error) {
 	if opt.Digits == 0 {
 		opt.Digits = project.DefaultDigits
 	}
@@ -105,7 +107,8 @@ func load(src string, opt Options, evaluated func(*project.Package, *project.She
 	if err != nil {
 		return nil, err
 	}
-	var lo project.LoadOptions
+	// Only a build into a folder renders the pages, which read the trees.
+	lo := project.LoadOptions{Prose: opt.Out != ""}
 	if evaluated != nil {
 		var once sync.Once
 		var ropt render.Options
@@ -120,7 +123,10 @@ func load(src string, opt Options, evaluated func(*project.Package, *project.She
 	if err != nil {
 		return nil, err
 	}
-	report := audit.Run(pkg)
+	if audits == nil {
+		audits = audit.Sheet
+	}
+	report := audit.Combine(pkg, audits)
 	return &Result{Package: pkg, Sources: sources, Render: renderOptions(pkg, opt, &report)}, nil
 }
 
@@ -159,7 +165,7 @@ func Run(src string, opt Options) (*Result, error) {
 	}
 	if opt.Out == "" {
 		// No page is rendered: nothing needs the Markdown trees.
-		res, err := load(src, opt, func(_ *project.Package, s *project.Sheet, _ render.Options) { s.ReleaseProse() })
+		res, err := load(src, opt, func(_ *project.Package, s *project.Sheet, _ render.Options) { s.ReleaseProse() }, nil)
 		if err != nil {
 			return nil, err
 		}

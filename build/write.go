@@ -148,8 +148,19 @@ func (t *target) build(src string, opt Options) (res *Result, err error) {
 		}
 	}()
 	sp := t.newSheetPages()
-	res, err = load(src, opt, sp.add)
+	dg, err := t.newDigests(opt.JSON != "")
+	if err != nil {
+		return nil, err
+	}
+	defer dg.close()
+	res, err = load(src, opt, func(pkg *project.Package, s *project.Sheet, ropt render.Options) {
+		sp.add(pkg, s, ropt)
+		dg.add(pkg, s, ropt)
+	}, dg.audit)
 	sp.wait()
+	if err == nil {
+		err = dg.err
+	}
 	if err != nil {
 		return nil, err
 	}
@@ -158,7 +169,8 @@ func (t *target) build(src string, opt Options) (res *Result, err error) {
 			s.ReleaseFormulaText()
 		}
 	}
-	return res, t.write(res, sp, opt.JSON)
+	res.Render.Digests = dg.digests
+	return res, t.write(res, sp, opt.JSON, dg.close)
 }
 
 // putSheet renders one sheet's page and writes it into the staging
@@ -228,17 +240,22 @@ func (sp *sheetPages) record(page string, p Page, err error) {
 }
 
 // write writes the package pages, the sheet pages not written yet, the
-// JSON and the manifest into the staging folder, and swaps it in. Pages
-// are listed in a fixed order: the package pages, then the sheets'.
-func (t *target) write(res *Result, sp *sheetPages, jsonPath string) error {
+// JSON and the manifest into the staging folder, calls done, and swaps it
+// in. Pages are listed in a fixed order: the package pages, then the
+// sheets'.
+func (t *target) write(res *Result, sp *sheetPages, jsonPath string, done func()) error {
 	made := map[string]bool{ManifestName: true}
 	var pages []Page
-	for _, f := range render.PackageFiles(res.Package, res.Render) {
+	err := render.EachPackageFile(res.Package, res.Render, func(f render.File) error {
 		pages = append(pages, PageOf(f))
 		made[f.Path] = true
-		if err := t.put(f.Path, f.Data); err != nil {
-			return err
-		}
+		return t.put(f.Path, f.Data)
+	})
+	if err == nil {
+		err = res.Render.Digests.Err()
+	}
+	if err != nil {
+		return err
 	}
 	ropt := res.Render.ForPackage(res.Package)
 	for _, s := range res.Package.Sheets {
@@ -269,6 +286,7 @@ func (t *target) write(res *Result, sp *sheetPages, jsonPath string) error {
 	if err := t.put(ManifestName, data); err != nil {
 		return err
 	}
+	done()
 	if err := t.swap(); err != nil {
 		return fmt.Errorf("cannot put the new package in the place of %s (sheaf swaps whole folders, so it must be an ordinary folder, not a mount point): %w", t.given, err)
 	}
